@@ -1,0 +1,63 @@
+package hammerstep.app;
+
+import ch.qos.logback.classic.Level;
+import hammerstep.config.ConfigException;
+import hammerstep.config.Problem;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import java.util.stream.Stream;
+
+/**
+ * {@code hammerstep check}: validates configuration files (and the YAML files of directories).
+ * Exit 0 when all are valid, 2 otherwise, one {@code file:line:column: message} line per problem.
+ */
+@Command(name = "check", mixinStandardHelpOptions = true,
+        description = {"Validates configuration files: joint programs (more kinds are recognised by their keys).",
+                "Prints one line per problem as file:line:column: message; exit 0 when all are valid, 2 otherwise."})
+public final class CheckCommand implements Callable<Integer> {
+
+    @Parameters(arity = "1..*", paramLabel = "PATH", description = "files, or directories searched for *.yaml")
+    List<Path> paths;
+
+    @Option(names = "--quiet", description = "print nothing when all files are valid")
+    boolean quiet;
+
+    @Option(names = "--verbose", description = "log debug detail")
+    boolean verbose;
+
+    @Override
+    public Integer call() throws IOException {
+        Logging.configure(verbose, Level.WARN);
+        List<Path> files = new ArrayList<>();
+        List<Problem> problems = new ArrayList<>();
+        for (Path p : paths) {
+            if (Files.isDirectory(p)) {
+                try (Stream<Path> s = Files.walk(p)) {
+                    s.filter(f -> f.toString().endsWith(".yaml") || f.toString().endsWith(".yml")).sorted().forEach(files::add);
+                }
+            } else {
+                files.add(p);
+            }
+        }
+        for (Path f : files) {
+            try {
+                ConfigFiles.check(f);
+            } catch (ConfigException e) {
+                problems.addAll(e.problems());
+            }
+        }
+        problems.forEach(System.err::println);
+        if (!quiet && problems.isEmpty()) {
+            System.out.println(files.size() + (files.size() == 1 ? " file" : " files") + " valid");
+        }
+        return problems.isEmpty() ? 0 : 2;
+    }
+}

@@ -1,0 +1,35 @@
+package hammerstep.app;
+
+import hammerstep.config.ConfigException;
+import hammerstep.config.ConfigNode;
+import hammerstep.config.Problem;
+import hammerstep.config.YamlDocument;
+import hammerstep.joint.ProgramFile;
+
+import java.nio.file.Path;
+
+/**
+ * Tells the kinds of configuration file apart by their top-level keys and validates each with
+ * its own reader. A joint program has {@code torque}.
+ */
+public final class ConfigFiles {
+
+    private ConfigFiles() {
+    }
+
+    /** Validates one file of any known kind. */
+    public static void check(Path file) throws ConfigException {
+        YamlDocument doc = YamlDocument.read(file);
+        ConfigNode root = doc.root();
+        if (root.kind() != ConfigNode.Kind.MAP) {
+            throw new ConfigException(new Problem(doc.file(), root.line(), root.column(),
+                    "expected a map of keys at the top of the file, got " + root.describe()));
+        }
+        if (root.entries().containsKey("torque")) {
+            ProgramFile.read(doc);
+            return;
+        }
+        throw new ConfigException(new Problem(doc.file(), root.line(), root.column(),
+                "not a known kind of configuration file: a joint program has 'torque'"));
+    }
+}

@@ -1,0 +1,123 @@
+package hammerstep.app;
+
+import ch.qos.logback.classic.Level;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import hammerstep.config.ConfigException;
+import hammerstep.joint.JointEvents;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.joint.JointResult;
+import hammerstep.joint.ProgramFile;
+import hammerstep.results.JointFields;
+import hammerstep.signal.Conditioning;
+import hammerstep.trace.TraceException;
+import hammerstep.trace.TraceReader;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+import java.io.BufferedWriter;
+import java.io.IOException;
+import java.io.OutputStreamWriter;
+import java.io.PrintStream;
+import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+
+/** {@code hammerstep replay}: the station's own measurement chain run over a recorded trace. */
+@Command(name = "replay", mixinStandardHelpOptions = true,
+        description = {"Runs the controller's signal chain on a recorded trace and judges every rundown.",
+                "Prints one JSON line per rundown (or a table with --summary)."})
+public final class ReplayCommand implements Callable<Integer> {
+
+    static final int BLOCK = 4096;
+
+    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm) or raw float32 N·m (.f32)")
+    Path trace;
+
+    @Option(names = "--program", required = true, paramLabel = "FILE", description = "joint program (YAML)")
+    Path programFile;
+
+    @Option(names = "--rate", paramLabel = "HZ", description = "sample rate; required for .f32, overrides CSV metadata")
+    double rateHz;
+
+    @Option(names = "--summary", description = "print a table instead of JSON lines")
+    boolean summary;
+
+    @Option(names = "--low-pass", paramLabel = "HZ", description = "2nd-order Butterworth low-pass before detection (default: none)")
+    double lowPassHz;
+
+    @Option(names = "--over-range", paramLabel = "NM", description = "|torque| at or above this is a sensor fault (default: off)")
+    double overRangeNm = Double.NaN;
+
+    @Option(names = "--flat-line-ms", paramLabel = "MS", description = "a signal exactly constant this long is a sensor fault (default: off)")
+    double flatLineMs;
+
+    @Option(names = "--verbose", description = "log debug detail")
+    boolean verbose;
+
+    @Override
+    public Integer call() throws ConfigException, TraceException, IOException {
+        Logging.configure(verbose, Level.WARN);
+        JointProgram program = ProgramFile.load(programFile);
+        boolean f32 = TraceReader.isF32(trace);
+        if (f32 && !(rateHz > 0)) {
+            throw new UserError(trace + ": a .f32 trace needs --rate HZ");
+        }
+        double rate = f32 ? rateHz : (rateHz > 0 ? rateHz : TraceReader.peekCsv(trace).rateHz());
+        Conditioning conditioning = JointMonitor.replayConditioning(program)
+                .withLowPass(lowPassHz).withOverRange(overRangeNm).withFlatLine(flatLineMs);
+        if (lowPassHz >= rate / 2) {
+            throw new UserError("--low-pass " + lowPassHz + " Hz must be below half the sample rate (" + rate / 2 + " Hz)");
+        }
+        List<JointResult> results = new ArrayList<>();
+        BufferedWriter out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), 1 << 16);
+        ObjectMapper json = new ObjectMapper();
+        JointEvents events = result -> {
+            if (summary) {
+                results.add(result);
+            } else {
+                try {
+                    Map<String, Object> m = JointFields.of(result);
+                    m.put("start_s", JointFields.round(result.startNs() * 1e-9, 10_000));
+                    out.write(json.writeValueAsString(m));
+                    out.write('\n');
+                } catch (IOException e) {
+                    throw new UncheckedIOException(e);
+                }
+            }
+        };
+        JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
+        float[] block = new float[BLOCK];
+        if (f32) {
+            TraceReader.readF32(trace, rate, block, monitor::onSamples);
+        } else {
+            TraceReader.readCsv(trace, rate, block, monitor::onSamples);
+        }
+        monitor.finish();
+        if (summary) {
+            printSummary(results, System.out);
+        }
+        out.flush();
+        return 0;
+    }
+
+    static void printSummary(List<JointResult> results, PrintStream out) {
+        out.printf(Locale.ROOT, "%3s %9s %6s %10s %9s %7s  %s%n", "#", "start_s", "blows", "final_nm", "dur_ms", "verdict", "reasons");
+        int go = 0;
+        for (int i = 0; i < results.size(); i++) {
+            JointResult r = results.get(i);
+            if (r.verdict() == hammerstep.joint.Verdict.GO) {
+                go++;
+            }
+            out.printf(Locale.ROOT, "%3d %9.4f %6d %10.2f %9.1f %7s  %s%n", i + 1, r.startNs() * 1e-9, r.blows(),
+                    r.finalTorqueNm(), r.durationMs(), r.verdict(), r.reasons().isEmpty() ? "-" : r.reasons());
+        }
+        out.printf(Locale.ROOT, "%d rundowns, %d GO, %d NO_GO%n", results.size(), go, results.size() - go);
+    }
+}

@@ -1,0 +1,102 @@
+package hammerstep.joint;
+
+import hammerstep.config.ConfigException;
+import hammerstep.config.MapReader;
+import hammerstep.config.Problems;
+import hammerstep.config.YamlDocument;
+
+import java.nio.file.Path;
+
+/**
+ * Reads and validates a joint program file (keys in docs/engineer-guide.md). Every problem is
+ * reported as {@code file:line:column: message} naming the key and what was expected.
+ */
+public final class ProgramFile {
+
+    private static final double MAX_NM = 100_000.0;
+
+    private ProgramFile() {
+    }
+
+    public static JointProgram load(Path path) throws ConfigException {
+        return read(YamlDocument.read(path));
+    }
+
+    public static JointProgram read(YamlDocument doc) throws ConfigException {
+        Problems problems = new Problems(doc.file());
+        MapReader root = MapReader.of(problems, doc.root());
+        JointProgram program = read(root, doc.revision());
+        root.finish();
+        problems.throwIfAny();
+        return program;
+    }
+
+    /**
+     * Reads a program from a map (a file's root, or a program written inline in a pattern).
+     * Problems go to the reader's collector; the caller calls {@code finish()} on the reader.
+     */
+    public static JointProgram read(MapReader root, String revision) {
+        String id = root.string("id");
+        if (!id.isEmpty() && !id.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
+            root.problem("id", "'" + root.path("id") + "' is \"" + id
+                    + "\": expected letters, digits, '.', '_' or '-', at most 64");
+        }
+
+        MapReader t = root.map("torque");
+        double min = t.requiredNumber("min", 0, MAX_NM);
+        double target = t.requiredNumber("target", 0, MAX_NM);
+        double max = t.requiredNumber("max", 0, MAX_NM);
+        if (min > max) {
+            t.problem("min", "'" + t.path("min") + "' (" + min + ") is above '" + t.path("max") + "' (" + max + ")");
+        } else if (target < min || target > max) {
+            t.problem("target", "'" + t.path("target") + "' (" + target + ") must lie between min (" + min
+                    + ") and max (" + max + ")");
+        }
+        t.finish();
+
+        FinalTorque finalTorque = FinalTorque.ofKey(root.choice("final_torque", "max_peak", FinalTorque.keys()));
+
+        MapReader b = root.map("blows");
+        double countAbove = b.requiredNumber("count_above", 0, MAX_NM);
+        double releaseBelow = b.number("release_below", Double.isNaN(countAbove) ? 0 : 0.5 * countAbove, 0, MAX_NM);
+        int blowsMin = b.integer("min", 0, 100_000);
+        int blowsMax = b.integer("max", 0, 100_000);
+        double maxRate = b.number("max_rate_per_min", JointProgram.DEFAULT_MAX_RATE_PER_MIN, 60, 60_000);
+        double deadTime = b.number("dead_time_ms", JointProgram.deadTimeMsFor(maxRate), 0, 1000);
+        if (b.has("dead_time_ms") && b.has("max_rate_per_min")) {
+            b.problem("dead_time_ms", "'" + b.path("dead_time_ms") + "' and '" + b.path("max_rate_per_min")
+                    + "' both set the dead time: give one of them");
+        }
+        if (blowsMin > blowsMax) {
+            b.problem("min", "'" + b.path("min") + "' (" + blowsMin + ") is above '" + b.path("max") + "' (" + blowsMax + ")");
+        }
+        if (releaseBelow > countAbove) {
+            b.problem("release_below", "'" + b.path("release_below") + "' (" + releaseBelow
+                    + ") must not be above count_above (" + countAbove + ")");
+        }
+        b.finish();
+
+        MapReader r = root.map("rundown");
+        double startAbove = r.requiredNumber("start_above", 0, MAX_NM);
+        double endAfter = r.requiredNumber("end_after_ms", 1, 60_000);
+        double maxMs = r.requiredNumber("max_ms", 1, 600_000);
+        if (startAbove > countAbove) {
+            r.problem("start_above", "'" + r.path("start_above") + "' (" + startAbove
+                    + ") must not be above blows.count_above (" + countAbove + "): a blow would start no rundown");
+        }
+        if (endAfter >= maxMs) {
+            r.problem("end_after_ms", "'" + r.path("end_after_ms") + "' (" + endAfter + ") must be below max_ms (" + maxMs + ")");
+        }
+        r.finish();
+
+        double shutoff = root.number("shutoff_at", Double.NaN, 0, MAX_NM);
+        if (!Double.isNaN(shutoff) && shutoff < countAbove) {
+            root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is below blows.count_above (" + countAbove + ")");
+        }
+        int rehit = root.integer("rehit_blows", 0, 0, 1000);
+
+        return new JointProgram(id, revision, new JointProgram.Torque(min, target, max), finalTorque,
+                new JointProgram.Blows(countAbove, releaseBelow, blowsMin, blowsMax, deadTime),
+                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit);
+    }
+}

@@ -1,0 +1,69 @@
+package hammerstep.results;
+
+import hammerstep.joint.JointProgram;
+import hammerstep.joint.JointResult;
+import hammerstep.joint.Reason;
+import hammerstep.signal.SignalFaults;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The figures of a judged joint under the field names that replay output and the MQTT joint
+ * message share ({@code blows}, {@code peaks_nm}, {@code final_torque_nm}, {@code duration_ms},
+ * {@code verdict}, {@code reasons}, {@code limits}, ...). Values are rounded for reading:
+ * torques to 0.01 N·m, times to 0.1 ms.
+ */
+public final class JointFields {
+
+    private JointFields() {
+    }
+
+    /** The shared fields in a stable order, ready for a JSON writer. */
+    public static Map<String, Object> of(JointResult r) {
+        JointProgram p = r.program();
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("program", p.id());
+        m.put("blows", r.blows());
+        List<Double> peaks = new ArrayList<>(r.peaksNm().length);
+        for (double v : r.peaksNm()) {
+            peaks.add(round(v, 100));
+        }
+        m.put("peaks_nm", peaks);
+        m.put("final_torque_nm", round(r.finalTorqueNm(), 100));
+        m.put("duration_ms", round(r.durationMs(), 10));
+        m.put("blow_rate_per_min", round(r.blowRatePerMin(), 10));
+        m.put("blows_after_shutoff", r.blowsAfterShutoff());
+        m.put("verdict", r.verdict().name());
+        List<String> reasons = new ArrayList<>(r.reasons().size());
+        for (Reason reason : r.reasons()) {
+            reasons.add(reason.name());
+        }
+        m.put("reasons", reasons);
+        if (r.faults() != 0) {
+            m.put("sensor_faults", SignalFaults.names(r.faults()));
+        }
+        m.put("limits", limits(p));
+        return m;
+    }
+
+    /** The windows the joint was judged against, so a result explains itself without its program file. */
+    public static Map<String, Object> limits(JointProgram p) {
+        Map<String, Object> torque = new LinkedHashMap<>();
+        torque.put("min", p.torque().minNm());
+        torque.put("max", p.torque().maxNm());
+        Map<String, Object> blows = new LinkedHashMap<>();
+        blows.put("min", p.blows().min());
+        blows.put("max", p.blows().max());
+        Map<String, Object> limits = new LinkedHashMap<>();
+        limits.put("torque_nm", torque);
+        limits.put("blows", blows);
+        return limits;
+    }
+
+    public static double round(double v, int scale) {
+        return Math.round(v * scale) / (double) scale;
+    }
+}

@@ -1,0 +1,38 @@
+package hammerstep.signal;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/** Bits for faults of the torque signal, as carried in an {@code int}. */
+public final class SignalFaults {
+
+    /** A sample reached the transducer's rated range (or the ADC's rail). */
+    public static final int OVER_RANGE = 1;
+    /** The signal stayed exactly constant for the flat-line time: open wire or dead channel. */
+    public static final int FLAT_LINE = 1 << 1;
+    /** The zero offset wandered past its limit; it is reported, not absorbed. */
+    public static final int ZERO_DRIFT = 1 << 2;
+    /** A sample was NaN or infinite. */
+    public static final int NOT_FINITE = 1 << 3;
+
+    private SignalFaults() {
+    }
+
+    /** Names of the set bits, e.g. {@code [OVER_RANGE, FLAT_LINE]}. Allocates: not for the sample path. */
+    public static List<String> names(int faults) {
+        List<String> names = new ArrayList<>(4);
+        if ((faults & OVER_RANGE) != 0) {
+            names.add("OVER_RANGE");
+        }
+        if ((faults & FLAT_LINE) != 0) {
+            names.add("FLAT_LINE");
+        }
+        if ((faults & ZERO_DRIFT) != 0) {
+            names.add("ZERO_DRIFT");
+        }
+        if ((faults & NOT_FINITE) != 0) {
+            names.add("NOT_FINITE");
+        }
+        return names;
+    }
+}

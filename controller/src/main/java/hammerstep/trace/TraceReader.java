@@ -1,0 +1,248 @@
+package hammerstep.trace;
+
+import java.io.BufferedReader;
+import java.io.IOException;
+import java.nio.ByteOrder;
+import java.nio.FloatBuffer;
+import java.nio.MappedByteBuffer;
+import java.nio.channels.FileChannel;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
+import java.util.LinkedHashMap;
+import java.util.Locale;
+import java.util.Map;
+
+/**
+ * Reads torque traces and streams them in blocks. Two formats:
+ * <ul>
+ *   <li>CSV: {@code #} lines carry metadata ({@code # rate_hz=50000}), then the header
+ *   {@code time_s,torque_nm}, then one row per sample with time strictly increasing;</li>
+ *   <li>{@code .f32}: raw little-endian float32 N·m, its rate given by the caller.</li>
+ * </ul>
+ * Errors are {@link TraceException}s naming the file and line.
+ */
+public final class TraceReader {
+
+    public static final String HEADER = "time_s,torque_nm";
+    private static final int MAX_F32_CHUNK = 1 << 28;
+
+    private TraceReader() {
+    }
+
+    /** What a trace's metadata says, as read before the samples. */
+    public record Info(double rateHz, Map<String, String> metadata) { }
+
+    public static boolean isF32(Path path) {
+        return path.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".f32");
+    }
+
+    /**
+     * Streams a raw float32 file through {@code sink} in blocks of {@code blockLength}.
+     * The first sample is at time 0.
+     */
+    public static Info readF32(Path path, double rateHz, float[] block, SampleSink sink) throws TraceException {
+        if (!(rateHz > 0)) {
+            throw new TraceException(path + ": a .f32 trace needs --rate HZ (a positive sample rate)");
+        }
+        double periodNs = 1e9 / rateHz;
+        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
+            long size = ch.size();
+            if (size % 4 != 0) {
+                throw new TraceException(path + ": size " + size + " bytes is not a whole number of float32 samples");
+            }
+            long sample = 0;
+            long pos = 0;
+            int n = block.length;
+            while (pos < size) {
+                long len = Math.min(size - pos, MAX_F32_CHUNK);
+                MappedByteBuffer map = ch.map(FileChannel.MapMode.READ_ONLY, pos, len);
+                FloatBuffer fb = map.order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
+                while (fb.hasRemaining()) {
+                    int k = Math.min(n, fb.remaining());
+                    fb.get(block, 0, k);
+                    sink.onSamples(block, 0, k, (long) (sample * periodNs));
+                    sample += k;
+                }
+                pos += len;
+            }
+        } catch (NoSuchFileException e) {
+            throw new TraceException(path + ": no such file");
+        } catch (IOException e) {
+            throw new TraceException(path + ": cannot read: " + e.getMessage());
+        }
+        return new Info(rateHz, Map.of());
+    }
+
+    /**
+     * Reads a CSV trace. {@code sink} receives blocks of up to {@code block.length} samples; a
+     * block's first sample time is taken from its row. When {@code rateHz} is not positive, the
+     * rate comes from the {@code rate_hz} metadata, else from the first two rows.
+     */
+    public static Info readCsv(Path path, double rateHz, float[] block, SampleSink sink) throws TraceException {
+        Map<String, String> meta = new LinkedHashMap<>();
+        try (BufferedReader in = Files.newBufferedReader(path, StandardCharsets.UTF_8)) {
+            String line;
+            int lineNo = 0;
+            boolean header = false;
+            double lastTime = Double.NEGATIVE_INFINITY;
+            double rate = rateHz;
+            int n = 0;
+            long blockNs = 0;
+            double firstTime = Double.NaN;
+            while ((line = in.readLine()) != null) {
+                lineNo++;
+                if (line.isEmpty()) {
+                    continue;
+                }
+                if (line.charAt(0) == '#') {
+                    readMeta(line, meta);
+                    continue;
+                }
+                if (!header) {
+                    if (!line.strip().equals(HEADER)) {
+                        throw new TraceException(path + ":" + lineNo + ": expected the header '" + HEADER
+                                + "', got '" + abbreviate(line) + "'");
+                    }
+                    header = true;
+                    if (!(rate > 0) && meta.containsKey("rate_hz")) {
+                        rate = parseRate(path, meta.get("rate_hz"));
+                    }
+                    continue;
+                }
+                int comma = line.indexOf(',');
+                if (comma < 0 || line.indexOf(',', comma + 1) >= 0) {
+                    throw new TraceException(path + ":" + lineNo + ": expected two values 'time_s,torque_nm', got '"
+                            + abbreviate(line) + "'");
+                }
+                double t = parseNumber(path, lineNo, line.substring(0, comma), "time_s");
+                double v = parseNumber(path, lineNo, line.substring(comma + 1), "torque_nm");
+                if (!(t > lastTime)) {
+                    throw new TraceException(path + ":" + lineNo + ": time " + t + " s does not increase (previous "
+                            + lastTime + " s)");
+                }
+                if (Double.isNaN(firstTime)) {
+                    firstTime = t;
+                } else if (!(rate > 0)) {
+                    rate = 1.0 / (t - lastTime);
+                }
+                lastTime = t;
+                if (n == 0) {
+                    blockNs = Math.round(t * 1e9);
+                }
+                block[n++] = (float) v;
+                if (n == block.length) {
+                    if (!(rate > 0)) {
+                        throw new TraceException(path + ": no sample rate: add '# rate_hz=...' or at least two rows");
+                    }
+                    sink.onSamples(block, 0, n, blockNs);
+                    n = 0;
+                }
+            }
+            if (!header) {
+                throw new TraceException(path + ": no '" + HEADER + "' header: not a torque trace");
+            }
+            if (n > 0) {
+                sink.onSamples(block, 0, n, blockNs);
+            }
+            return new Info(rate, meta);
+        } catch (NoSuchFileException e) {
+            throw new TraceException(path + ": no such file");
+        } catch (java.nio.charset.MalformedInputException e) {
+            throw new TraceException(path + ": not a text file (invalid UTF-8)");
+        } catch (IOException e) {
+            throw new TraceException(path + ": cannot read: " + e.getMessage());
+        }
+    }
+
+    /** Reads only the metadata and rate of a CSV trace (up to its header and first two rows). */
+    public static Info peekCsv(Path path) throws TraceException {
+        Map<String, String> meta = new LinkedHashMap<>();
+        try (BufferedReader in = Files.newBufferedReader(path, StandardCharsets.UTF_8)) {
+            String line;
+            int lineNo = 0;
+            boolean header = false;
+            double first = Double.NaN;
+            while ((line = in.readLine()) != null) {
+                lineNo++;
+                if (line.isEmpty()) {
+                    continue;
+                }
+                if (line.charAt(0) == '#') {
+                    readMeta(line, meta);
+                    continue;
+                }
+                if (!header) {
+                    if (!line.strip().equals(HEADER)) {
+                        throw new TraceException(path + ":" + lineNo + ": expected the header '" + HEADER
+                                + "', got '" + abbreviate(line) + "'");
+                    }
+                    header = true;
+                    if (meta.containsKey("rate_hz")) {
+                        return new Info(parseRate(path, meta.get("rate_hz")), meta);
+                    }
+                    continue;
+                }
+                int comma = line.indexOf(',');
+                if (comma < 0) {
+                    throw new TraceException(path + ":" + lineNo + ": expected two values 'time_s,torque_nm'");
+                }
+                double t = parseNumber(path, lineNo, line.substring(0, comma), "time_s");
+                if (Double.isNaN(first)) {
+                    first = t;
+                } else {
+                    if (!(t > first)) {
+                        throw new TraceException(path + ":" + lineNo + ": time " + t + " s does not increase");
+                    }
+                    return new Info(1.0 / (t - first), meta);
+                }
+            }
+            throw new TraceException(path + ": no sample rate: add '# rate_hz=...' or at least two rows");
+        } catch (NoSuchFileException e) {
+            throw new TraceException(path + ": no such file");
+        } catch (java.nio.charset.MalformedInputException e) {
+            throw new TraceException(path + ": not a text file (invalid UTF-8)");
+        } catch (IOException e) {
+            throw new TraceException(path + ": cannot read: " + e.getMessage());
+        }
+    }
+
+    private static void readMeta(String line, Map<String, String> meta) {
+        String body = line.substring(1).strip();
+        int eq = body.indexOf('=');
+        if (eq > 0) {
+            meta.put(body.substring(0, eq).strip(), body.substring(eq + 1).strip());
+        }
+    }
+
+    private static double parseRate(Path path, String text) throws TraceException {
+        try {
+            double r = Double.parseDouble(text);
+            if (r > 0 && Double.isFinite(r)) {
+                return r;
+            }
+        } catch (NumberFormatException e) {
+            // reported below
+        }
+        throw new TraceException(path + ": metadata rate_hz='" + abbreviate(text) + "' is not a positive number");
+    }
+
+    private static double parseNumber(Path path, int lineNo, String text, String column) throws TraceException {
+        String s = text.strip();
+        try {
+            double v = Double.parseDouble(s);
+            if (Double.isFinite(v)) {
+                return v;
+            }
+        } catch (NumberFormatException e) {
+            // reported below
+        }
+        throw new TraceException(path + ":" + lineNo + ": " + column + " '" + abbreviate(s) + "' is not a finite number");
+    }
+
+    private static String abbreviate(String s) {
+        return s.length() <= 40 ? s : s.substring(0, 40) + "...";
+    }
+}
