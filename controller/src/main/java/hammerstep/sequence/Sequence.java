@@ -152,7 +152,7 @@ public final class Sequence {
     /** A rundown began (reported by the joint monitor at its first sample). */
     public void rundownStarted(long nowNs) {
         if (effective() == Phase.PROMPT) {
-            rundownPosition = confirmSensors && toolAt >= 0 ? toolAt : prompted;
+            rundownPosition = confirmSensors && toolAt >= 0 && toolAt < status.length ? toolAt : prompted;
             go(Phase.RUNDOWN);
             shutoffSeen = false;
             lastVerdict = null;
