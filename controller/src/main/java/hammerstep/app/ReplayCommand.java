@@ -11,6 +11,7 @@ import hammerstep.results.JointFields;
 import hammerstep.results.JsonLines;
 import hammerstep.signal.Conditioning;
 import hammerstep.trace.TraceException;
+import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -37,7 +38,7 @@ public final class ReplayCommand implements Callable<Integer> {
 
     static final int BLOCK = 4096;
 
-    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm) or raw float32 N·m (.f32)")
+    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm), raw float32 N·m (.f32) or a stored joint trace (.hst)")
     Path trace;
 
     @Option(names = "--program", required = true, paramLabel = "FILE", description = "joint program (YAML)")
@@ -67,11 +68,10 @@ public final class ReplayCommand implements Callable<Integer> {
             Logging.configure(true, Level.WARN);
         }
         JointProgram program = ProgramFile.load(programFile);
-        boolean f32 = TraceReader.isF32(trace);
-        if (f32 && !(rateHz > 0)) {
+        if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
         }
-        double rate = f32 ? rateHz : (rateHz > 0 ? rateHz : TraceReader.peekCsv(trace).rateHz());
+        double rate = TraceFiles.rateOf(trace, rateHz);
         Conditioning conditioning = JointMonitor.replayConditioning(program)
                 .withLowPass(lowPassHz).withOverRange(overRangeNm).withFlatLine(flatLineMs);
         if (lowPassHz >= rate / 2) {
@@ -95,11 +95,7 @@ public final class ReplayCommand implements Callable<Integer> {
         };
         JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
         float[] block = new float[BLOCK];
-        if (f32) {
-            TraceReader.readF32(trace, rate, block, monitor::onSamples);
-        } else {
-            TraceReader.readCsv(trace, rate, block, monitor::onSamples);
-        }
+        TraceFiles.read(trace, rate, block, monitor::onSamples);
         monitor.finish();
         if (summary) {
             printSummary(results, System.out);
