@@ -1,0 +1,122 @@
+package hammerstep.analysis;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+
+import java.io.BufferedReader;
+import java.io.IOException;
+import java.nio.charset.MalformedInputException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Reads joint results from a JSONL file: one JSON object per line, as the quality system
+ * receives the joint messages ({@code schema} {@value #JOINT_SCHEMA}). Lines of other schemas
+ * (part, event, status messages) are skipped and counted; a line without {@code schema} that
+ * carries {@code final_torque_nm} (the output of {@code hammerstep replay}) is read as a joint.
+ * A line that is not JSON, or a joint line missing a field, is an error naming file and line.
+ */
+public final class ResultsFile {
+
+    public static final String JOINT_SCHEMA = "hammerstep.joint.v1";
+
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    private ResultsFile() {
+    }
+
+    /** The joints of a file in file order, and how many lines were other messages. */
+    public record Contents(Path file, List<JointRecord> joints, int skipped) { }
+
+    public static Contents read(Path file) throws InputException {
+        List<JointRecord> joints = new ArrayList<>();
+        int skipped = 0;
+        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
+            String text;
+            int line = 0;
+            while ((text = in.readLine()) != null) {
+                line++;
+                if (text.isBlank()) {
+                    continue;
+                }
+                JsonNode node;
+                try {
+                    node = JSON.readTree(text);
+                } catch (JsonProcessingException e) {
+                    throw new InputException(file + ":" + line + ": not a JSON object: "
+                            + e.getOriginalMessage().lines().findFirst().orElse(""));
+                }
+                if (!node.isObject()) {
+                    throw new InputException(file + ":" + line + ": expected a JSON object, got " + node.getNodeType());
+                }
+                JsonNode schema = node.get("schema");
+                boolean joint = schema == null ? node.has("final_torque_nm") : JOINT_SCHEMA.equals(schema.asText());
+                if (!joint) {
+                    skipped++;
+                    continue;
+                }
+                joints.add(joint(file, line, node));
+            }
+        } catch (NoSuchFileException e) {
+            throw new InputException(file + ": no such file");
+        } catch (MalformedInputException e) {
+            throw new InputException(file + ": not a text file (invalid UTF-8)");
+        } catch (IOException e) {
+            throw new InputException(file + ": cannot read: " + e.getMessage());
+        }
+        return new Contents(file, joints, skipped);
+    }
+
+    private static JointRecord joint(Path file, int line, JsonNode n) throws InputException {
+        String where = file + ":" + line + ": ";
+        String program = text(n, "program");
+        if (program.isEmpty()) {
+            throw new InputException(where + "joint result without 'program'");
+        }
+        double finalNm = number(n, "final_torque_nm", where);
+        int blows = (int) number(n, "blows", where);
+        JsonNode limits = n.get("limits");
+        if (limits == null || !limits.isObject()) {
+            throw new InputException(where + "joint result without 'limits' (the windows it was judged against)");
+        }
+        JsonNode torque = limits.get("torque_nm");
+        JsonNode blowLimits = limits.get("blows");
+        if (torque == null || blowLimits == null) {
+            throw new InputException(where + "'limits' needs 'torque_nm' and 'blows', each with 'min' and 'max'");
+        }
+        JointRecord.Limits l = new JointRecord.Limits(number(torque, "min", where + "limits.torque_nm: "),
+                number(torque, "max", where + "limits.torque_nm: "),
+                (int) number(blowLimits, "min", where + "limits.blows: "),
+                (int) number(blowLimits, "max", where + "limits.blows: "));
+        List<String> reasons = new ArrayList<>();
+        JsonNode r = n.get("reasons");
+        if (r != null && r.isArray()) {
+            r.forEach(x -> reasons.add(x.asText()));
+        }
+        return new JointRecord(line, text(n, "id"), program, text(n, "position"), text(n, "part_serial"),
+                finalNm, blows, text(n, "verdict"), reasons, l);
+    }
+
+    private static String text(JsonNode n, String key) {
+        JsonNode v = n.get(key);
+        return v == null || v.isNull() ? "" : v.asText();
+    }
+
+    private static double number(JsonNode n, String key, String where) throws InputException {
+        JsonNode v = n.get(key);
+        if (v == null || !v.isNumber()) {
+            throw new InputException(where + "'" + key + "' must be a number"
+                    + (v == null ? " and is missing" : ", got " + v));
+        }
+        double d = v.asDouble();
+        if (!Double.isFinite(d)) {
+            throw new InputException(where + "'" + key + "' is not finite");
+        }
+        return d;
+    }
+}

@@ -1,0 +1,104 @@
+package hammerstep.app;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import javax.imageio.ImageIO;
+import java.awt.image.BufferedImage;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.Paths;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+class StatsCommandTest {
+
+    static final Path HAND = Paths.get("src/test/resources/analysis/hand-example.jsonl");
+
+    @TempDir
+    Path dir;
+
+    /*
+     * hand-example.jsonl: program flange-m12, window 80..100 N·m, blows 4..12; five GO joints with final
+     * torques 92, 94, 96, 93, 95 and blows 6, 7, 8, 7, 7, one part message, one SENSOR_FAULT joint.
+     * By hand: mean 94.0, s = sqrt(10/4) = 1.5811, Cm = 20/9.4868 = 2.108, Cmk = 6/4.7434 = 1.265;
+     * blows mean 7, s = 0.7071, Cm = 8/4.2426 = 1.886, Cmk = 3/2.1213 = 1.414 (VDI/VDE 2645-2 style indices).
+     */
+    @Test
+    @DisplayName("stats --json gives the figures of the hand-worked example")
+    void jsonGivesTheHandWorkedFigures() throws Exception {
+        Captured run = Captured.run("stats", HAND.toString(), "--json");
+
+        assertThat(run.exit()).isZero();
+        JsonNode doc = new ObjectMapper().readTree(run.out());
+        assertThat(doc.get("joints").asInt()).isEqualTo(6);
+        assertThat(doc.get("sensor_fault_excluded").asInt()).isEqualTo(1);
+        assertThat(doc.get("other_lines_skipped").asInt()).isEqualTo(1);
+        JsonNode all = doc.get("groups").get(0);
+        assertThat(all.get("program").asText()).isEqualTo("flange-m12");
+        assertThat(all.has("position")).isFalse();
+        assertThat(all.get("n").asInt()).isEqualTo(5);
+        assertThat(all.get("mean_nm").asDouble()).isEqualTo(94.0);
+        assertThat(all.get("sd_nm").asDouble()).isCloseTo(1.5811, within(1e-4));
+        assertThat(all.get("cm").asDouble()).isEqualTo(2.108);
+        assertThat(all.get("cmk").asDouble()).isEqualTo(1.265);
+        assertThat(all.get("blows_mean").asDouble()).isEqualTo(7.0);
+        assertThat(all.get("blows_cm").asDouble()).isEqualTo(1.886);
+        assertThat(all.get("blows_cmk").asDouble()).isEqualTo(1.414);
+        assertThat(all.get("flags")).extracting(JsonNode::asText)
+                .containsExactly("CMK_LOW", "BLOWS_CMK_LOW", "FEW_JOINTS");
+        assertThat(all.get("limits").get("torque_nm").get("min").asDouble()).isEqualTo(80.0);
+        JsonNode p2 = doc.get("groups").get(2);
+        assertThat(p2.get("position").asText()).isEqualTo("2");
+        assertThat(p2.get("cmk").asDouble()).isEqualTo(3.064);
+        assertThat(p2.get("blows_cm").isNull()).as("no spread in blows: index undefined").isTrue();
+    }
+
+    @Test
+    void tablePrintsFlagsAndTheRule() {
+        Captured run = Captured.run("stats", HAND.toString());
+
+        assertThat(run.exit()).isZero();
+        assertThat(run.out()).contains("flange-m12", "CMK_LOW", "1 with a sensor fault left out", "VDI/VDE 2645-2");
+    }
+
+    @Test
+    void drawsAReadablePng() throws Exception {
+        Path png = dir.resolve("cap.png");
+
+        Captured run = Captured.run("stats", HAND.toString(), "--plot", png.toString());
+
+        assertThat(run.exit()).isZero();
+        BufferedImage image = ImageIO.read(png.toFile());
+        assertThat(image.getWidth()).isEqualTo(1000);
+        assertThat(image.getHeight()).isEqualTo(840);
+    }
+
+    @Test
+    void drawsAnSvg() throws Exception {
+        Path svg = dir.resolve("cap.svg");
+
+        assertThat(Captured.run("stats", HAND.toString(), "--plot", svg.toString()).exit()).isZero();
+        assertThat(Files.readString(svg)).contains("<svg").contains("</svg>");
+    }
+
+    @Test
+    void refusesAnUnknownPictureFormat() {
+        Captured run = Captured.run("stats", HAND.toString(), "--plot", dir.resolve("x.jpg").toString());
+
+        assertThat(run.exit()).isEqualTo(2);
+        assertThat(run.err()).contains("must end in .png or .svg");
+    }
+
+    @Test
+    void aMissingFileIsOneLineAndExit2() {
+        Captured run = Captured.run("stats", dir.resolve("none.jsonl").toString());
+
+        assertThat(run.exit()).isEqualTo(2);
+        assertThat(run.err().strip()).isEqualTo(dir.resolve("none.jsonl") + ": no such file");
+    }
+}
