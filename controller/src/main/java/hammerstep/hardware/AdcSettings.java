@@ -50,6 +50,16 @@ public record AdcSettings(
         }
     }
 
+    /** Resolution including the sign, as the driver reports it. */
+    public int bits() {
+        return type == Type.ADS1256 ? 24 : 12;
+    }
+
+    /** Volts that read as full positive code at gain 1, as the driver reports it (ADS1256 2·VREF, MCP3208 VREF/2). */
+    public double fullScaleInputV() {
+        return type == Type.ADS1256 ? 2 * referenceV : referenceV / 2;
+    }
+
     /** The link's name in messages, e.g. {@code spi0.1}. */
     public String where() {
         return "spi" + spiBus + "." + spiChipSelect;

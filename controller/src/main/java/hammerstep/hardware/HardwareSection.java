@@ -103,23 +103,23 @@ public final class HardwareSection {
         int cs = pin(adc, "cs_pin", ads);
         int drdy = pin(adc, "data_ready_pin", ads);
         int reset = pin(adc, "reset_pin", false);
-        int positive = adc.integer("input_positive", 0, ads ? Ads1256.AINCOM : 7);
+        int positive = adc.integer("input_positive", 0, 0, ads ? Ads1256.AINCOM : 7);
         int negative = -1;
         double gain;
         double rate;
         double vref;
         boolean buffer = adc.bool("buffer", true);
         if (ads) {
-            negative = adc.integer("input_negative", 0, Ads1256.AINCOM);
+            negative = adc.integer("input_negative", 1, 0, Ads1256.AINCOM);
             if (positive == negative && adc.has("input_negative")) {
                 adc.problem("input_negative", "'" + adc.path("input_negative") + "' is the positive input too: "
                         + "wire the bridge output to two different inputs");
             }
-            gain = adc.requiredNumber("gain", 1, 64);
+            gain = adc.requiredNumber("gain", 0, Double.MAX_VALUE);
             if (!Double.isNaN(gain) && Arrays.stream(Ads1256.GAINS).noneMatch(g -> g == gain)) {
                 adc.problem("gain", "'" + adc.path("gain") + "' is " + fmt(gain) + ": the ADS1256 PGA takes 1, 2, 4, 8, 16, 32 or 64");
             }
-            rate = adc.requiredNumber("rate_hz", 2.5, 30_000);
+            rate = adc.requiredNumber("rate_hz", 0, Double.MAX_VALUE);
             if (!Double.isNaN(rate) && Arrays.stream(Ads1256.RATES_HZ).noneMatch(r -> r == rate)) {
                 adc.problem("rate_hz", "'" + adc.path("rate_hz") + "' is " + fmt(rate) + ": the ADS1256 runs at 30000, 15000,"
                         + " 7500, 3750, 2000, 1000, 500, 100, 60, 50, 30, 25, 15, 10, 5 or 2.5 Hz");
