@@ -5,12 +5,15 @@ import hammerstep.config.ConfigNode;
 import hammerstep.config.Problem;
 import hammerstep.config.YamlDocument;
 import hammerstep.joint.ProgramFile;
+import hammerstep.sequence.PatternFile;
+import hammerstep.station.setup.StationFile;
 
 import java.nio.file.Path;
 
 /**
  * Tells the kinds of configuration file apart by their top-level keys and validates each with
- * its own reader. A joint program has {@code torque}.
+ * its own reader. A joint program has {@code torque}, a pattern {@code passes}, a station file
+ * {@code identity} or {@code parts}.
  */
 public final class ConfigFiles {
 
@@ -29,7 +32,17 @@ public final class ConfigFiles {
             ProgramFile.read(doc);
             return;
         }
+        Path dir = file.toAbsolutePath().getParent();
+        if (root.entries().containsKey("passes")) {
+            PatternFile.read(doc, dir);
+            return;
+        }
+        if (root.entries().containsKey("identity") || root.entries().containsKey("parts")) {
+            StationFile.read(doc, dir, StationSections.all());
+            return;
+        }
         throw new ConfigException(new Problem(doc.file(), root.line(), root.column(),
-                "not a known kind of configuration file: a joint program has 'torque'"));
+                "not a known kind of configuration file: a joint program has 'torque', a pattern 'passes',"
+                        + " a station file 'identity' and 'parts'"));
     }
 }

@@ -1,0 +1,109 @@
+package hammerstep.results;
+
+import java.time.Clock;
+import java.util.UUID;
+import java.util.function.Supplier;
+
+/**
+ * The station's {@link ResultSink} on top of an {@link Outbox}: gives each result its id and the
+ * next {@code seq} of its kind, writes the message and stores it durably; delivery happens on
+ * another thread that reads the outbox. Never touches the network.
+ *
+ * <p>When the outbox's storage state changes, the sink records an event of its own
+ * ({@code STORAGE_LOW} warning, {@code STORAGE_FULL} alarm, {@code STORAGE_OK} notice), so the
+ * station only has to show the lamp. When the outbox reported damage at start, the first call
+ * records a {@code OUTBOX_RECOVERED} warning.
+ */
+public final class OutboxResultSink implements ResultSink {
+
+    private final Outbox outbox;
+    private final StationId station;
+    private final Supplier<String> ids;
+    private final Clock clock;
+    private Storage lastStorage = Storage.OK;
+    private boolean recoveryReported;
+
+    public OutboxResultSink(Outbox outbox, StationId station, Supplier<String> ids, Clock clock) {
+        this.outbox = outbox;
+        this.station = station;
+        this.ids = ids;
+        this.clock = clock;
+    }
+
+    /** Random (type 4) UUIDs as ids, the system clock for the sink's own events. */
+    public OutboxResultSink(Outbox outbox, StationId station) {
+        this(outbox, station, () -> UUID.randomUUID().toString(), Clock.systemUTC());
+    }
+
+    @Override
+    public Receipt joint(JointOutcome joint) throws ResultStoreException {
+        reportRecovery();
+        String id = ids.get();
+        long seq = outbox.nextSeq(MessageKind.JOINT);
+        outbox.append(MessageKind.JOINT, seq, id, ResultMessages.joint(station, id, seq, joint));
+        return after(new Receipt(id, seq));
+    }
+
+    @Override
+    public Receipt part(PartOutcome part) throws ResultStoreException {
+        reportRecovery();
+        String id = ids.get();
+        long seq = outbox.nextSeq(MessageKind.PART);
+        outbox.append(MessageKind.PART, seq, id, ResultMessages.part(station, id, seq, part));
+        return after(new Receipt(id, seq));
+    }
+
+    @Override
+    public Receipt event(StationEvent event) throws ResultStoreException {
+        reportRecovery();
+        Receipt r = store(event);
+        return after(r);
+    }
+
+    @Override
+    public Storage storage() {
+        return outbox.storage();
+    }
+
+    /** Records that arrived at the outbox and are not yet acknowledged by the broker. */
+    public long backlog() {
+        return outbox.backlog();
+    }
+
+    private Receipt store(StationEvent event) throws ResultStoreException {
+        String id = ids.get();
+        long seq = outbox.nextSeq(MessageKind.EVENT);
+        outbox.append(MessageKind.EVENT, seq, id, ResultMessages.event(station, id, seq, event));
+        return new Receipt(id, seq);
+    }
+
+    private Receipt after(Receipt r) throws ResultStoreException {
+        Storage now = outbox.storage();
+        if (now != lastStorage) {
+            lastStorage = now;
+            switch (now) {
+                case LOW -> store(new StationEvent(StationEvent.Severity.WARNING, "STORAGE_LOW",
+                        "result storage is running low; results are kept, clear space or restore the network",
+                        null, clock.instant()));
+                case FULL -> store(new StationEvent(StationEvent.Severity.ALARM, "STORAGE_FULL",
+                        "result storage is full: no new part can start until results are delivered",
+                        null, clock.instant()));
+                case OK -> store(new StationEvent(StationEvent.Severity.NOTICE, "STORAGE_OK",
+                        "result storage has room again", null, clock.instant()));
+            }
+        }
+        return r;
+    }
+
+    private void reportRecovery() throws ResultStoreException {
+        if (recoveryReported) {
+            return;
+        }
+        recoveryReported = true;
+        Outbox.Recovery rec = outbox.recovery();
+        if (!rec.clean()) {
+            store(new StationEvent(StationEvent.Severity.WARNING, "OUTBOX_RECOVERED",
+                    "result store repaired at start: " + String.join("; ", rec.notes()), null, clock.instant()));
+        }
+    }
+}
