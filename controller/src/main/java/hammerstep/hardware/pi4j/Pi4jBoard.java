@@ -89,6 +89,10 @@ final class Pi4jBoard implements AutoCloseable {
         }
     }
 
+    Context context() {
+        return context;
+    }
+
     boolean isMock() {
         return mock;
     }

@@ -99,6 +99,15 @@ public final class Pi4jHardware implements AutoCloseable {
     }
 
     /** Opens the station's hardware; a machine without GPIO fails with a one-line {@link hammerstep.hardware.HardwareException}. */
+    /** For tests: the hardware on a given board (a mock board with a recorded part). */
+    static Pi4jHardware open(Pi4jBoard board, HardwareSettings hw, TransducerSettings td, NanoClock clock) {
+        return new Pi4jHardware(board, hw, td, clock, null);
+    }
+
+    Pi4jBoard board() {
+        return board;
+    }
+
     public static Pi4jHardware open(Mode mode, HardwareSettings hw, TransducerSettings td, NanoClock clock) {
         if (mode == Mode.GPIO) {
             return new Pi4jHardware(Pi4jBoard.gpio(hw.adc().spiBus(), hw.adc().spiChipSelect()), hw, td, clock, null);
