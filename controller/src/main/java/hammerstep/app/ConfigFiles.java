@@ -5,12 +5,17 @@ import hammerstep.config.ConfigNode;
 import hammerstep.config.Problem;
 import hammerstep.config.YamlDocument;
 import hammerstep.joint.ProgramFile;
+import hammerstep.sequence.PatternFile;
+import hammerstep.station.setup.StationFile;
+import hammerstep.station.setup.StationConfig;
+import hammerstep.hardware.HardwareSections;
 
 import java.nio.file.Path;
 
 /**
  * Tells the kinds of configuration file apart by their top-level keys and validates each with
- * its own reader. A joint program has {@code torque}.
+ * its own reader. A joint program has {@code torque}, a pattern {@code passes}, a station file
+ * {@code identity} or {@code parts}.
  */
 public final class ConfigFiles {
 
@@ -29,7 +34,24 @@ public final class ConfigFiles {
             ProgramFile.read(doc);
             return;
         }
+        Path dir = file.toAbsolutePath().getParent();
+        if (root.entries().containsKey("passes")) {
+            PatternFile.read(doc, dir);
+            return;
+        }
+        if (root.entries().containsKey("identity") || root.entries().containsKey("parts")) {
+            StationConfig station = StationFile.read(doc, dir, StationSections.all());
+            String mismatch = station.has(HardwareSections.HARDWARE) && station.has(HardwareSections.TRANSDUCER)
+                    ? HardwareSections.mismatch(station.get(HardwareSections.HARDWARE),
+                    station.get(HardwareSections.TRANSDUCER)) : null;
+            if (mismatch != null) {
+                ConfigNode t = root.entries().get("transducer");
+                throw new ConfigException(new Problem(doc.file(), t.line(), t.column(), mismatch));
+            }
+            return;
+        }
         throw new ConfigException(new Problem(doc.file(), root.line(), root.column(),
-                "not a known kind of configuration file: a joint program has 'torque'"));
+                "not a known kind of configuration file: a joint program has 'torque', a pattern 'passes',"
+                        + " a station file 'identity' and 'parts'"));
     }
 }

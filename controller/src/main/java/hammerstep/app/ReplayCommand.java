@@ -1,7 +1,6 @@
 package hammerstep.app;
 
 import ch.qos.logback.classic.Level;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.config.ConfigException;
 import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
@@ -9,8 +8,10 @@ import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
 import hammerstep.joint.ProgramFile;
 import hammerstep.results.JointFields;
+import hammerstep.results.JsonLines;
 import hammerstep.signal.Conditioning;
 import hammerstep.trace.TraceException;
+import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -37,7 +38,7 @@ public final class ReplayCommand implements Callable<Integer> {
 
     static final int BLOCK = 4096;
 
-    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm) or raw float32 N·m (.f32)")
+    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm), raw float32 N·m (.f32) or a stored joint trace (.hst)")
     Path trace;
 
     @Option(names = "--program", required = true, paramLabel = "FILE", description = "joint program (YAML)")
@@ -63,13 +64,14 @@ public final class ReplayCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws ConfigException, TraceException, IOException {
-        Logging.configure(verbose, Level.WARN);
+        if (verbose) {
+            Logging.configure(true, Level.WARN);
+        }
         JointProgram program = ProgramFile.load(programFile);
-        boolean f32 = TraceReader.isF32(trace);
-        if (f32 && !(rateHz > 0)) {
+        if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
         }
-        double rate = f32 ? rateHz : (rateHz > 0 ? rateHz : TraceReader.peekCsv(trace).rateHz());
+        double rate = TraceFiles.rateOf(trace, rateHz);
         Conditioning conditioning = JointMonitor.replayConditioning(program)
                 .withLowPass(lowPassHz).withOverRange(overRangeNm).withFlatLine(flatLineMs);
         if (lowPassHz >= rate / 2) {
@@ -77,7 +79,6 @@ public final class ReplayCommand implements Callable<Integer> {
         }
         List<JointResult> results = new ArrayList<>();
         BufferedWriter out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), 1 << 16);
-        ObjectMapper json = new ObjectMapper();
         JointEvents events = result -> {
             if (summary) {
                 results.add(result);
@@ -85,7 +86,7 @@ public final class ReplayCommand implements Callable<Integer> {
                 try {
                     Map<String, Object> m = JointFields.of(result);
                     m.put("start_s", JointFields.round(result.startNs() * 1e-9, 10_000));
-                    out.write(json.writeValueAsString(m));
+                    out.write(JsonLines.of(m));
                     out.write('\n');
                 } catch (IOException e) {
                     throw new UncheckedIOException(e);
@@ -94,11 +95,7 @@ public final class ReplayCommand implements Callable<Integer> {
         };
         JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
         float[] block = new float[BLOCK];
-        if (f32) {
-            TraceReader.readF32(trace, rate, block, monitor::onSamples);
-        } else {
-            TraceReader.readCsv(trace, rate, block, monitor::onSamples);
-        }
+        TraceFiles.read(trace, rate, block, monitor::onSamples);
         monitor.finish();
         if (summary) {
             printSummary(results, System.out);

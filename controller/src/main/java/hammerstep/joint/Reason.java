@@ -8,5 +8,7 @@ public enum Reason {
     BLOWS_MANY,
     TIME_LONG,
     REHIT,
-    SENSOR_FAULT
+    SENSOR_FAULT,
+    /** Set by the station: a rundown on a position other than the prompted one (position confirm sensors). */
+    OUT_OF_SEQUENCE
 }

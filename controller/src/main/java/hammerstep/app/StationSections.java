@@ -1,0 +1,52 @@
+package hammerstep.app;
+
+import hammerstep.config.MapReader;
+import hammerstep.hardware.HardwareSections;
+import hammerstep.results.StorageSettings;
+import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.PartsSection;
+import hammerstep.station.setup.StationSection;
+import hammerstep.station.setup.TimingSection;
+
+import java.nio.file.Path;
+import java.util.List;
+
+/**
+ * Every section the controller reads from a station file, in one list. A subsystem with settings
+ * of its own adds its {@link StationSection} here (one line); see DEVELOPERS.md.
+ */
+public final class StationSections {
+
+    /** {@code storage:}: the outbox journal (optional; without it results are kept in memory only). */
+    public static final StationSection<StorageSettings> STORAGE = new StationSection<>() {
+        @Override
+        public String key() {
+            return "storage";
+        }
+
+        @Override
+        public boolean required() {
+            return false;
+        }
+
+        @Override
+        public StorageSettings read(MapReader section, Path base) {
+            return StorageSettings.read(section, base);
+        }
+    };
+
+    private StationSections() {
+    }
+
+    /** The controller's sections; {@code simulation} is accepted unread (hammerstep-sim reads it). */
+    public static List<StationSection<?>> all() {
+        return List.of(
+                IdentitySection.INSTANCE,
+                PartsSection.INSTANCE,
+                TimingSection.INSTANCE,
+                STORAGE,
+                HardwareSections.HARDWARE,
+                HardwareSections.TRANSDUCER,
+                StationSection.readElsewhere("simulation"));
+    }
+}

@@ -1,0 +1,517 @@
+package hammerstep.sequence;
+
+import hammerstep.joint.JointProgram;
+import hammerstep.joint.JointResult;
+import hammerstep.joint.Reason;
+import hammerstep.joint.Verdict;
+import hammerstep.results.JointOutcome;
+import hammerstep.results.PartOutcome;
+import hammerstep.results.ResultSink;
+import hammerstep.results.StationEvent;
+import hammerstep.station.LampMode;
+import hammerstep.station.OperatorInputs;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.StationClock;
+import hammerstep.station.TowerLamp;
+
+import java.time.Instant;
+import java.time.LocalDate;
+import java.util.ArrayDeque;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * The station's sequence of work on one part after another: a pure state machine. Events and
+ * {@link #onTick(long)} go in; what comes out is state the station loop reads after each call
+ * ({@link #toolEnabled()}, the lamp modes) and the records to store ({@link #nextToStore()}), which
+ * the loop hands to the {@link ResultSink} and confirms with {@link #stored} or {@link #storeFailed}.
+ * No threads, no sleeps, no clock reads: every time comes in as {@code nowNs}; the clock is used only
+ * to turn a {@code nowNs} into a wall-clock stamp.
+ *
+ * <p>Flow: waiting for a part → prompting a position → rundown → the result is stored → verdict
+ * shown → next position; or rework (tool disabled until acknowledged, attempts counted) → pass
+ * complete → next pass → part complete (GO), or part rejected (the supervisor key ends it). The tool
+ * is enabled only while a position is prompted and, with confirm sensors, only while the tool is at
+ * that position; it drops at the shut-off crossing. A verdict lamp shows only after its result was
+ * stored.
+ *
+ * <p>Single-threaded: the station thread owns it.
+ */
+public final class Sequence {
+
+    /**
+     * What the sequence stamps on results besides the part.
+     *
+     * @param transducerSerial the fitted transducer, carried by every joint result
+     * @param calibrationDue   its calibration due date, or null when unknown
+     * @param completeHoldMs   how long a finished part shows green when no part-present sensor ends it
+     */
+    public record Settings(String transducerSerial, LocalDate calibrationDue, double completeHoldMs) {
+    }
+
+    private static final byte NOT_IN_PASS = 0;
+    private static final byte PENDING = 1;
+    private static final byte DONE = 2;
+    private static final byte FAILED = 3;
+    private static final byte SKIPPED = 4;
+
+    private final StationClock clock;
+    private final Settings settings;
+    private final boolean confirmSensors;
+    private final ArrayDeque<Store> toStore = new ArrayDeque<>();
+
+    private Phase phase = Phase.WAITING;
+    private Phase resumeAfterFault = Phase.WAITING;
+    private ResultSink.Storage storage = ResultSink.Storage.OK;
+    private boolean warning;
+
+    private PartIdentity part;
+    private Pattern pattern;
+    private Instant partStarted;
+    private final List<String> jointIds = new ArrayList<>();
+    private boolean partFailed;
+    private boolean abandonAfterStore;
+    private int passIndex;
+    private byte[] status = new byte[0];
+    private int[] attempts = new int[0];
+    private boolean[] leftOut = new boolean[0];
+
+    private int prompted = -1;
+    private int reworkPosition = -1;
+    private boolean reworkRetry;
+    private int rundownPosition = -1;
+    private boolean shutoffSeen;
+    private boolean unexpectedRundown;
+    private int toolAt = OperatorInputs.NO_POSITION;
+    private Verdict lastVerdict;
+    private int judgedPosition = -1;
+    private Verdict judgedVerdict;
+    private long completeAtNs;
+
+    /**
+     * @param confirmSensors true when the fixture reports at which position the tool is
+     */
+    public Sequence(StationClock clock, Settings settings, boolean confirmSensors) {
+        this.clock = clock;
+        this.settings = settings;
+        this.confirmSensors = confirmSensors;
+    }
+
+    // ---- events --------------------------------------------------------------------------
+
+    /**
+     * A part was identified. Starts it when the station is waiting (or showing a finished part) and
+     * the store has room; {@code pattern} is null when the station file knows no pattern for its model.
+     *
+     * @return true when the part was started
+     */
+    public boolean partArrived(PartIdentity identity, Pattern pattern, long nowNs) {
+        if (phase == Phase.COMPLETE) {
+            clearPart();
+        }
+        if (phase != Phase.WAITING) {
+            event(StationEvent.Severity.WARNING, "IDENTITY_IGNORED", "part " + identity.serial()
+                    + " scanned while " + (part == null ? "the station is faulted" : "part " + part.serial()
+                    + " is in work"), identity.serial(), nowNs);
+            return false;
+        }
+        if (storage == ResultSink.Storage.FULL) {
+            return false;
+        }
+        if (pattern == null) {
+            event(StationEvent.Severity.WARNING, "UNKNOWN_MODEL", "no pattern for model " + identity.model(),
+                    identity.serial(), nowNs);
+            return false;
+        }
+        this.part = identity;
+        this.pattern = pattern;
+        this.partStarted = clock.instantOf(nowNs);
+        this.jointIds.clear();
+        this.partFailed = false;
+        this.abandonAfterStore = false;
+        int n = pattern.size();
+        this.status = new byte[n];
+        this.attempts = new int[n];
+        this.leftOut = new boolean[n];
+        this.passIndex = 0;
+        this.lastVerdict = null;
+        startPass(nowNs);
+        return true;
+    }
+
+    /** The part left the fixture (part-present sensor). A part in work is abandoned; a rejected one still needs the key. */
+    public void partRemoved(long nowNs) {
+        switch (phase) {
+            case PROMPT, RUNDOWN, REWORK -> abandon(nowNs);
+            case STORING -> abandonAfterStore = true;
+            case COMPLETE -> clearPart();
+            default -> { }
+        }
+    }
+
+    /** A rundown began (reported by the joint monitor at its first sample). */
+    public void rundownStarted(long nowNs) {
+        if (effective() == Phase.PROMPT) {
+            rundownPosition = confirmSensors && toolAt >= 0 && toolAt < status.length ? toolAt : prompted;
+            go(Phase.RUNDOWN);
+            shutoffSeen = false;
+            lastVerdict = null;
+        } else {
+            unexpectedRundown = true;
+        }
+    }
+
+    /** The joint reached its program's shut-off level: the tool drops until the next prompt. */
+    public void shutoff(long nowNs) {
+        if (effective() == Phase.RUNDOWN) {
+            shutoffSeen = true;
+        }
+    }
+
+    /** The rundown ended and was judged by the current pass's program. */
+    public void jointJudged(JointResult result, long nowNs) {
+        if (effective() != Phase.RUNDOWN) {
+            if (unexpectedRundown) {
+                event(StationEvent.Severity.ALARM, "UNEXPECTED_RUNDOWN", "a rundown of " + result.blows()
+                        + " blows to " + Math.round(result.finalTorqueNm()) + " N·m while no position was prompted",
+                        part == null ? null : part.serial(), nowNs);
+            }
+            unexpectedRundown = false;
+            return;
+        }
+        int pos = rundownPosition;
+        JointResult r = result;
+        if (pos != prompted) {
+            r = withReason(result, status[pos] == DONE ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
+            event(StationEvent.Severity.ALARM, status[pos] == DONE ? "REHIT" : "OUT_OF_SEQUENCE",
+                    "rundown on position " + label(pos) + " while " + label(prompted) + " was prompted",
+                    part.serial(), nowNs);
+        }
+        if (status[pos] == NOT_IN_PASS || status[pos] == SKIPPED) {
+            status[pos] = PENDING;
+        }
+        attempts[pos]++;
+        Pattern.Pass pass = pass();
+        toStore.add(new Store.Joint(new JointOutcome(part.serial(), part.model(), pattern.id(),
+                pattern.positions().get(pos), pos + 1, pass.name(), attempts[pos], r,
+                settings.transducerSerial(), settings.calibrationDue(), clock.instantOf(nowNs), null)));
+        judgedPosition = pos;
+        judgedVerdict = r.verdict();
+        go(Phase.STORING);
+    }
+
+    /** Operator's acknowledge button was pressed (an edge). */
+    public void acknowledge(long nowNs) {
+        if (phase == Phase.REWORK && pass().acknowledge() == Acknowledge.OPERATOR) {
+            releaseRework("operator", nowNs);
+        }
+    }
+
+    /** The supervisor key was turned (an edge): releases rework, ends a rejected part, retries a failed store. */
+    public void supervisorKey(long nowNs) {
+        switch (phase) {
+            case REWORK -> releaseRework("supervisor", nowNs);
+            case REJECTED -> {
+                toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+                clearPart();
+            }
+            case FAULT -> phase = resumeAfterFault;
+            default -> { }
+        }
+    }
+
+    /** The confirm sensors' reading (a level; {@link OperatorInputs#NO_POSITION} for none). */
+    public void toolAt(int position) {
+        this.toolAt = position;
+    }
+
+    /** What the result store reported about its room. */
+    public void storage(ResultSink.Storage storage) {
+        this.storage = storage;
+    }
+
+    /** A standing warning of the station (calibration due, sensor fault, tool slowing): yellow lamp. */
+    public void warning(boolean on) {
+        this.warning = on;
+    }
+
+    public void onTick(long nowNs) {
+        if (phase == Phase.COMPLETE && nowNs - completeAtNs - (long) (settings.completeHoldMs() * 1e6) >= 0) {
+            clearPart();
+        }
+    }
+
+    // ---- storing ------------------------------------------------------------------------------
+
+    /** The oldest record waiting to be stored, or null; none is handed out while a store fault stands. */
+    public Store nextToStore() {
+        return phase == Phase.FAULT ? null : toStore.peek();
+    }
+
+    /** The record from {@link #nextToStore()} was stored; a joint's verdict shows now. */
+    public void stored(ResultSink.Receipt receipt, long nowNs) {
+        Store done = toStore.poll();
+        if (done instanceof Store.Joint) {
+            jointIds.add(receipt.id());
+            if (phase == Phase.STORING) {
+                applyVerdict(nowNs);
+            }
+        }
+    }
+
+    /** The record from {@link #nextToStore()} could not be stored: tool off until the supervisor key. */
+    public void storeFailed(long nowNs) {
+        if (phase != Phase.FAULT) {
+            resumeAfterFault = phase;
+            phase = Phase.FAULT;
+        }
+    }
+
+    // ---- outputs ---------------------------------------------------------------------------
+
+    public boolean toolEnabled() {
+        boolean prompting = phase == Phase.PROMPT || (phase == Phase.RUNDOWN && !shutoffSeen);
+        return prompting && (!confirmSensors || toolAt == prompted);
+    }
+
+    public LampMode positionLamp(int index) {
+        if (part == null || index >= status.length) {
+            return LampMode.OFF;
+        }
+        Phase p = phase == Phase.FAULT ? resumeAfterFault : phase;
+        switch (p) {
+            case PROMPT, RUNDOWN, STORING:
+                return index == prompted ? LampMode.BLINKING : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+            case REWORK:
+                return index == reworkPosition ? LampMode.BLINKING : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+            case REJECTED:
+                return status[index] == FAILED || leftOut[index] ? LampMode.BLINKING
+                        : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+            case COMPLETE:
+                return LampMode.STEADY;
+            default:
+                return LampMode.OFF;
+        }
+    }
+
+    public LampMode tower(TowerLamp lamp) {
+        switch (lamp) {
+            case WHITE:
+                return phase == Phase.WAITING && storage != ResultSink.Storage.FULL ? LampMode.STEADY : LampMode.OFF;
+            case BLUE:
+                return switch (phase) {
+                    case PROMPT, RUNDOWN, STORING -> LampMode.STEADY;
+                    case REWORK -> LampMode.BLINKING;
+                    default -> LampMode.OFF;
+                };
+            case GREEN:
+                return phase == Phase.COMPLETE || (phase == Phase.PROMPT && lastVerdict == Verdict.GO)
+                        ? LampMode.STEADY : LampMode.OFF;
+            case RED:
+                return switch (phase) {
+                    case REWORK -> LampMode.STEADY;
+                    case REJECTED, FAULT -> LampMode.BLINKING;
+                    default -> LampMode.OFF;
+                };
+            default:
+                if (phase == Phase.FAULT || storage == ResultSink.Storage.FULL) {
+                    return LampMode.BLINKING;
+                }
+                return warning || storage == ResultSink.Storage.LOW ? LampMode.STEADY : LampMode.OFF;
+        }
+    }
+
+    public Phase phase() {
+        return phase;
+    }
+
+    /** The part in work, or null. */
+    public PartIdentity part() {
+        return part;
+    }
+
+    public Pattern pattern() {
+        return pattern;
+    }
+
+    /** The pass in work, or null without a part. */
+    public Pattern.Pass pass() {
+        return pattern == null ? null : pattern.passes().get(passIndex);
+    }
+
+    public int passIndex() {
+        return passIndex;
+    }
+
+    /** The program the joint monitor should judge the next rundown by, or null without a part. */
+    public JointProgram program() {
+        Pattern.Pass p = pass();
+        return p == null ? null : p.program();
+    }
+
+    /** The prompted position (0-based), or -1. */
+    public int prompted() {
+        return phase == Phase.PROMPT || phase == Phase.RUNDOWN || phase == Phase.STORING ? prompted : -1;
+    }
+
+    /** The position that came out NO-GO while in {@link Phase#REWORK}, else -1. */
+    public int reworkPosition() {
+        return phase == Phase.REWORK ? reworkPosition : -1;
+    }
+
+    /** Rundowns so far on {@code position} in the current pass. */
+    public int attempts(int position) {
+        return position < attempts.length ? attempts[position] : 0;
+    }
+
+    /** True when {@code position} is done (GO) in the current pass. */
+    public boolean done(int position) {
+        return position < status.length && status[position] == DONE;
+    }
+
+    /** True once some position of the part has failed for good: the part cannot end GO. */
+    public boolean partFailed() {
+        return partFailed;
+    }
+
+    // ---- inside ----------------------------------------------------------------------------
+
+    /** The phase that events act on: while a store fault stands, the phase it interrupted. */
+    private Phase effective() {
+        return phase == Phase.FAULT ? resumeAfterFault : phase;
+    }
+
+    private void go(Phase next) {
+        if (phase == Phase.FAULT) {
+            resumeAfterFault = next;
+        } else {
+            phase = next;
+        }
+    }
+
+    private void startPass(long nowNs) {
+        Pattern.Pass pass = pass();
+        java.util.Arrays.fill(status, NOT_IN_PASS);
+        java.util.Arrays.fill(attempts, 0);
+        for (int k = 0; k < pass.orderLength(); k++) {
+            int pos = pass.orderAt(k);
+            status[pos] = leftOut[pos] ? SKIPPED : PENDING;
+        }
+        advance(nowNs);
+    }
+
+    private void advance(long nowNs) {
+        Pattern.Pass pass = pass();
+        for (int k = 0; k < pass.orderLength(); k++) {
+            int pos = pass.orderAt(k);
+            if (status[pos] == PENDING) {
+                prompted = pos;
+                phase = Phase.PROMPT;
+                return;
+            }
+        }
+        prompted = -1;
+        if (passIndex + 1 < pattern.passes().size()) {
+            passIndex++;
+            startPass(nowNs);
+            return;
+        }
+        if (partFailed) {
+            phase = Phase.REJECTED;
+            return;
+        }
+        toStore.add(new Store.Part(partOutcome("GO", "COMPLETE", nowNs)));
+        phase = Phase.COMPLETE;
+        completeAtNs = nowNs;
+    }
+
+    private void applyVerdict(long nowNs) {
+        int pos = judgedPosition;
+        lastVerdict = judgedVerdict;
+        if (judgedVerdict == Verdict.GO) {
+            status[pos] = DONE;
+            if (abandonAfterStore) {
+                abandon(nowNs);
+            } else {
+                advance(nowNs);
+            }
+            return;
+        }
+        Pattern.Pass pass = pass();
+        reworkPosition = pos;
+        if (attempts[pos] < pass.attempts()) {
+            status[pos] = PENDING;
+            reworkRetry = true;
+        } else {
+            status[pos] = FAILED;
+            partFailed = true;
+            reworkRetry = false;
+            event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO-GO after "
+                    + attempts[pos] + (attempts[pos] == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
+                    part.serial(), nowNs);
+            if (pass.afterNoGo() == AfterNoGo.SKIP_POSITION) {
+                leftOut[pos] = true;
+            }
+            if (pass.afterNoGo() == AfterNoGo.REJECT) {
+                prompted = -1;
+                phase = Phase.REJECTED;
+                if (abandonAfterStore) {
+                    abandonAfterStore = false;
+                }
+                return;
+            }
+        }
+        if (abandonAfterStore) {
+            abandon(nowNs);
+            return;
+        }
+        phase = Phase.REWORK;
+    }
+
+    private void releaseRework(String by, long nowNs) {
+        event(StationEvent.Severity.NOTICE, "REWORK_ACKNOWLEDGED", "NO-GO on position " + label(reworkPosition)
+                + " acknowledged by the " + by, part.serial(), nowNs);
+        if (reworkRetry) {
+            prompted = reworkPosition;
+            phase = Phase.PROMPT;
+        } else {
+            advance(nowNs);
+        }
+        reworkPosition = -1;
+    }
+
+    private void abandon(long nowNs) {
+        toStore.add(new Store.Part(partOutcome("NO_GO", "ABANDONED", nowNs)));
+        clearPart();
+    }
+
+    private void clearPart() {
+        part = null;
+        pattern = null;
+        prompted = -1;
+        reworkPosition = -1;
+        abandonAfterStore = false;
+        phase = Phase.WAITING;
+    }
+
+    private PartOutcome partOutcome(String verdict, String ended, long nowNs) {
+        return new PartOutcome(part.serial(), part.model(), pattern.id(), verdict, ended, jointIds,
+                partStarted, clock.instantOf(nowNs));
+    }
+
+    private void event(StationEvent.Severity severity, String code, String message, String serial, long nowNs) {
+        toStore.add(new Store.Event(new StationEvent(severity, code, message, serial, clock.instantOf(nowNs))));
+    }
+
+    private String label(int pos) {
+        return pos < 0 ? "-" : (pos + 1) + " (" + pattern.positions().get(pos) + ")";
+    }
+
+    private static JointResult withReason(JointResult r, Reason reason) {
+        List<Reason> reasons = new ArrayList<>(r.reasons());
+        reasons.add(reason);
+        return new JointResult(r.program(), r.startNs(), r.endNs(), r.blows(), r.peaksNm(), r.peakTimesNs(),
+                r.widthsMs(), r.impulsesNms(), r.finalTorqueNm(), r.durationMs(), r.shutoffAtNs(),
+                r.blowsAfterShutoff(), r.faults(), Verdict.NO_GO, List.copyOf(reasons));
+    }
+}

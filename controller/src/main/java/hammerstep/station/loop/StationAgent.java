@@ -1,0 +1,304 @@
+package hammerstep.station.loop;
+
+import hammerstep.joint.JointEvents;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.joint.JointResult;
+import hammerstep.results.ResultSink;
+import hammerstep.results.ResultStoreException;
+import hammerstep.sequence.Pattern;
+import hammerstep.sequence.Sequence;
+import hammerstep.sequence.Store;
+import hammerstep.signal.Conditioning;
+import hammerstep.station.OperatorInputs;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.SampleBlockHandler;
+import hammerstep.station.StationClock;
+import org.agrona.ErrorHandler;
+import org.agrona.concurrent.Agent;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.Map;
+
+/**
+ * The station's duty cycle: reads the clock once, polls the operator inputs and the part identity,
+ * feeds waiting sample blocks through the current pass's {@link JointMonitor}, hands the sequence's
+ * records to the {@link ResultSink}, then drives the tool enable and the lamps from the sequence.
+ * After every block the tool output is brought up to date, so tool enable drops within one block of
+ * the shut-off crossing.
+ *
+ * <p>Run it on one thread with Agrona's {@code AgentRunner} ({@link StationRunner}), or call
+ * {@link #doWork()} by hand on a virtual clock (tests, {@code --fast}). Single-threaded; the sample
+ * path allocates nothing.
+ */
+public final class StationAgent implements Agent, SampleBlockHandler, JointEvents {
+
+    private static final Logger LOG = LoggerFactory.getLogger(StationAgent.class);
+    private static final int MAX_BLOCKS_PER_CYCLE = 8;
+
+    private final StationClock clock;
+    private final StationPorts ports;
+    private final ResultSink sink;
+    private final Sequence sequence;
+    private final Map<String, Pattern> patternsByModel;
+    private final Map<JointProgram, JointMonitor> monitors = new HashMap<>();
+    private final JointMonitor watch;
+    private final LampDriver lampDriver;
+    private final StationListener listener;
+    private final ErrorHandler errorHandler;
+
+    private JointMonitor current;
+    private long nowNs;
+    private boolean shutoffPending;
+    private long shutoffNs;
+    private boolean toolOn;
+    private boolean toolWritten;
+    private boolean ackBefore;
+    private boolean keyBefore;
+    private boolean presentBefore;
+    private int confirmedBefore = Integer.MIN_VALUE;
+    private PartIdentity waitingIdentity;
+    private long errors;
+    private long lastShutoffToRelayNs = -1;
+
+    /**
+     * @param patternsByModel part model → pattern; every program of every pattern gets its monitor here
+     * @param conditioning    the transducer's conditioning (auto-zero, range, filter)
+     */
+    public StationAgent(StationClock clock, StationPorts ports, ResultSink sink, Sequence sequence,
+                        Map<String, Pattern> patternsByModel, Conditioning conditioning, long blinkPeriodNs,
+                        StationListener listener, ErrorHandler errorHandler) {
+        if (patternsByModel.isEmpty()) {
+            throw new IllegalArgumentException("a station needs at least one part model with its pattern");
+        }
+        this.clock = clock;
+        this.ports = ports;
+        this.sink = sink;
+        this.sequence = sequence;
+        this.patternsByModel = new LinkedHashMap<>(patternsByModel);
+        this.listener = listener;
+        this.errorHandler = errorHandler;
+        double rate = ports.torque().rateHz();
+        int block = ports.torque().maxBlockLength();
+        JointMonitor first = null;
+        for (Pattern pattern : this.patternsByModel.values()) {
+            if (pattern.size() > ports.lamps().positionLamps()) {
+                throw new IllegalArgumentException("pattern " + pattern.id() + " has " + pattern.size()
+                        + " positions but the station has " + ports.lamps().positionLamps() + " position lamps");
+            }
+            for (Pattern.Pass pass : pattern.passes()) {
+                JointMonitor m = monitors.computeIfAbsent(pass.program(),
+                        p -> new JointMonitor(p, conditioning, rate, block, this));
+                if (first == null) {
+                    first = m;
+                }
+            }
+        }
+        this.watch = first;
+        this.current = first;
+        this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
+        ports.tool().set(false);
+    }
+
+    @Override
+    public String roleName() {
+        return "station";
+    }
+
+    @Override
+    public int doWork() {
+        try {
+            return cycle();
+        } catch (Throwable t) {
+            errors++;
+            safeOff();
+            errorHandler.onError(t);
+            return 1;
+        }
+    }
+
+    private int cycle() {
+        nowNs = clock.nanoTime();
+        int work = pollInputs();
+        selectMonitor();
+        work += ports.torque().poll(this, MAX_BLOCKS_PER_CYCLE);
+        work += drainStores();
+        sequence.storage(sink.storage());
+        sequence.onTick(nowNs);
+        work += drainStores();
+        applyTool();
+        work += lampDriver.apply(sequence, nowNs);
+        return work;
+    }
+
+    private int pollInputs() {
+        OperatorInputs in = ports.inputs();
+        int work = 0;
+        boolean ack = in.acknowledge();
+        if (ack && !ackBefore) {
+            sequence.acknowledge(nowNs);
+            work++;
+        }
+        ackBefore = ack;
+        boolean key = in.supervisorKey();
+        if (key && !keyBefore) {
+            sequence.supervisorKey(nowNs);
+            work++;
+        }
+        keyBefore = key;
+        boolean present = !in.hasPartPresent() || in.partPresent();
+        if (!present && presentBefore) {
+            sequence.partRemoved(nowNs);
+            work++;
+        }
+        presentBefore = present;
+        if (in.hasConfirmSensors()) {
+            int at = in.confirmedPosition();
+            if (at != confirmedBefore) {
+                sequence.toolAt(at);
+                confirmedBefore = at;
+                work++;
+            }
+        }
+        PartIdentity id = ports.identity().poll();
+        if (id != null) {
+            waitingIdentity = id;
+            work++;
+        }
+        if (waitingIdentity != null && present) {
+            sequence.partArrived(waitingIdentity, patternsByModel.get(waitingIdentity.model()), nowNs);
+            waitingIdentity = null;
+        }
+        return work;
+    }
+
+    private void selectMonitor() {
+        if (current.inRundown()) {
+            return;
+        }
+        JointProgram program = sequence.program();
+        JointMonitor next = program == null ? watch : monitors.get(program);
+        current = next == null ? watch : next;
+    }
+
+    @Override
+    public void onBlock(float[] samples, int offset, int length, long firstSampleNs) {
+        current.onSamples(samples, offset, length, firstSampleNs);
+        if (shutoffPending) {
+            shutoffPending = false;
+            sequence.shutoff(shutoffNs);
+            applyTool();
+            lastShutoffToRelayNs = clock.nanoTime() - shutoffNs;
+        }
+        selectMonitor();
+    }
+
+    // ---- JointEvents from the current monitor, during onSamples ---------------------------------
+
+    @Override
+    public void onRundownStart(long startNs) {
+        sequence.rundownStarted(startNs);
+        listener.onRundownStart(startNs);
+    }
+
+    @Override
+    public void onBlow(int index, double peakNm, long peakNs) {
+        listener.onBlow(index, peakNm, peakNs);
+    }
+
+    @Override
+    public void onShutoff(long crossingNs) {
+        shutoffPending = true;
+        shutoffNs = crossingNs;
+    }
+
+    @Override
+    public void onRundown(JointResult result) {
+        sequence.jointJudged(result, nowNs);
+        drainStores();
+    }
+
+    // ---- outputs --------------------------------------------------------------------------------
+
+    private int drainStores() {
+        int n = 0;
+        Store s;
+        while ((s = sequence.nextToStore()) != null) {
+            ResultSink.Receipt receipt;
+            try {
+                receipt = store(s);
+            } catch (ResultStoreException e) {
+                sequence.storeFailed(nowNs);
+                applyTool();
+                LOG.error("result not stored, station stopped until the supervisor key: {}", e.getMessage());
+                listener.onStoreFailed(e.getMessage());
+                return n;
+            }
+            sequence.stored(receipt, nowNs);
+            n++;
+            if (s instanceof Store.Joint j) {
+                listener.onJoint(j.outcome(), receipt);
+            } else if (s instanceof Store.Part p) {
+                listener.onPart(p.outcome(), receipt);
+            } else if (s instanceof Store.Event e) {
+                listener.onEvent(e.event(), receipt);
+            }
+        }
+        return n;
+    }
+
+    private ResultSink.Receipt store(Store s) throws ResultStoreException {
+        if (s instanceof Store.Joint j) {
+            return sink.joint(j.outcome());
+        }
+        if (s instanceof Store.Part p) {
+            return sink.part(p.outcome());
+        }
+        return sink.event(((Store.Event) s).event());
+    }
+
+    private void applyTool() {
+        boolean on = sequence.toolEnabled();
+        if (on != toolOn || !toolWritten) {
+            ports.tool().set(on);
+            toolOn = on;
+            toolWritten = true;
+            listener.onTool(on, nowNs);
+        }
+    }
+
+    private void safeOff() {
+        try {
+            ports.tool().set(false);
+            toolOn = false;
+        } catch (Throwable t) {
+            errorHandler.onError(t);
+        }
+    }
+
+    @Override
+    public void onClose() {
+        safeOff();
+    }
+
+    public Sequence sequence() {
+        return sequence;
+    }
+
+    public boolean toolOn() {
+        return toolOn;
+    }
+
+    /** Errors caught by the duty cycle so far (each also went to the error handler). */
+    public long errors() {
+        return errors;
+    }
+
+    /** Station-clock time from the last shut-off crossing sample to the relay command; -1 before the first. */
+    public long lastShutoffToRelayNs() {
+        return lastShutoffToRelayNs;
+    }
+}
