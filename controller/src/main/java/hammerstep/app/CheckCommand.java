@@ -35,7 +35,9 @@ public final class CheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException {
-        Logging.configure(verbose, Level.WARN);
+        if (verbose) {
+            Logging.configure(true, Level.WARN);
+        }
         List<Path> files = new ArrayList<>();
         List<Problem> problems = new ArrayList<>();
         for (Path p : paths) {

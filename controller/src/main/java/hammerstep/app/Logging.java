@@ -4,7 +4,10 @@ import ch.qos.logback.classic.Level;
 import ch.qos.logback.classic.Logger;
 import org.slf4j.LoggerFactory;
 
-/** Sets the log level at start: commands that print results keep logs quiet unless asked. */
+/**
+ * Sets the log level at start. Commands that print results (replay, check) do not log and leave
+ * logging uninitialised unless {@code --verbose} asks for it: that keeps their start fast.
+ */
 public final class Logging {
 
     private Logging() {

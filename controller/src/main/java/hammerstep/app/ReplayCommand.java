@@ -1,7 +1,6 @@
 package hammerstep.app;
 
 import ch.qos.logback.classic.Level;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.config.ConfigException;
 import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
@@ -9,6 +8,7 @@ import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
 import hammerstep.joint.ProgramFile;
 import hammerstep.results.JointFields;
+import hammerstep.results.JsonLines;
 import hammerstep.signal.Conditioning;
 import hammerstep.trace.TraceException;
 import hammerstep.trace.TraceFiles;
@@ -64,7 +64,9 @@ public final class ReplayCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws ConfigException, TraceException, IOException {
-        Logging.configure(verbose, Level.WARN);
+        if (verbose) {
+            Logging.configure(true, Level.WARN);
+        }
         JointProgram program = ProgramFile.load(programFile);
         if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
@@ -77,7 +79,6 @@ public final class ReplayCommand implements Callable<Integer> {
         }
         List<JointResult> results = new ArrayList<>();
         BufferedWriter out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), 1 << 16);
-        ObjectMapper json = new ObjectMapper();
         JointEvents events = result -> {
             if (summary) {
                 results.add(result);
@@ -85,7 +86,7 @@ public final class ReplayCommand implements Callable<Integer> {
                 try {
                     Map<String, Object> m = JointFields.of(result);
                     m.put("start_s", JointFields.round(result.startNs() * 1e-9, 10_000));
-                    out.write(json.writeValueAsString(m));
+                    out.write(JsonLines.of(m));
                     out.write('\n');
                 } catch (IOException e) {
                     throw new UncheckedIOException(e);

@@ -18,20 +18,27 @@ public final class MapReader {
     private final Problems problems;
     private final ConfigNode node;
     private final Set<String> known = new LinkedHashSet<>();
+    private final boolean absent;
 
-    private MapReader(Problems problems, ConfigNode node) {
+    private MapReader(Problems problems, ConfigNode node, boolean absent) {
         this.problems = problems;
         this.node = node;
+        this.absent = absent;
     }
 
     /** A reader over {@code node}; a node that is not a map is reported and reads as empty. */
     public static MapReader of(Problems problems, ConfigNode node) {
         if (node.kind() != ConfigNode.Kind.MAP) {
             problems.add(node, where(node) + "expected a map of keys, got " + node.describe());
-            return new MapReader(problems, new ConfigNode(ConfigNode.Kind.MAP, node.path(), node.line(),
-                    node.column(), "", Map.of(), null));
+            return absent(problems, node);
         }
-        return new MapReader(problems, node);
+        return new MapReader(problems, node, false);
+    }
+
+    /** A reader standing in for a map already reported missing or wrong: reads give defaults, silently. */
+    private static MapReader absent(Problems problems, ConfigNode at) {
+        return new MapReader(problems, new ConfigNode(ConfigNode.Kind.MAP, at.path(), at.line(), at.column(), "",
+                Map.of(), null), true);
     }
 
     public ConfigNode node() {
@@ -58,7 +65,9 @@ public final class MapReader {
         known.add(key);
         ConfigNode n = node.entries().get(key);
         if (n == null || n.kind() == ConfigNode.Kind.NULL) {
-            problems.add(n == null ? node : n, "missing key '" + path(key) + "': expected " + expected);
+            if (!absent) {
+                problems.add(n == null ? node : n, "missing key '" + path(key) + "': expected " + expected);
+            }
             return null;
         }
         return n;
@@ -113,9 +122,13 @@ public final class MapReader {
 
     private double toNumber(ConfigNode n) {
         if (n.kind() == ConfigNode.Kind.NUMBER) {
-            double v = Double.parseDouble(n.text());
-            if (Double.isFinite(v)) {
-                return v;
+            try {
+                double v = Double.parseDouble(n.text());
+                if (Double.isFinite(v)) {
+                    return v;
+                }
+            } catch (NumberFormatException e) {
+                // YAML's .inf and .nan: reported below
             }
         }
         problems.add(n, "'" + n.path() + "': expected a number, got " + n.describe());
@@ -195,7 +208,7 @@ public final class MapReader {
     public MapReader map(String key) {
         ConfigNode n = required(key, "a map of keys");
         if (n == null) {
-            return of(problems, new ConfigNode(ConfigNode.Kind.MAP, path(key), node.line(), node.column(), "",
+            return absent(problems, new ConfigNode(ConfigNode.Kind.MAP, path(key), node.line(), node.column(), "",
                     Map.of(), null));
         }
         return of(problems, n);

@@ -69,7 +69,7 @@ public final class YamlDocument {
             JsonLocation at = e.getLocation();
             int line = at == null ? 0 : Math.max(at.getLineNr(), 0);
             int column = at == null ? 0 : Math.max(at.getColumnNr(), 0);
-            throw new ConfigException(new Problem(file, line, column, "not valid YAML: " + e.getOriginalMessage()));
+            throw new ConfigException(new Problem(file, line, column, "not valid YAML: " + oneLine(e.getOriginalMessage())));
         } catch (IOException e) {
             throw new ConfigException(new Problem(file, 0, 0, "cannot read: " + e.getMessage()));
         }
@@ -119,6 +119,21 @@ public final class YamlDocument {
             default:
                 return new ConfigNode(ConfigNode.Kind.STRING, path, line, column, p.getText(), null, null);
         }
+    }
+
+    /** The parser's message without its indented echo of the file, on one line. */
+    static String oneLine(String message) {
+        StringBuilder sb = new StringBuilder();
+        for (String line : message.split("\\R")) {
+            if (line.isBlank() || Character.isWhitespace(line.charAt(0))) {
+                continue;
+            }
+            if (sb.length() > 0) {
+                sb.append("; ");
+            }
+            sb.append(line.strip());
+        }
+        return sb.length() == 0 ? message.strip() : sb.toString();
     }
 
     private static String join(String path, String key) {

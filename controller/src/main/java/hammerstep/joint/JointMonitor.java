@@ -140,34 +140,33 @@ public final class JointMonitor implements PulseSink {
     private int scanActive(float[] x, int from, int length, long firstNs) {
         float level = startAbove;
         long base = sampleBase;
-        long lastAbove = lastAboveSample;
-        long endAfter = endAfterSamples;
-        long cutAt = startSample + maxSamples;
+        // block-relative indices: the rundown is cut at cutIdx and ends at the first sample below
+        // the level once endAfter samples have passed since the last one above it
+        long cutRel = startSample + maxSamples - base;
+        int stop = (int) Math.min(length, Math.max(from, cutRel));
+        long lastAboveRel = lastAboveSample - base;
+        long endRel = lastAboveRel + endAfterSamples;
         int i = from;
         boolean ended = false;
-        boolean cut = false;
-        for (; i < length; i++) {
+        for (; i < stop; i++) {
             float v = x[i];
-            long k = base + i;
-            if (k >= cutAt) {
-                cut = true;
-                break;
-            }
             if (v >= level) {
-                lastAbove = k;
+                lastAboveRel = i;
+                endRel = i + endAfterSamples;
                 if (v >= shutoffNm && shutoffNs == Long.MIN_VALUE) {
                     shutoffNs = firstNs + (long) (i * periodNs);
                     events.onShutoff(shutoffNs);
                 }
-            } else if (k - lastAbove >= endAfter) {
+            } else if (i >= endRel) {
                 ended = true;
                 break;
             }
         }
+        boolean cut = !ended && i == stop && stop < length || !ended && base + i >= startSample + maxSamples;
         detector.process(x, from, i - from, firstNs + (long) (from * periodNs));
-        if (lastAbove != lastAboveSample) {
-            lastAboveNs = firstNs + (long) ((lastAbove - base) * periodNs);
-            lastAboveSample = lastAbove;
+        if (lastAboveRel + base != lastAboveSample) {
+            lastAboveSample = lastAboveRel + base;
+            lastAboveNs = firstNs + (long) (lastAboveRel * periodNs);
         }
         if (ended || cut) {
             finishRundown(cut);

@@ -48,7 +48,7 @@ public final class ProgramFile {
         double max = t.requiredNumber("max", 0, MAX_NM);
         if (min > max) {
             t.problem("min", "'" + t.path("min") + "' (" + min + ") is above '" + t.path("max") + "' (" + max + ")");
-        } else if (target < min || target > max) {
+        } else if (!Double.isNaN(min + max) && (target < min || target > max)) {
             t.problem("target", "'" + t.path("target") + "' (" + target + ") must lie between min (" + min
                     + ") and max (" + max + ")");
         }

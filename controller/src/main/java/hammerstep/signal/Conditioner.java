@@ -67,16 +67,43 @@ public final class Conditioner {
      */
     public int process(float[] in, int offset, int length, float[] out, boolean trackZero) {
         float zero = (float) zeroNm;
-        float max = Float.NEGATIVE_INFINITY;
-        float min = Float.POSITIVE_INFINITY;
-        float sum = 0f;
-        for (int i = 0; i < length; i++) {
+        // four independent accumulators keep the loop free of long dependency chains
+        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
+        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
+        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
+        int i = 0;
+        for (int last = length - 3; i < last; i += 4) {
+            float x0 = in[offset + i];
+            float x1 = in[offset + i + 1];
+            float x2 = in[offset + i + 2];
+            float x3 = in[offset + i + 3];
+            max0 = x0 > max0 ? x0 : max0;
+            max1 = x1 > max1 ? x1 : max1;
+            max2 = x2 > max2 ? x2 : max2;
+            max3 = x3 > max3 ? x3 : max3;
+            min0 = x0 < min0 ? x0 : min0;
+            min1 = x1 < min1 ? x1 : min1;
+            min2 = x2 < min2 ? x2 : min2;
+            min3 = x3 < min3 ? x3 : min3;
+            sum0 += x0;
+            sum1 += x1;
+            sum2 += x2;
+            sum3 += x3;
+            out[i] = x0 - zero;
+            out[i + 1] = x1 - zero;
+            out[i + 2] = x2 - zero;
+            out[i + 3] = x3 - zero;
+        }
+        for (; i < length; i++) {
             float x = in[offset + i];
-            max = x > max ? x : max;
-            min = x < min ? x : min;
-            sum += x;
+            max0 = x > max0 ? x : max0;
+            min0 = x < min0 ? x : min0;
+            sum0 += x;
             out[i] = x - zero;
         }
+        float max = Math.max(Math.max(max0, max1), Math.max(max2, max3));
+        float min = Math.min(Math.min(min0, min1), Math.min(min2, min3));
+        float sum = (sum0 + sum1) + (sum2 + sum3);
         int now = faults & ~(OVER_RANGE_OR_NAN);
         if (sum != sum || max == Float.POSITIVE_INFINITY || min == Float.NEGATIVE_INFINITY) {
             now |= SignalFaults.NOT_FINITE;

@@ -1,0 +1,101 @@
+package hammerstep.bench;
+
+import hammerstep.joint.FinalTorque;
+import hammerstep.joint.JointEvents;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.signal.PulseTrain;
+import org.openjdk.jmh.annotations.Benchmark;
+import org.openjdk.jmh.annotations.BenchmarkMode;
+import org.openjdk.jmh.annotations.Fork;
+import org.openjdk.jmh.annotations.Measurement;
+import org.openjdk.jmh.annotations.Mode;
+import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Param;
+import org.openjdk.jmh.annotations.Scope;
+import org.openjdk.jmh.annotations.Setup;
+import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.Warmup;
+import org.openjdk.jmh.infra.Blackhole;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Random;
+import java.util.concurrent.TimeUnit;
+
+/**
+ * The whole measurement chain (conditioning, blow detection, rundown segmentation, verdict) on a
+ * realistic block stream at 50 kHz: rundowns of 6 to 20 blows at 1100 to 3300 per minute with
+ * noise and offset, separated by idle time, as a station sees it. One operation is one block;
+ * samples per second = ops/s × block. {@code copy} moves the same blocks with System.arraycopy,
+ * the floor any chain is compared with.
+ *
+ * <pre>
+ * mvn -q -Pbench -DskipTests package -pl controller
+ * java -jar controller/target/benchmarks.jar ChainBenchmark -prof gc
+ * </pre>
+ */
+@State(Scope.Thread)
+@BenchmarkMode(Mode.Throughput)
+@OutputTimeUnit(TimeUnit.SECONDS)
+@Warmup(iterations = 3, time = 2)
+@Measurement(iterations = 5, time = 2)
+@Fork(1)
+public class ChainBenchmark {
+
+    private static final double RATE = 50_000;
+
+    @Param({"512"})
+    int block;
+
+    private float[] stream;
+    private float[] copy;
+    private int pos;
+    private long ns;
+    private JointMonitor monitor;
+    private long rundowns;
+
+    @Setup
+    public void setUp() {
+        Random r = new Random(42);
+        List<PulseTrain.Strike> strikes = new ArrayList<>();
+        double t = 0.3;
+        double duration = 60.0;
+        while (t < duration - 2) {
+            int blows = 6 + r.nextInt(15);
+            List<PulseTrain.Strike> rundown = PulseTrain.randomRundown(r, t, blows, 60, 210, 1100, 3300);
+            strikes.addAll(rundown);
+            t = rundown.get(blows - 1).startS() + 0.5 + r.nextDouble();
+        }
+        stream = PulseTrain.render(RATE, duration, strikes, 0.4, 0.3, 7);
+        copy = new float[block];
+        JointProgram program = new JointProgram("bench", "", new JointProgram.Torque(180, 200, 230),
+                FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 4, 30, 7.5),
+                new JointProgram.Rundown(10, 200, 5000), 205, 2);
+        JointEvents events = result -> rundowns++;
+        monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), RATE, block, events);
+    }
+
+    private int next() {
+        int p = pos;
+        if (p + block > stream.length) {
+            p = 0;
+        }
+        pos = p + block;
+        ns += (long) (block * 1e9 / RATE);
+        return p;
+    }
+
+    @Benchmark
+    public void chain() {
+        monitor.onSamples(stream, next(), block, ns);
+    }
+
+    @Benchmark
+    public void copy(Blackhole bh) {
+        System.arraycopy(stream, next(), copy, 0, block);
+        bh.consume(copy);
+    }
+
+
+}

@@ -1,0 +1,52 @@
+package hammerstep.joint;
+
+import hammerstep.signal.PulseTrain;
+import org.junit.jupiter.api.Test;
+
+import java.lang.management.ManagementFactory;
+import java.util.ArrayList;
+import java.util.List;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+/**
+ * The sample path allocates nothing per block: idle blocks, blocks inside a rundown, blows and
+ * the shut-off crossing. (Only the end of a rundown allocates its one result.) Counted with the
+ * JVM's per-thread allocation counter, so the test is about behaviour, not time.
+ */
+class AllocationTest {
+
+    @Test
+    void blocksAllocateNothingUntilARundownEnds() {
+        com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+        List<PulseTrain.Strike> strikes = new ArrayList<>();
+        // 60 blows 30 ms apart that repeat seamlessly: one rundown that never goes quiet for end_after_ms
+        for (int i = 0; i < 60; i++) {
+            strikes.add(new PulseTrain.Strike(0.005 + i * 0.03, 0.002, 60 + 2.5 * i, 0.3, 0.3, 0.2));
+        }
+        float[] x = PulseTrain.render(50_000, 60 * 0.03, strikes, 0.3, 0.2, 5);
+        JointProgram p = Programs.withMaxMs(Programs.hubFinal(), 60_000);
+        int[] rundowns = new int[1];
+        JointEvents events = result -> rundowns[0]++;
+        JointMonitor m = new JointMonitor(p, JointMonitor.replayConditioning(p), 50_000, 512, events);
+        long tid = Thread.currentThread().getId();
+        // a first pass warms up class loading and the counters themselves
+        feed(m, x);
+        long before = threads.getThreadAllocatedBytes(tid);
+        for (int pass = 0; pass < 10; pass++) {
+            feed(m, x);
+        }
+        long allocated = threads.getThreadAllocatedBytes(tid) - before;
+        assertThat(rundowns[0]).isZero();
+        assertThat(m.blowsSoFar()).isEqualTo(660);
+        // one object per block would be at least 16 B × 1750 blocks; the counter itself and the JIT's
+        // bookkeeping account for a few hundred bytes at most
+        assertThat(allocated).as("bytes allocated over %d blocks", 10 * (x.length / 512)).isLessThan(1024);
+    }
+
+    private static void feed(JointMonitor m, float[] x) {
+        for (int off = 0; off + 512 <= x.length; off += 512) {
+            m.onSamples(x, off, 512, off * 20_000L);
+        }
+    }
+}
