@@ -42,6 +42,8 @@ public final class ScriptedOperator {
     private int mistakes;
     private int socketAt = -1;
     private boolean poweredSeen;
+    private int blowsAtStart;
+    private int earlyBlows;
 
     public ScriptedOperator(VirtualStation station, Habits habits, List<PartIdentity> parts, long seed) {
         this.station = station;
@@ -184,6 +186,7 @@ public final class ScriptedOperator {
         lastDone = -1;
         target = go;
         releaseEarlyNow = draw(habits.releaseEarly());
+        earlyBlows = 1 + random.nextInt(2);
         holdLongNow = draw(habits.holdTooLong());
         doing = Doing.MOVING;
         wait(now, habits.reactionMs() + (go != socketAt ? habits.moveMs() : 0));
@@ -195,6 +198,7 @@ public final class ScriptedOperator {
         startedNs = now;
         toolStoppedNs = Long.MIN_VALUE;
         poweredSeen = false;
+        blowsAtStart = station.tool().blows();
         untilNs = now;
     }
 
@@ -212,7 +216,7 @@ public final class ScriptedOperator {
         }
         int blows = station.tool().blows();
         boolean letGo = false;
-        if (releaseEarlyNow && blows >= 1 + random.nextInt(2)) {
+        if (releaseEarlyNow && blows - blowsAtStart >= earlyBlows) {
             letGo = true;
         } else if (stopped) {
             if (toolStoppedNs == Long.MIN_VALUE) {
