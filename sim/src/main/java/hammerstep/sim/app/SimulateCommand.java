@@ -1,0 +1,169 @@
+package hammerstep.sim.app;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import hammerstep.app.UserError;
+import hammerstep.config.ConfigException;
+import hammerstep.sim.physics.JointSpec;
+import hammerstep.sim.physics.Presets;
+import hammerstep.sim.physics.Rig;
+import hammerstep.sim.physics.ToolSpec;
+import hammerstep.sim.physics.TransducerSpec;
+import hammerstep.trace.TraceWriter;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.Callable;
+
+/**
+ * {@code hammerstep-sim simulate}: rundowns of a modelled tool on a modelled joint, written as a
+ * trace (what the transducer's ADC read) with the physics' ground truth beside it.
+ */
+@Command(name = "simulate", mixinStandardHelpOptions = true,
+        description = {"Simulates rundowns of a tool on a joint and writes the transducer trace and the ground truth.",
+                "Each rundown: the trigger held --hold-ms, released, then --gap-ms of quiet; a new fastener each time."})
+public final class SimulateCommand implements Callable<Integer> {
+
+    static final int BLOCK = 4096;
+
+    @Option(names = "--tool", required = true, paramLabel = "NAME|FILE",
+            description = "tool preset (${COMPLETION-CANDIDATES}) or a YAML file", completionCandidates = ToolNames.class)
+    String tool;
+
+    @Option(names = "--joint", required = true, paramLabel = "NAME|FILE",
+            description = "joint preset (${COMPLETION-CANDIDATES}) or a YAML file", completionCandidates = JointNames.class)
+    String joint;
+
+    @Option(names = "--transducer", paramLabel = "NAME|FILE", defaultValue = Presets.DEFAULT_TRANSDUCER,
+            description = "transducer preset (${COMPLETION-CANDIDATES}) or a YAML file (default: ${DEFAULT-VALUE})",
+            completionCandidates = TransducerNames.class)
+    String transducer;
+
+    @Option(names = "--rate", paramLabel = "HZ", defaultValue = "50000", description = "ADC rate (default: ${DEFAULT-VALUE})")
+    double rateHz;
+
+    @Option(names = "--seed", paramLabel = "S", defaultValue = "1", description = "random seed (default: ${DEFAULT-VALUE})")
+    long seed;
+
+    @Option(names = "--rundowns", paramLabel = "N", defaultValue = "1", description = "rundowns, one fastener each (default: ${DEFAULT-VALUE})")
+    int rundowns;
+
+    @Option(names = "--hold-ms", paramLabel = "MS", defaultValue = "1500", description = "trigger held per rundown (default: ${DEFAULT-VALUE})")
+    double holdMs;
+
+    @Option(names = "--gap-ms", paramLabel = "MS", defaultValue = "500", description = "quiet after each rundown (default: ${DEFAULT-VALUE})")
+    double gapMs;
+
+    @Option(names = "--lead-ms", paramLabel = "MS", defaultValue = "100", description = "quiet before the first rundown (default: ${DEFAULT-VALUE})")
+    double leadMs;
+
+    @Option(names = "--count-above", paramLabel = "NM", defaultValue = "40",
+            description = "shaft torque a strike must reach to be a blow in the truth (default: ${DEFAULT-VALUE})")
+    double countAboveNm;
+
+    @Option(names = "--supply-bar", paramLabel = "BAR", description = "air supply pressure, gauge (default: the tool's reference)")
+    Double supplyBar;
+
+    @Option(names = "--battery-v", paramLabel = "V", description = "battery open-circuit voltage (default: the tool's nominal)")
+    Double batteryV;
+
+    @Option(names = "--out", required = true, paramLabel = "FILE", description = "trace to write (CSV: time_s,torque_nm)")
+    Path out;
+
+    @Option(names = "--truth", required = true, paramLabel = "FILE", description = "ground truth to write (JSON)")
+    Path truth;
+
+    @Override
+    public Integer call() throws ConfigException, IOException {
+        if (!(rateHz >= 1000 && rateHz <= 1_000_000)) {
+            throw new UserError("--rate " + rateHz + ": expected 1000 to 1000000 Hz");
+        }
+        if (rundowns < 1 || rundowns > 10_000) {
+            throw new UserError("--rundowns " + rundowns + ": expected 1 to 10000");
+        }
+        if (!(holdMs > 0) || !(gapMs >= 0) || !(leadMs >= 0) || holdMs > 600_000) {
+            throw new UserError("--hold-ms must be positive (at most 600000); --gap-ms and --lead-ms not negative");
+        }
+        ToolSpec toolSpec = Presets.tool(tool);
+        JointSpec jointSpec = Presets.joint(joint);
+        TransducerSpec transducerSpec = Presets.transducer(transducer);
+        Rig rig = Rig.create(toolSpec, jointSpec, transducerSpec, rateHz, seed);
+        rig.setBlowThresholdNm(countAboveNm);
+        if (supplyBar != null) {
+            rig.setSupplyPressureBar(supplyBar);
+        }
+        if (batteryV != null) {
+            rig.setBatteryVoltage(batteryV);
+        }
+        Map<String, String> meta = new LinkedHashMap<>();
+        meta.put("source", "hammerstep-sim simulate");
+        meta.put("tool", toolSpec.name());
+        meta.put("joint", jointSpec.name());
+        meta.put("transducer", transducerSpec.name());
+        meta.put("seed", Long.toString(seed));
+        List<Map<String, Object>> results = new ArrayList<>();
+        float[] block = new float[BLOCK];
+        try (TraceWriter writer = new TraceWriter(out, rateHz, meta)) {
+            run(rig, writer, block, samplesFor(leadMs));
+            for (int r = 0; r < rundowns; r++) {
+                if (r > 0) {
+                    rig.newFastener(jointSpec);
+                }
+                double startS = rig.samplesElapsed() / rateHz;
+                rig.setTrigger(true);
+                run(rig, writer, block, samplesFor(holdMs));
+                rig.setTrigger(false);
+                run(rig, writer, block, samplesFor(gapMs));
+                results.add(Truth.rundown(rig, startS));
+            }
+        }
+        Map<String, Object> doc = new LinkedHashMap<>();
+        doc.put("tool", toolSpec.name());
+        doc.put("joint", jointSpec.name());
+        doc.put("transducer", transducerSpec.name());
+        doc.put("rate_hz", rateHz);
+        doc.put("seed", seed);
+        doc.put("count_above_nm", countAboveNm);
+        doc.put("rundowns", results);
+        new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(truth.toFile(), doc);
+        return 0;
+    }
+
+    private long samplesFor(double ms) {
+        return Math.round(ms * 1e-3 * rateHz);
+    }
+
+    private static void run(Rig rig, TraceWriter writer, float[] block, long samples) throws IOException {
+        long left = samples;
+        while (left > 0) {
+            int n = (int) Math.min(block.length, left);
+            rig.fill(block, 0, n);
+            writer.write(block, 0, n);
+            left -= n;
+        }
+    }
+
+    static final class ToolNames extends ArrayList<String> {
+        ToolNames() {
+            super(Presets.TOOLS);
+        }
+    }
+
+    static final class JointNames extends ArrayList<String> {
+        JointNames() {
+            super(Presets.JOINTS);
+        }
+    }
+
+    static final class TransducerNames extends ArrayList<String> {
+        TransducerNames() {
+            super(Presets.TRANSDUCERS);
+        }
+    }
+}

@@ -1,0 +1,50 @@
+package hammerstep.sim.app;
+
+import hammerstep.sim.physics.Rig;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/** The ground truth of one rundown under the field names of the truth file (docs/simulator.md). */
+final class Truth {
+
+    private Truth() {
+    }
+
+    static Map<String, Object> rundown(Rig rig, double startS) {
+        int n = rig.blows();
+        List<Double> times = new ArrayList<>(n);
+        List<Double> peaks = new ArrayList<>(n);
+        for (int i = 0; i < Math.min(n, Rig.MAX_BLOWS); i++) {
+            times.add(round(rig.blowTimeS(i), 1e6));
+            peaks.add(round(rig.blowPeakNm(i), 100));
+        }
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("start_s", round(startS, 1e6));
+        m.put("blows", n);
+        m.put("blow_times_s", times);
+        m.put("peaks_nm", peaks);
+        m.put("residual_torque_nm", round(rig.residualTorqueNm(), 100));
+        m.put("angle_deg", round(rig.angleDeg(), 100));
+        m.put("angle_after_snug_deg", round(rig.angleAfterSnugDeg(), 100));
+        m.put("clamp_load_kn", round(rig.clampLoadN() * 1e-3, 100));
+        m.put("blow_rate_per_min", round(blowRatePerMin(rig), 10));
+        return m;
+    }
+
+    /** Blows per minute from first to last peak, as the controller reports it; 0 with fewer than two. */
+    static double blowRatePerMin(Rig rig) {
+        int n = Math.min(rig.blows(), Rig.MAX_BLOWS);
+        if (n < 2) {
+            return 0.0;
+        }
+        double span = rig.blowTimeS(n - 1) - rig.blowTimeS(0);
+        return span > 0 ? (n - 1) * 60.0 / span : 0.0;
+    }
+
+    static double round(double v, double scale) {
+        return Math.round(v * scale) / scale;
+    }
+}

@@ -1,0 +1,124 @@
+package hammerstep.sim.physics;
+
+import java.util.SplittableRandom;
+
+/**
+ * The nut (with socket, extension, transducer rotor and anvil lumped on it) turning on its joint.
+ * Stuck, it stays put until the train torque exceeds its holding torque (static friction:
+ * {@code staticFrictionRatio} times the running torque, scattered from blow to blow); turning, it
+ * accelerates under train torque less running torque and sticks again when it stops. Turning
+ * backwards is not modelled: threads are self-locking and the tools push only forwards.
+ *
+ * <p>Relaxation: while the fastener rests, embedding takes back a part of the angle that makes
+ * clamp load, approaching {@code relaxationLoss} of it with the relaxation time constant.
+ */
+final class Fastener {
+
+    private final double inertia;
+    private final SplittableRandom random;
+    private JointSpec joint;
+    private double rate;
+
+    private double angle;
+    private double speed;
+    private boolean stuck = true;
+    private double frictionScale = 1.0;
+    private double holdScale = 1.0;
+    private double embeddedRad;
+    private double jointWorkJ;
+    private double restS;
+
+    Fastener(JointSpec joint, double inertiaKgM2, SplittableRandom random) {
+        this.inertia = inertiaKgM2;
+        this.random = random;
+        renew(joint);
+    }
+
+    /** A new fastener of {@code joint}: loose, at angle zero, with its own friction. */
+    void renew(JointSpec joint) {
+        this.joint = joint;
+        this.rate = joint.rateNmPerRad();
+        angle = 0;
+        speed = 0;
+        stuck = true;
+        embeddedRad = 0;
+        jointWorkJ = 0;
+        restS = 0;
+        frictionScale = Math.max(0.5, 1.0 + joint.frictionScatter() * random.nextGaussian());
+        drawHold();
+    }
+
+    private void drawHold() {
+        holdScale = joint.blowScatter() > 0 ? Math.max(0.8, 1.0 + joint.blowScatter() * random.nextGaussian()) : 1.0;
+    }
+
+    /** Running torque at the present angle, N·m, with this fastener's friction and embedding. */
+    double runningTorqueNm() {
+        double past = angle - joint.freeAngleRad() - embeddedRad;
+        double nominal = joint.prevailingTorqueNm() + (past > 0 ? rate * past : 0.0);
+        return frictionScale * nominal;
+    }
+
+    void advance(double h, double trainNm) {
+        double running = runningTorqueNm();
+        if (stuck) {
+            if (trainNm <= joint.staticFrictionRatio() * holdScale * running) {
+                restS += h;
+                relax(h);
+                return;
+            }
+            stuck = false;
+        }
+        speed += h * (trainNm - running) / inertia;
+        if (speed <= 0) {
+            speed = 0;
+            stuck = true;
+            restS = 0;
+            drawHold();
+            return;
+        }
+        angle += h * speed;
+        jointWorkJ += running * speed * h;
+    }
+
+    private void relax(double h) {
+        double clampAngle = angle - joint.freeAngleRad();
+        if (clampAngle <= 0 || joint.relaxationLoss() <= 0) {
+            return;
+        }
+        double target = joint.relaxationLoss() * clampAngle;
+        embeddedRad += (target - embeddedRad) * (h / (joint.relaxationTimeConstantMs() * 1e-3));
+    }
+
+    double angleRad() {
+        return angle;
+    }
+
+    double speedRadS() {
+        return speed;
+    }
+
+    /** Torque to start the fastener turning further now (first movement), N·m. */
+    double residualTorqueNm() {
+        return joint.staticFrictionRatio() * runningTorqueNm();
+    }
+
+    /** Clamp load now, N, from T = K·F·d with this fastener's torque coefficient. */
+    double clampLoadN() {
+        double past = angle - joint.freeAngleRad() - embeddedRad;
+        return past > 0 ? joint.clampLoadN(joint.prevailingTorqueNm() + rate * past) : 0.0;
+    }
+
+    double kineticJ() {
+        return 0.5 * inertia * speed * speed;
+    }
+
+    /** Work the fastener did against its running torque (thread and head friction, clamping), J. */
+    double jointWorkJ() {
+        return jointWorkJ;
+    }
+
+    JointSpec joint() {
+        return joint;
+    }
+}

@@ -1,0 +1,42 @@
+package hammerstep.sim.physics;
+
+/**
+ * A modelled bolted joint, as the fastener's torque-angle behaviour. Before seating the nut turns
+ * against its prevailing torque; from the snug point torque rises linearly at
+ * {@code (fullTorqueNm - prevailingTorqueNm) / angleToFullRad}. The fastener turns only when the
+ * torque on it exceeds the static holding torque ({@code staticFrictionRatio} times the running
+ * torque); while it turns, the running torque resists. Clamp load follows {@code T = K·F·d}.
+ *
+ * @param name                 preset name or file
+ * @param prevailingTorqueNm   running torque before seating (thread drag, locking element)
+ * @param freeAngleRad         rotation from start to the snug point
+ * @param fullTorqueNm         torque reached {@code angleToFullRad} after seating
+ * @param angleToFullRad       rotation from snug to full torque (ISO 5393: about 30° hard, 720° soft)
+ * @param staticFrictionRatio  breakaway over running torque (≥ 1)
+ * @param frictionScatter      1-sigma relative scatter of the torque coefficient from fastener to fastener
+ * @param blowScatter          1-sigma relative scatter of the holding torque from blow to blow
+ * @param kFactor              nut factor K of T = K·F·d
+ * @param diameterM            nominal thread diameter d
+ * @param relaxationLoss       fraction of clamp load lost to embedding once the fastener rests
+ * @param relaxationTimeConstantMs time constant of that loss
+ */
+public record JointSpec(String name, double prevailingTorqueNm, double freeAngleRad, double fullTorqueNm,
+                        double angleToFullRad, double staticFrictionRatio, double frictionScatter, double blowScatter,
+                        double kFactor, double diameterM, double relaxationLoss, double relaxationTimeConstantMs) {
+
+    /** Torque rise per radian after seating, at the nominal torque coefficient. */
+    public double rateNmPerRad() {
+        return (fullTorqueNm - prevailingTorqueNm) / angleToFullRad;
+    }
+
+    /** Running torque at a fastener angle (radians from start), at the nominal torque coefficient. */
+    public double runningTorqueNm(double angleRad) {
+        double past = angleRad - freeAngleRad;
+        return past <= 0 ? prevailingTorqueNm : prevailingTorqueNm + rateNmPerRad() * past;
+    }
+
+    /** Clamp load for a running torque, N, from T = K·F·d (the prevailing part clamps nothing). */
+    public double clampLoadN(double torqueNm) {
+        return Math.max(0.0, torqueNm - prevailingTorqueNm) / (kFactor * diameterM);
+    }
+}

@@ -1,0 +1,269 @@
+package hammerstep.sim.physics;
+
+import java.util.SplittableRandom;
+
+/**
+ * A modelled tool on a modelled joint through a modelled transducer, advanced in virtual time.
+ * Each output sample integrates the mechanics over {@code substeps} internal steps (at least
+ * {@link #MIN_INTERNAL_RATE_HZ}), then reads the transducer's ADC.
+ *
+ * <p>Ground truth: every strike of the mechanism (see {@link Mechanism}) whose highest shaft
+ * torque reaches the blow threshold is a blow, timed at that peak. Blows are counted per fastener.
+ *
+ * <p>Single-threaded. {@link #fill} allocates nothing; the same seed gives the same samples.
+ */
+public final class Rig {
+
+    /** Internal integration rate floor, Hz. */
+    public static final double MIN_INTERNAL_RATE_HZ = 1.0e6;
+    /** Default shaft torque a cycle must reach to count as a blow, N·m. */
+    public static final double DEFAULT_BLOW_THRESHOLD_NM = 40.0;
+    /** Blows kept per fastener; the count stays right beyond it. */
+    public static final int MAX_BLOWS = 8192;
+
+    private final ToolSpec tool;
+    private final TransducerSpec transducerSpec;
+    private final double rateHz;
+    private final int substeps;
+    private final double h;
+    private final Drive drive;
+    private final Mechanism mechanism;
+    private final Fastener fastener;
+    private final Transducer transducer;
+
+    private boolean trigger;
+    private boolean enabled = true;
+    private long samples;
+    private long steps;
+    private double blowThresholdNm = DEFAULT_BLOW_THRESHOLD_NM;
+
+    private int seenStrikes;
+    private double strikePeakNm;
+    private long strikePeakStep;
+    private final double[] blowPeaksNm = new double[MAX_BLOWS];
+    private final double[] blowTimesS = new double[MAX_BLOWS];
+    private int closedBlows;
+    private double trainWorkJ;
+    private double lastShaftNm;
+
+    private Rig(ToolSpec tool, JointSpec joint, TransducerSpec transducer, double rateHz, double internalRateHz,
+                long seed) {
+        if (!(rateHz > 0) || !(internalRateHz > 0)) {
+            throw new IllegalArgumentException("rates must be positive");
+        }
+        this.tool = tool;
+        this.transducerSpec = transducer;
+        this.rateHz = rateHz;
+        this.substeps = (int) Math.max(1, Math.ceil(internalRateHz / rateHz - 1e-9));
+        double internal = rateHz * substeps;
+        this.h = 1.0 / internal;
+        SplittableRandom root = new SplittableRandom(seed);
+        this.drive = Drive.of(tool.drive());
+        double k = tool.train().seriesStiffness(transducer.shaftStiffness());
+        this.mechanism = Mechanism.of(tool.mechanism(), drive, k, tool.train().dampingRatio());
+        this.fastener = new Fastener(joint, tool.train().inertiaKgM2() + transducer.inertiaKgM2(), root.split());
+        this.transducer = new Transducer(transducer, internal, root.split());
+        if (transducer.bandwidthHz() >= 0.5 * internal) {
+            throw new IllegalArgumentException("transducer bandwidth must be below half the internal rate");
+        }
+    }
+
+    /** A rig at the output {@code rateHz}, integrating internally at {@link #MIN_INTERNAL_RATE_HZ} or more. */
+    public static Rig create(ToolSpec tool, JointSpec joint, TransducerSpec transducer, double rateHz, long seed) {
+        return new Rig(tool, joint, transducer, rateHz, MIN_INTERNAL_RATE_HZ, seed);
+    }
+
+    /** As {@link #create(ToolSpec, JointSpec, TransducerSpec, double, long)} with a chosen internal rate floor. */
+    public static Rig create(ToolSpec tool, JointSpec joint, TransducerSpec transducer, double rateHz, long seed,
+                             double internalRateHz) {
+        return new Rig(tool, joint, transducer, rateHz, internalRateHz, seed);
+    }
+
+    /** The operator's trigger. */
+    public void setTrigger(boolean pressed) {
+        trigger = pressed;
+        drive.setPowered(trigger && enabled);
+    }
+
+    /** The station's enable relay: the motor runs only while trigger and enable are both on. */
+    public void setEnabled(boolean enabled) {
+        this.enabled = enabled;
+        drive.setPowered(trigger && enabled);
+    }
+
+    /** Supply pressure (gauge) of an air tool; no effect on a cordless tool. */
+    public void setSupplyPressureBar(double bar) {
+        if (drive instanceof AirDrive a) {
+            a.setSupplyPressure(bar);
+        }
+    }
+
+    /** Battery open-circuit voltage of a cordless tool; no effect on an air tool. */
+    public void setBatteryVoltage(double volts) {
+        if (drive instanceof CordlessDrive c) {
+            c.setBatteryVoltage(volts);
+        }
+    }
+
+    /** Torque a cycle must reach to count as a blow (ground truth), N·m. */
+    public void setBlowThresholdNm(double nm) {
+        this.blowThresholdNm = nm;
+    }
+
+    /**
+     * Advances virtual time by {@code length} samples and writes the transducer's reading (N·m,
+     * after the ADC) into {@code out[offset, offset+length)}.
+     */
+    public void fill(float[] out, int offset, int length) {
+        int n = substeps;
+        for (int i = 0; i < length; i++) {
+            for (int s = 0; s < n; s++) {
+                step();
+            }
+            out[offset + i] = transducer.sample();
+        }
+        samples += length;
+    }
+
+    private void step() {
+        double nutAngle = fastener.angleRad();
+        double nutSpeed = fastener.speedRadS();
+        double t = mechanism.trainTorque(nutAngle, nutSpeed);
+        double striker = mechanism.strikerAngle();
+        mechanism.advance(h, t, nutAngle, nutSpeed);
+        fastener.advance(h, t);
+        trainWorkJ += t * ((mechanism.strikerAngle() - striker) - (fastener.angleRad() - nutAngle));
+        transducer.filter(t);
+        lastShaftNm = t;
+        if (mechanism.strikes() != seenStrikes) {
+            seenStrikes = mechanism.strikes();
+            if (strikePeakNm >= blowThresholdNm) {
+                if (closedBlows < MAX_BLOWS) {
+                    blowPeaksNm[closedBlows] = strikePeakNm;
+                    blowTimesS[closedBlows] = strikePeakStep * h;
+                }
+                closedBlows++;
+            }
+            strikePeakNm = 0;
+        }
+        if (t > strikePeakNm) {
+            strikePeakNm = t;
+            strikePeakStep = steps;
+        }
+        steps++;
+    }
+
+    /** The next bolt: the joint reset to loose, the striker at rest against the anvil, blow count zero. */
+    public void newFastener(JointSpec joint) {
+        fastener.renew(joint);
+        mechanism.reset();
+        seenStrikes = mechanism.strikes();
+        strikePeakNm = 0;
+        closedBlows = 0;
+    }
+
+    /** Torque to turn the present fastener further now (first movement), N·m. */
+    public double residualTorqueNm() {
+        return fastener.residualTorqueNm();
+    }
+
+    /** Angle the present fastener has turned since it was started, degrees. */
+    public double angleDeg() {
+        return Math.toDegrees(fastener.angleRad());
+    }
+
+    /** Angle turned past the joint's snug point, degrees (0 before seating). */
+    public double angleAfterSnugDeg() {
+        return Math.max(0.0, Math.toDegrees(fastener.angleRad() - fastener.joint().freeAngleRad()));
+    }
+
+    /** Clamp load of the present fastener, N. */
+    public double clampLoadN() {
+        return fastener.clampLoadN();
+    }
+
+    /** Blows on the present fastener so far (a cycle still open counts once its peak qualifies). */
+    public int blows() {
+        return closedBlows + (strikePeakNm >= blowThresholdNm ? 1 : 0);
+    }
+
+    /** Peak shaft torque of blow {@code i} (0-based) of the present fastener, N·m. */
+    public double blowPeakNm(int i) {
+        return i == closedBlows ? strikePeakNm : blowPeaksNm[i];
+    }
+
+    /** Time of blow {@code i}'s peak, seconds of virtual time since the rig was created. */
+    public double blowTimeS(int i) {
+        return i == closedBlows ? strikePeakStep * h : blowTimesS[i];
+    }
+
+    /** Samples produced so far. */
+    public long samplesElapsed() {
+        return samples;
+    }
+
+    /** Virtual time, seconds. */
+    public double timeS() {
+        return steps * h;
+    }
+
+    /** Speed of the mechanism's input (spindle, cage or liner), rpm. */
+    public double toolSpeedRpm() {
+        return mechanism.inputSpeedRadS() * 60.0 / (2.0 * Math.PI);
+    }
+
+    /** Free speed of the mechanism's input under the present supply, rpm. */
+    public double freeSpeedRpm() {
+        return drive.freeShaftSpeedRadS() * 60.0 / (2.0 * Math.PI);
+    }
+
+    /** Shaft torque at the last internal step (before the transducer), N·m. */
+    public double shaftTorqueNm() {
+        return lastShaftNm;
+    }
+
+    public double rateHz() {
+        return rateHz;
+    }
+
+    /** Internal steps per output sample. */
+    public int substeps() {
+        return substeps;
+    }
+
+    public ToolSpec tool() {
+        return tool;
+    }
+
+    public JointSpec joint() {
+        return fastener.joint();
+    }
+
+    public TransducerSpec transducer() {
+        return transducerSpec;
+    }
+
+    /** The energy ledger since the rig was created (see docs/simulator.md). */
+    public Energy energy() {
+        return new Energy(mechanism.driveWorkJ(), mechanism.storedJ(), fastener.kineticJ(),
+                mechanism.trainElasticJ(fastener.angleRad()), trainWorkJ, fastener.jointWorkJ());
+    }
+
+    /**
+     * Energy ledger, J. {@code driveWorkJ} balances {@code mechanismJ + nutKineticJ + trainWorkJ +
+     * jointWorkJ} to integration tolerance; of the train work, {@code trainElasticJ} is still held
+     * and the rest was lost (contact damping, oil leak, relief and venting, elastic energy left behind
+     * when the striker lets go).
+     */
+    public record Energy(double driveWorkJ, double mechanismJ, double nutKineticJ, double trainElasticJ,
+                         double trainWorkJ, double jointWorkJ) {
+
+        public double balanceErrorJ() {
+            return driveWorkJ - (mechanismJ + nutKineticJ + trainWorkJ + jointWorkJ);
+        }
+
+        public double lossesJ() {
+            return trainWorkJ - trainElasticJ;
+        }
+    }
+}
