@@ -4,6 +4,7 @@ import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
 import hammerstep.signal.PulseDetector;
 import hammerstep.signal.PulseSink;
+import hammerstep.signal.SignalFaults;
 
 import java.util.Arrays;
 import java.util.List;
@@ -25,6 +26,11 @@ public final class JointMonitor implements PulseSink {
 
     /** Blow figures kept per rundown; the count and the final torque stay right beyond it. */
     public static final int MAX_STORED_BLOWS = 1024;
+    /**
+     * A pulse whose main lobe is narrower than this is noise, not a blow: strike pulses last about
+     * 1 to 5 ms (memory of transducer practice), a spike of one or two samples is electrical noise.
+     */
+    public static final double MIN_STRIKE_MS = 0.25;
 
     private enum State { IDLE, ACTIVE, QUIET }
 
@@ -192,6 +198,13 @@ public final class JointMonitor implements PulseSink {
 
     @Override
     public void onPulse(long pulseStartNs, double peakNm, long peakNs, double widthMs, double impulseNms) {
+        if (widthMs < MIN_STRIKE_MS) {
+            if ((rundownFaults & SignalFaults.NOISE) == 0) {
+                rundownFaults |= SignalFaults.NOISE;
+                events.onFault(SignalFaults.NOISE, pulseStartNs);
+            }
+            return;
+        }
         int n = blows;
         if (n < MAX_STORED_BLOWS) {
             peaks[n] = peakNm;
