@@ -27,8 +27,9 @@ public final class JointMonitor implements PulseSink {
     /** Blow figures kept per rundown; the count and the final torque stay right beyond it. */
     public static final int MAX_STORED_BLOWS = 1024;
     /**
-     * A pulse whose main lobe is narrower than this is noise, not a blow: strike pulses last about
-     * 1 to 5 ms (memory of transducer practice), a spike of one or two samples is electrical noise.
+     * A pulse whose main lobe is narrower than this cannot be a strike: strike pulses last about 1 to
+     * 5 ms (memory of transducer practice). Three or more of them, and most of a rundown's pulses,
+     * mean electrical noise: the {@code NOISE} fault (SENSOR_FAULT).
      */
     public static final double MIN_STRIKE_MS = 0.25;
 
@@ -56,6 +57,7 @@ public final class JointMonitor implements PulseSink {
     private int reportedFaults;
 
     private int blows;
+    private int narrowPulses;
     private int blowsAfterShutoff;
     private int firstBlowAtMin;
     private double maxPeak;
@@ -134,6 +136,7 @@ public final class JointMonitor implements PulseSink {
             shutoffNs = Long.MIN_VALUE;
             rundownFaults = faults;
             blows = 0;
+            narrowPulses = 0;
             blowsAfterShutoff = 0;
             firstBlowAtMin = 0;
             maxPeak = 0;
@@ -198,14 +201,15 @@ public final class JointMonitor implements PulseSink {
 
     @Override
     public void onPulse(long pulseStartNs, double peakNm, long peakNs, double widthMs, double impulseNms) {
+        int n = blows;
         if (widthMs < MIN_STRIKE_MS) {
-            if ((rundownFaults & SignalFaults.NOISE) == 0) {
+            narrowPulses++;
+            // a lone narrow lobe is ringing of a strike; a run of them, most of the pulses, is noise
+            if (narrowPulses >= 3 && 2 * narrowPulses > n + 1 && (rundownFaults & SignalFaults.NOISE) == 0) {
                 rundownFaults |= SignalFaults.NOISE;
                 events.onFault(SignalFaults.NOISE, pulseStartNs);
             }
-            return;
         }
-        int n = blows;
         if (n < MAX_STORED_BLOWS) {
             peaks[n] = peakNm;
             peakTimes[n] = peakNs;
