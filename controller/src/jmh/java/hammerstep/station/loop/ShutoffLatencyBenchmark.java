@@ -58,7 +58,7 @@ public class ShutoffLatencyBenchmark {
     @Param({"20000"})
     double rateHz;
 
-    @Param({"64"})
+    @Param({"16", "64"})
     int blockLength;
 
     private VirtualClock clock;
