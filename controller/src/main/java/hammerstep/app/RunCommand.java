@@ -143,8 +143,9 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
             long statusNs = (long) (Math.max(1, statusEveryS) * 1e9);
             while (true) {
                 long left = exitAfterS > 0 ? endNs - clock.nanoTime() : statusNs;
-                if (left <= 0 || stop.await(Math.min(left, statusNs), TimeUnit.NANOSECONDS)) {
-                    break;
+                if (left <= 0 || stop.await(Math.min(left, statusNs), TimeUnit.NANOSECONDS)
+                        || (exitAfterS > 0 && endNs - clock.nanoTime() <= 0)) {
+                    break; // the closing status line follows
                 }
                 logStatus(acquisition, errors.get());
             }
