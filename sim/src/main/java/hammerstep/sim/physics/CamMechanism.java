@@ -91,6 +91,7 @@ final class CamMechanism extends Mechanism {
         if (engaged) {
             if (x >= dogHeight) {
                 engaged = false;
+                release();
             }
         } else if (x < dogHeight) {
             double psi = thH - (nutAngle + nutSpeed * h);
@@ -134,13 +135,13 @@ final class CamMechanism extends Mechanism {
 
     @Override
     void reset() {
+        restAgainstAnvil();
         face = 0;
         thH = 0;
         thS = 0;
         wS = 0;
         wH = 0;
         engaged = true;
-        restAgainstAnvil();
     }
 
     boolean engaged() {
