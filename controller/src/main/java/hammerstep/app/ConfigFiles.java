@@ -7,6 +7,8 @@ import hammerstep.config.YamlDocument;
 import hammerstep.joint.ProgramFile;
 import hammerstep.sequence.PatternFile;
 import hammerstep.station.setup.StationFile;
+import hammerstep.station.setup.StationConfig;
+import hammerstep.hardware.HardwareSections;
 
 import java.nio.file.Path;
 
@@ -38,7 +40,14 @@ public final class ConfigFiles {
             return;
         }
         if (root.entries().containsKey("identity") || root.entries().containsKey("parts")) {
-            StationFile.read(doc, dir, StationSections.all());
+            StationConfig station = StationFile.read(doc, dir, StationSections.all());
+            String mismatch = station.has(HardwareSections.HARDWARE) && station.has(HardwareSections.TRANSDUCER)
+                    ? HardwareSections.mismatch(station.get(HardwareSections.HARDWARE),
+                    station.get(HardwareSections.TRANSDUCER)) : null;
+            if (mismatch != null) {
+                ConfigNode t = root.entries().get("transducer");
+                throw new ConfigException(new Problem(doc.file(), t.line(), t.column(), mismatch));
+            }
             return;
         }
         throw new ConfigException(new Problem(doc.file(), root.line(), root.column(),

@@ -8,7 +8,8 @@ import picocli.CommandLine.Command;
         mixinStandardHelpOptions = true,
         versionProvider = Version.class,
         description = "Station controller for tightening bolt patterns with impact wrenches.",
-        subcommands = {ReplayCommand.class, CheckCommand.class, StatsCommand.class, PlotCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {ReplayCommand.class, CheckCommand.class, StatsCommand.class, PlotCommand.class, AuditCommand.class,
+                RunCommand.class, ZeroCommand.class, ShuntCheckCommand.class, CommandLine.HelpCommand.class})
 public final class Main {
 
     public static void main(String[] args) {

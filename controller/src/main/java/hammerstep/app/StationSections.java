@@ -1,6 +1,7 @@
 package hammerstep.app;
 
 import hammerstep.config.MapReader;
+import hammerstep.hardware.HardwareSections;
 import hammerstep.results.StorageSettings;
 import hammerstep.station.setup.IdentitySection;
 import hammerstep.station.setup.PartsSection;
@@ -44,6 +45,8 @@ public final class StationSections {
                 PartsSection.INSTANCE,
                 TimingSection.INSTANCE,
                 STORAGE,
+                HardwareSections.HARDWARE,
+                HardwareSections.TRANSDUCER,
                 StationSection.readElsewhere("simulation"));
     }
 }

@@ -50,8 +50,8 @@ final class Series {
     }
 
     /** A vertical line at {@code x} from {@code y0} to {@code y1}. */
-    static void vertical(XYChart c, String name, double x, double y0, double y1, Color color, BasicStroke stroke) {
-        line(c, name, new double[] {x, x}, new double[] {y0, y1}, color, stroke);
+    static XYSeries vertical(XYChart c, String name, double x, double y0, double y1, Color color, BasicStroke stroke) {
+        return line(c, name, new double[] {x, x}, new double[] {y0, y1}, color, stroke);
     }
 
     static XYSeries line(XYChart c, String name, double[] x, double[] y, Color color, BasicStroke stroke) {

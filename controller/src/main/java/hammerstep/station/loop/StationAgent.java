@@ -63,6 +63,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private PartIdentity waitingIdentity;
     private long errors;
     private long lastShutoffToRelayNs = -1;
+    private long maxShutoffToRelayNs = -1;
 
     /**
      * @param patternsByModel part model → pattern; every program of every pattern gets its monitor here
@@ -192,6 +193,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             sequence.shutoff(shutoffNs);
             applyTool();
             lastShutoffToRelayNs = clock.nanoTime() - shutoffNs;
+            if (lastShutoffToRelayNs > maxShutoffToRelayNs) {
+                maxShutoffToRelayNs = lastShutoffToRelayNs;
+            }
         }
         selectMonitor();
     }
@@ -300,5 +304,10 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     /** Station-clock time from the last shut-off crossing sample to the relay command; -1 before the first. */
     public long lastShutoffToRelayNs() {
         return lastShutoffToRelayNs;
+    }
+
+    /** The longest such time so far; -1 before the first shut-off. */
+    public long maxShutoffToRelayNs() {
+        return maxShutoffToRelayNs;
     }
 }

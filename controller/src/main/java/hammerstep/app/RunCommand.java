@@ -1,0 +1,218 @@
+package hammerstep.app;
+
+import ch.qos.logback.classic.Level;
+import hammerstep.config.ConfigException;
+import hammerstep.hardware.Acquisition;
+import hammerstep.hardware.HardwareConfig;
+import hammerstep.hardware.HardwareSections;
+import hammerstep.hardware.HardwareSettings;
+import hammerstep.hardware.TransducerSettings;
+import hammerstep.hardware.pi4j.Pi4jHardware;
+import hammerstep.results.MemoryOutbox;
+import hammerstep.results.OutboxResultSink;
+import hammerstep.results.ResultSink;
+import hammerstep.results.StationId;
+import hammerstep.sequence.Sequence;
+import hammerstep.signal.Conditioning;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.PartIdentitySource;
+import hammerstep.station.SampleRing;
+import hammerstep.station.StationClock;
+import hammerstep.station.SystemStationClock;
+import hammerstep.station.loop.StationAgent;
+import hammerstep.station.loop.StationListener;
+import hammerstep.station.loop.StationPorts;
+import hammerstep.station.loop.StationRunner;
+import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.PartsSection;
+import hammerstep.station.setup.StationConfig;
+import hammerstep.station.setup.StationFile;
+import hammerstep.station.setup.TimingSection;
+import org.agrona.concurrent.AgentRunner;
+import org.agrona.concurrent.BackoffIdleStrategy;
+import org.agrona.concurrent.BusySpinIdleStrategy;
+import org.agrona.concurrent.IdleStrategy;
+import org.agrona.concurrent.status.AtomicCounter;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+
+import java.io.BufferedReader;
+import java.io.InputStreamReader;
+import java.nio.charset.StandardCharsets;
+import java.util.concurrent.ConcurrentLinkedQueue;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicLong;
+
+/**
+ * {@code hammerstep run}: the station service. Reads the station file, opens the hardware (the
+ * Raspberry Pi's GPIO and SPI, or Pi4J's mock GPIO with a simulated ADC), runs the acquisition and
+ * the station loop on their own threads until stopped (SIGTERM, Ctrl-C) or {@code --exit-after}.
+ * Stopping drops the tool enable relay and switches every lamp off.
+ */
+@Command(name = "run", mixinStandardHelpOptions = true,
+        description = {"Runs the station on its hardware until stopped.",
+                "On a machine without GPIO it says so and exits 1; --hardware mock runs on simulated hardware."})
+public final class RunCommand implements java.util.concurrent.Callable<Integer> {
+
+    private static final Logger LOG = LoggerFactory.getLogger("hammerstep.run");
+    static final int RING_BLOCKS = 64;
+
+    @Mixin
+    HardwareOptions hardware;
+
+    @Option(names = "--exit-after", paramLabel = "SECONDS", description = "stop after this long (for smoke checks)")
+    double exitAfterS;
+
+    @Option(names = "--status-every", paramLabel = "SECONDS", defaultValue = "60",
+            description = "log a status line this often (default 60)")
+    double statusEveryS;
+
+    @Option(names = "--verbose", description = "log debug detail")
+    boolean verbose;
+
+    @Override
+    public Integer call() throws ConfigException, InterruptedException {
+        Logging.configure(verbose, Level.INFO);
+        StationConfig station = StationFile.load(hardware.config, StationSections.all());
+        HardwareSettings hw = station.get(HardwareSections.HARDWARE);
+        TransducerSettings td = station.get(HardwareSections.TRANSDUCER);
+        if (hw == null || td == null) {
+            throw new UserError(hardware.config + ": 'hardware' and 'transducer' sections are needed to run a station");
+        }
+        String mismatch = HardwareSections.mismatch(hw, td);
+        if (mismatch != null) {
+            throw new UserError(hardware.config + ": " + mismatch);
+        }
+        StationClock clock = new SystemStationClock();
+        try (Pi4jHardware io = hardware.open(new HardwareConfig(hw, td), clock::nanoTime)) {
+            return run(station, io, hw, td, clock);
+        }
+    }
+
+    private int run(StationConfig station, Pi4jHardware io, HardwareSettings hw, TransducerSettings td,
+                    StationClock clock) throws InterruptedException {
+        StationId id = station.get(IdentitySection.INSTANCE);
+        PartsSection.Parts parts = station.get(PartsSection.INSTANCE);
+        TimingSection.Timing timing = station.has(TimingSection.INSTANCE) ? station.get(TimingSection.INSTANCE)
+                : TimingSection.Timing.DEFAULT;
+        SampleRing ring = new SampleRing(hw.adc().rateHz(), hw.adc().blockSamples(), RING_BLOCKS);
+        Acquisition acquisition = new Acquisition(io.adc(), io.dataReady(), clock::nanoTime, io.calibration(),
+                td.zeroCounts(), ring);
+        ResultSink sink = new OutboxResultSink(new MemoryOutbox(), id);
+        Sequence sequence = new Sequence(clock, new Sequence.Settings(td.serial(), td.calibrationDue(),
+                timing.completeHoldMs()), !hw.confirm().isEmpty());
+        StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
+        StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);
+        AtomicLong errors = new AtomicLong();
+        StationAgent agent = new StationAgent(clock, ports, sink, sequence, parts.byModel(), conditioning(td),
+                (long) (timing.blinkPeriodMs() * 1e6), StationListener.NONE, t -> {
+                    errors.incrementAndGet();
+                    LOG.error("station cycle failed", t);
+                });
+        IdleStrategy idle = io.isMock() ? new BackoffIdleStrategy(100, 10, 1_000, 10_000) : new BusySpinIdleStrategy();
+        AgentRunner acquisitionRunner = new AgentRunner(idle, t -> {
+            errors.incrementAndGet();
+            LOG.error("acquisition failed", t);
+        }, (AtomicCounter) null, acquisition);
+        CountDownLatch stop = new CountDownLatch(1);
+        CountDownLatch stopped = new CountDownLatch(1);
+        Thread hook = new Thread(() -> {
+            stop.countDown();
+            try {
+                stopped.await(5, TimeUnit.SECONDS);
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+        }, "hammerstep-stop");
+        Runtime.getRuntime().addShutdownHook(hook);
+        LOG.info("station {}/{}/{}: {} at {} Hz on {}{}, {} position lamps, transducer {} ({} N·m)", id.site(),
+                id.line(), id.station(), io.adc().part(), fmt(io.adc().rateHz()), hw.adc().where(),
+                io.isMock() ? " (mock hardware)" : "", hw.positions().size(), td.serial(), fmt(td.fullScaleNm()));
+        if (td.calibrationDue(java.time.LocalDate.now())) {
+            LOG.warn("transducer {} calibration was due on {}", td.serial(), td.calibrationDue());
+        }
+        try (StationRunner stationRunner = new StationRunner(agent)) {
+            AgentRunner.startOnThread(acquisitionRunner);
+            stationRunner.start();
+            identities.start();
+            long endNs = exitAfterS > 0 ? clock.nanoTime() + (long) (exitAfterS * 1e9) : Long.MAX_VALUE;
+            long statusNs = (long) (Math.max(1, statusEveryS) * 1e9);
+            while (true) {
+                long left = exitAfterS > 0 ? endNs - clock.nanoTime() : statusNs;
+                if (left <= 0 || stop.await(Math.min(left, statusNs), TimeUnit.NANOSECONDS)
+                        || (exitAfterS > 0 && endNs - clock.nanoTime() <= 0)) {
+                    break; // the closing status line follows
+                }
+                logStatus(acquisition, errors.get());
+            }
+        } finally {
+            acquisitionRunner.close();
+            logStatus(acquisition, errors.get());
+            stopped.countDown();
+            if (exitAfterS > 0) {
+                try {
+                    Runtime.getRuntime().removeShutdownHook(hook);
+                } catch (IllegalStateException e) {
+                    // already shutting down
+                }
+            }
+        }
+        return 0;
+    }
+
+    /** The conditioning of a real transducer: auto-zero within 2 % of full scale, over-range at full scale. */
+    static Conditioning conditioning(TransducerSettings td) {
+        double fs = td.fullScaleNm();
+        return new Conditioning(0.01 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0);
+    }
+
+    private static void logStatus(Acquisition a, long errors) {
+        LOG.info("status: {} samples, {} missed, {} blocks dropped, {} errors", a.samples(), a.missedSamples(),
+                a.droppedBlocks(), errors);
+    }
+
+    private static String fmt(double v) {
+        return v == Math.rint(v) ? Long.toString((long) v) : Double.toString(v);
+    }
+
+    /**
+     * Part identities typed on standard input, one per line: {@code SERIAL [MODEL]} (a scanner in
+     * keyboard mode, or the line computer through a pipe). Without a model the station's first one.
+     */
+    static final class StdinIdentities implements PartIdentitySource {
+        private final ConcurrentLinkedQueue<PartIdentity> queue = new ConcurrentLinkedQueue<>();
+        private final String defaultModel;
+
+        StdinIdentities(String defaultModel) {
+            this.defaultModel = defaultModel;
+        }
+
+        void start() {
+            Thread t = new Thread(() -> {
+                try (BufferedReader in = new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8))) {
+                    String line;
+                    while ((line = in.readLine()) != null) {
+                        String[] f = line.trim().split("\\s+");
+                        if (f.length >= 1 && !f[0].isEmpty()) {
+                            queue.add(new PartIdentity(f[0], f.length > 1 ? f[1] : defaultModel));
+                        }
+                    }
+                } catch (java.io.IOException | RuntimeException e) {
+                    LOG.warn("part identities on standard input stopped: {}", e.getMessage());
+                }
+            }, "part-identity");
+            t.setDaemon(true);
+            t.start();
+        }
+
+        @Override
+        public PartIdentity poll() {
+            return queue.poll();
+        }
+    }
+
+}

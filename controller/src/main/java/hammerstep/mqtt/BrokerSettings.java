@@ -1,0 +1,125 @@
+package hammerstep.mqtt;
+
+import hammerstep.config.MapReader;
+
+import java.net.URI;
+import java.net.URISyntaxException;
+import java.nio.file.Path;
+
+/**
+ * The {@code broker:} section of the station file.
+ *
+ * <pre>
+ * broker:
+ *   url: ssl://mqtt.plant.example:8883    # tcp://host:port or ssl://host:port
+ *   client_id: hub-fit-1                  # default: site-line-station
+ *   username: hub-fit-1                   # optional
+ *   password_file: /etc/hammerstep/mqtt.pass   # read at connect; must not be readable by others
+ *   ca_file: /etc/hammerstep/plant-ca.pem      # ssl only: trust these CAs instead of the JVM's
+ *   keep_alive_s: 30
+ *   connect_timeout_s: 5
+ *   reconnect: { min_ms: 500, max_ms: 30000 }
+ *   session_expiry_s: 3600   # how long the broker keeps our command subscription while we are away
+ *   command_max_expiry_s: 300
+ *   status_interval_s: 60
+ *   inflight: 32             # results published and not yet acknowledged, at most
+ * </pre>
+ *
+ * {@link #toString()} never shows the password (it is not held here at all).
+ */
+public record BrokerSettings(
+        String url,
+        String clientId,
+        String username,
+        Path passwordFile,
+        Path caFile,
+        int keepAliveS,
+        int connectTimeoutS,
+        long reconnectMinMs,
+        long reconnectMaxMs,
+        long sessionExpiryS,
+        long commandMaxExpiryS,
+        long statusIntervalS,
+        int inflight) {
+
+    /** Settings for a plain connection to {@code url} with the given client id. */
+    public static BrokerSettings plain(String url, String clientId) {
+        return new BrokerSettings(url, clientId, null, null, null, 30, 5, 500, 30_000, 3600, 300, 60, 32);
+    }
+
+    public boolean tls() {
+        return url.startsWith("ssl://");
+    }
+
+    /** A copy with another url and client id (the demo's {@code --broker}). */
+    public BrokerSettings withUrl(String newUrl) {
+        return new BrokerSettings(newUrl, clientId, username, passwordFile, caFile, keepAliveS, connectTimeoutS,
+                reconnectMinMs, reconnectMaxMs, sessionExpiryS, commandMaxExpiryS, statusIntervalS, inflight);
+    }
+
+    /**
+     * Reads the section.
+     *
+     * @param base            folder against which relative file names are resolved
+     * @param defaultClientId used when {@code client_id} is absent
+     */
+    public static BrokerSettings read(MapReader r, Path base, String defaultClientId) {
+        String url = r.string("url");
+        String clientId = r.string("client_id", defaultClientId);
+        String username = r.has("username") ? r.string("username") : null;
+        String passwordFile = r.has("password_file") ? r.string("password_file") : null;
+        String caFile = r.has("ca_file") ? r.string("ca_file") : null;
+        int keepAlive = r.integer("keep_alive_s", 30, 5, 3600);
+        int connectTimeout = r.integer("connect_timeout_s", 5, 1, 120);
+        long minMs = 500;
+        long maxMs = 30_000;
+        MapReader reconnect = r.optionalMap("reconnect");
+        if (reconnect != null) {
+            minMs = reconnect.integer("min_ms", 500, 10, 600_000);
+            maxMs = reconnect.integer("max_ms", 30_000, 10, 3_600_000);
+            reconnect.finish();
+            if (maxMs < minMs) {
+                reconnect.problem("max_ms", "'" + reconnect.path("max_ms") + "' must be at least min_ms (" + minMs + ")");
+            }
+        }
+        long sessionExpiry = r.integer("session_expiry_s", 3600, 0, Integer.MAX_VALUE);
+        long commandMaxExpiry = r.integer("command_max_expiry_s", 300, 1, 86_400);
+        long statusInterval = r.integer("status_interval_s", 60, 1, 86_400);
+        int inflight = r.integer("inflight", 32, 1, 1000);
+        r.finish();
+        if (!url.isEmpty()) {
+            checkUrl(r, url);
+        }
+        if (!clientId.isEmpty() && !clientId.matches("[A-Za-z0-9._-]{1,64}")) {
+            r.problem("client_id", "'" + r.path("client_id") + "': expected 1 to 64 letters, digits, '.', '_' or '-'");
+        }
+        if (passwordFile != null && username == null) {
+            r.problem("password_file", "'" + r.path("password_file") + "' needs 'username' beside it");
+        }
+        if (caFile != null && !url.startsWith("ssl://")) {
+            r.problem("ca_file", "'" + r.path("ca_file") + "' is for ssl:// brokers; the url is " + url);
+        }
+        if (passwordFile != null) {
+            String why = PasswordFile.problem(base.resolve(passwordFile));
+            if (why != null) {
+                r.problem("password_file", "'" + r.path("password_file") + "': " + why);
+            }
+        }
+        return new BrokerSettings(url, clientId, username,
+                passwordFile == null ? null : base.resolve(passwordFile).normalize(),
+                caFile == null ? null : base.resolve(caFile).normalize(),
+                keepAlive, connectTimeout, minMs, maxMs, sessionExpiry, commandMaxExpiry, statusInterval, inflight);
+    }
+
+    private static void checkUrl(MapReader r, String url) {
+        try {
+            URI u = new URI(url);
+            if (!("tcp".equals(u.getScheme()) || "ssl".equals(u.getScheme())) || u.getHost() == null
+                    || u.getPort() < 1 || (u.getPath() != null && !u.getPath().isEmpty())) {
+                r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": expected tcp://HOST:PORT or ssl://HOST:PORT");
+            }
+        } catch (URISyntaxException e) {
+            r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": expected tcp://HOST:PORT or ssl://HOST:PORT");
+        }
+    }
+}

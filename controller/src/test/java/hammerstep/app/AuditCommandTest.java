@@ -1,0 +1,70 @@
+package hammerstep.app;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import javax.imageio.ImageIO;
+import java.nio.file.Path;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+class AuditCommandTest {
+
+    static final String AUDITS = "src/test/resources/analysis/hand-audits.csv";
+    static final String RESULTS = "src/test/resources/analysis/hand-audit-results.jsonl";
+
+    @TempDir
+    Path dir;
+
+    /* The figures worked by hand in AuditStudyTest.matchesTheHandWorkedExample (same five pairs). */
+    @Test
+    @DisplayName("audit --json gives the hand-worked fit and window (least squares, t prediction interval)")
+    void jsonGivesTheHandWorkedFigures() throws Exception {
+        Captured run = Captured.run("audit", AUDITS, RESULTS, "--spec", "85:105", "--json");
+
+        assertThat(run.exit()).as(run.err()).isZero();
+        JsonNode doc = new ObjectMapper().readTree(run.out());
+        assertThat(doc.get("audits").asInt()).isEqualTo(6);
+        assertThat(doc.get("unpaired_lines")).extracting(JsonNode::asInt).containsExactly(8);
+        JsonNode g = doc.get("groups").get(0);
+        assertThat(g.get("program").asText()).isEqualTo("cover-m10");
+        assertThat(g.get("method").asText()).isEqualTo("first_movement");
+        assertThat(g.get("n").asInt()).isEqualTo(5);
+        assertThat(g.get("r").asDouble()).isEqualTo(0.9978);
+        assertThat(g.get("a_nm").asDouble()).isEqualTo(7.2);
+        assertThat(g.get("b").asDouble()).isEqualTo(0.74);
+        assertThat(g.get("se_nm").asDouble()).isEqualTo(0.8944);
+        assertThat(g.get("mean_offset_nm").asDouble()).isEqualTo(-24.0);
+        assertThat(g.get("t").asDouble()).isEqualTo(3.1824);
+        assertThat(g.get("dynamic_window").get("min_nm").asDouble()).isEqualTo(109.54);
+        assertThat(g.get("dynamic_window").get("max_nm").asDouble()).isEqualTo(127.84);
+    }
+
+    @Test
+    void textNamesTheWindowAndItsUncertainty() {
+        Captured run = Captured.run("audit", AUDITS, RESULTS, "--spec", "85:105");
+
+        assertThat(run.exit()).isZero();
+        assertThat(run.out()).contains("dynamic window 109.5 .. 127.8 N·m", "at 95 % (prediction interval, t with 3 dof)",
+                "not paired: lines [8]");
+    }
+
+    @Test
+    void drawsTheScatter() throws Exception {
+        Path png = dir.resolve("a.png");
+
+        assertThat(Captured.run("audit", AUDITS, RESULTS, "--spec", "85:105", "--plot", png.toString()).exit()).isZero();
+        assertThat(ImageIO.read(png.toFile()).getHeight()).isEqualTo(600);
+    }
+
+    @Test
+    void refusesABadSpec() {
+        Captured run = Captured.run("audit", AUDITS, RESULTS, "--spec", "105:85");
+
+        assertThat(run.exit()).isEqualTo(2);
+        assertThat(run.err().strip()).isEqualTo("--spec '105:85': MIN must be at least 0 and below MAX");
+    }
+}
