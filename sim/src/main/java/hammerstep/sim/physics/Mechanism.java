@@ -54,6 +54,9 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     /** Speed of the mechanism's input shaft (spindle, cage or liner), rad/s. */
     abstract double inputSpeedRadS();
 
+    /** Angle of the mechanism's input shaft, rad. */
+    abstract double inputAngleRad();
+
     /** Angle of the striking body (hammer, cage or liner), rad. */
     abstract double strikerAngle();
 

@@ -76,6 +76,11 @@ final class OilPulseMechanism extends Mechanism {
     }
 
     @Override
+    double inputAngleRad() {
+        return th;
+    }
+
+    @Override
     double inputSpeedRadS() {
         return w;
     }

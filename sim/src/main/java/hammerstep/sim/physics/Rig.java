@@ -225,6 +225,11 @@ public final class Rig {
         return mechanism.inputSpeedRadS() * 60.0 / (2.0 * Math.PI);
     }
 
+    /** Turns of the mechanism's input relative to the fastener since the present fastener was started. */
+    public double relativeTurns() {
+        return (mechanism.inputAngleRad() - fastener.angleRad()) / (2.0 * Math.PI);
+    }
+
     /** Free speed of the mechanism's input under the present supply, rpm. */
     public double freeSpeedRpm() {
         return drive.freeShaftSpeedRadS() * 60.0 / (2.0 * Math.PI);

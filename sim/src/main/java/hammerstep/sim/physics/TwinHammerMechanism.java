@@ -65,6 +65,11 @@ final class TwinHammerMechanism extends Mechanism {
     }
 
     @Override
+    double inputAngleRad() {
+        return th;
+    }
+
+    @Override
     double inputSpeedRadS() {
         return w;
     }

@@ -37,15 +37,33 @@ class BlowRateTest {
         assertThat(mean("air-twin-hammer")).isBetween(1100 * 0.85, 1100 * 1.15);
     }
 
+    /** Blows per turn of the mechanism's input against the nut, once the joint is seated. */
+    static double blowsPerRelativeTurn(String tool) throws Exception {
+        Rig rig = Rig.create(Presets.tool(tool), Presets.joint("iso-hard"), Presets.defaultTransducer(), 20_000, 1);
+        rig.setBlowThresholdNm(100);
+        float[] block = new float[200];
+        rig.setTrigger(true);
+        while (rig.blows() < 2) {
+            rig.fill(block, 0, block.length);
+        }
+        int first = rig.blows();
+        double turns = rig.relativeTurns();
+        for (int i = 0; i < 50; i++) {
+            rig.fill(block, 0, block.length);
+        }
+        return (rig.blows() - first) / (rig.relativeTurns() - turns);
+    }
+
     @Test
-    @DisplayName("three dogs strike more often than two, skip mode less (120° and 240° against 180° of relative travel)")
-    void threeDogAndSkipModeFollowFromTheGeometry() throws Exception {
-        double two = mean("cordless-two-dog");
-        double three = mean("cordless-three-dog");
-        double skip = mean("cordless-skip-dog");
-        // at equal spindle speed the ratios would be 1.5 and 0.75; the extra work per blow slows the spindle
-        assertThat(three / two).isBetween(1.1, 1.5);
-        assertThat(skip / two).isBetween(0.5, 0.85);
+    @DisplayName("blows per relative turn at most 2 (two dogs), 3 (three dogs), 1.5 (skip), 1 (twin hammer) never more (mechanism geometry; common practice)")
+    void blowsPerTurnFollowFromTheGeometry() throws Exception {
+        // A hammer still lifted when it reaches a jaw passes it and strikes the next: the count per turn
+        // can only fall short of the geometry. The model has no ball friction to calm the hammer's swing
+        // on the cam, so it falls short more than a real tool would, most in skip mode (docs/simulator.md).
+        assertThat(blowsPerRelativeTurn("cordless-two-dog") / 2.0).isBetween(0.6, 1.05);
+        assertThat(blowsPerRelativeTurn("cordless-three-dog") / 3.0).isBetween(0.6, 1.05);
+        assertThat(blowsPerRelativeTurn("cordless-skip-dog") / 1.5).isBetween(0.4, 1.05);
+        assertThat(blowsPerRelativeTurn("air-twin-hammer") / 1.0).isBetween(0.8, 1.05);
     }
 
     @Test
