@@ -1,5 +1,6 @@
 package hammerstep.sim.demo;
 
+import hammerstep.app.StationExtras;
 import hammerstep.app.StationSections;
 import hammerstep.app.UserError;
 import hammerstep.config.ConfigException;
@@ -99,11 +100,18 @@ public final class DemoRunner {
                 new Sequence.Settings(sim.transducerSerial(), sim.calibrationDue(), timing.completeHoldMs()),
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener(tally, view, clock), errors::add);
+        StationExtras.attach(station.agent(), config, sim.rateHz());
+        SupplyFade fade = new SupplyFade(tool, sim.tool(), SupplyFade.nominalOf(sim.tool(), sim.supplyBar(), sim.batteryV()),
+                options.supplyDropPercent(), parts.size());
 
         view.start(id, config, parts.size());
         long wallStart = System.nanoTime();
         long limit = PART_LIMIT_NS * Math.max(1, parts.size());
         while (!station.finished() && station.nowNs() < limit && errors.isEmpty()) {
+            String supply = fade.update(tally.parts);
+            if (supply != null) {
+                view.line(station.nowNs(), supply);
+            }
             station.step();
             view.frame(station, tally);
             if (!options.fast()) {
