@@ -113,6 +113,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);
                 });
+        StationExtras.attach(agent, station, hw.adc().rateHz());
         IdleStrategy idle = io.isMock() ? new BackoffIdleStrategy(100, 10, 1_000, 10_000) : new BusySpinIdleStrategy();
         AgentRunner acquisitionRunner = new AgentRunner(idle, t -> {
             errors.incrementAndGet();

@@ -58,7 +58,7 @@ public class ShutoffLatencyBenchmark {
     @Param({"20000"})
     double rateHz;
 
-    @Param({"64"})
+    @Param({"16", "64"})
     int blockLength;
 
     private VirtualClock clock;
@@ -143,7 +143,7 @@ public class ShutoffLatencyBenchmark {
                 JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
         quiet = new float[blockLength];
         crossing = new float[blockLength];
-        int width = Math.max(4, (int) (0.002 * rateHz));
+        int width = Math.max(4, Math.min((int) (0.002 * rateHz), 2 * blockLength - 2)); // peak inside the block
         for (int i = 0; i < blockLength && i < width; i++) {
             crossing[i] = (float) (210 * Math.sin(Math.PI * i / width));
         }

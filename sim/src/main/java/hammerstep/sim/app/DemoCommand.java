@@ -33,6 +33,16 @@ public final class DemoCommand implements Callable<Integer> {
     @Option(names = "--plain", description = "one line per result or event instead of the live view")
     boolean plain;
 
+    @Option(names = "--supply-drop", paramLabel = "PERCENT", defaultValue = "0",
+            description = {"after two parts at full supply, let the air pressure (air tool) or battery voltage"
+                    + " (cordless) fall part by part until it is PERCENT lower for the last part: the station's"
+                    + " tool health raises TOOL_WEAK (default: ${DEFAULT-VALUE}, steady)"})
+    double supplyDropPercent;
+
+    @Option(names = "--traces", paramLabel = "DIR",
+            description = "keep every joint's torque trace (.hst) in DIR; the results name them (replay and plot read them)")
+    Path traces;
+
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
@@ -42,6 +52,9 @@ public final class DemoCommand implements Callable<Integer> {
         if (parts < 1 || parts > 100_000) {
             throw new hammerstep.app.UserError("demo: --parts must be from 1 to 100000, got " + parts, 2);
         }
-        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain), System.out).run();
+        if (!(supplyDropPercent >= 0 && supplyDropPercent < 90)) {
+            throw new hammerstep.app.UserError("demo: --supply-drop must be from 0 to 90 percent, got " + supplyDropPercent, 2);
+        }
+        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent, traces), System.out).run();
     }
 }

@@ -1,7 +1,11 @@
 package hammerstep.sim.demo;
 
+import hammerstep.app.StationExtras;
 import hammerstep.app.StationSections;
 import hammerstep.app.UserError;
+import hammerstep.trace.StoredTrace;
+import hammerstep.trace.TraceKeeper;
+import hammerstep.trace.TracesSection;
 import hammerstep.config.ConfigException;
 import hammerstep.joint.JointMonitor;
 import hammerstep.results.JointOutcome;
@@ -99,11 +103,26 @@ public final class DemoRunner {
                 new Sequence.Settings(sim.transducerSerial(), sim.calibrationDue(), timing.completeHoldMs()),
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener(tally, view, clock), errors::add);
+        StationExtras.attach(station.agent(), config, sim.rateHz());
+        if (options.tracesDir() != null) {
+            try {
+                station.agent().keepTraces(TraceKeeper.open(new TracesSection.Traces(options.tracesDir(), 100_000,
+                        1_000_000_000L, StoredTrace.Encoding.INT16, 50, 12), sim.rateHz()));
+            } catch (java.io.IOException e) {
+                throw new UserError("--traces " + options.tracesDir() + ": " + e.getMessage(), 2);
+            }
+        }
+        SupplyFade fade = new SupplyFade(tool, sim.tool(), SupplyFade.nominalOf(sim.tool(), sim.supplyBar(), sim.batteryV()),
+                options.supplyDropPercent(), parts.size());
 
         view.start(id, config, parts.size());
         long wallStart = System.nanoTime();
         long limit = PART_LIMIT_NS * Math.max(1, parts.size());
         while (!station.finished() && station.nowNs() < limit && errors.isEmpty()) {
+            String supply = fade.update(tally.parts);
+            if (supply != null) {
+                view.line(station.nowNs(), supply);
+            }
             station.step();
             view.frame(station, tally);
             if (!options.fast()) {

@@ -95,7 +95,7 @@ final class LiveView implements DemoView {
             b.append(String.format(Locale.ROOT, "%4.0f ", tally.currentPeaks[k]));
         }
         b.append(n > 0 ? " N·m (" + tally.currentBlows + ")" : "").append("\u001b[K\n\n");
-        b.append(String.format(Locale.ROOT, "parts %d   joints %d (%d GO)   reworks %d%n", tally.parts, tally.joints,
+        b.append(String.format(Locale.ROOT, "parts %d   joints %d (%d GO)   reworks %d", tally.parts, tally.joints,
                 tally.jointsGo, tally.reworks)).append("\u001b[K\n");
         for (String line : tally.recent) {
             b.append(line).append("\u001b[K\n");
