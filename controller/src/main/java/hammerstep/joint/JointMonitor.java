@@ -28,8 +28,8 @@ public final class JointMonitor implements PulseSink {
     public static final int MAX_STORED_BLOWS = 1024;
     /**
      * A pulse whose main lobe is narrower than this cannot be a strike: strike pulses last about 1 to
-     * 5 ms (memory of transducer practice). Three or more of them, and most of a rundown's pulses,
-     * mean electrical noise: the {@code NOISE} fault (SENSOR_FAULT).
+     * 5 ms (memory of transducer practice). Three of them in a rundown, each closer to the pulse
+     * before than any tool strikes, mean electrical noise: the {@code NOISE} fault (SENSOR_FAULT).
      */
     public static final double MIN_STRIKE_MS = 0.25;
 
@@ -58,6 +58,7 @@ public final class JointMonitor implements PulseSink {
 
     private int blows;
     private int narrowPulses;
+    private long lastPulseStartNs;
     private int blowsAfterShutoff;
     private int firstBlowAtMin;
     private double maxPeak;
@@ -202,10 +203,14 @@ public final class JointMonitor implements PulseSink {
     @Override
     public void onPulse(long pulseStartNs, double peakNm, long peakNs, double widthMs, double impulseNms) {
         int n = blows;
-        if (widthMs < MIN_STRIKE_MS) {
+        // a spike narrower than any strike that follows the previous pulse sooner than any tool
+        // strikes (the dead time is half the shortest interval between blows) is noise; three such
+        // spikes in one rundown raise NOISE
+        boolean crowded = n > 0 && (pulseStartNs - lastPulseStartNs) * 1e-6 < 1.5 * program.blows().deadTimeMs();
+        lastPulseStartNs = pulseStartNs;
+        if (widthMs < MIN_STRIKE_MS && crowded) {
             narrowPulses++;
-            // a lone narrow lobe is ringing of a strike; a run of them, most of the pulses, is noise
-            if (narrowPulses >= 3 && 2 * narrowPulses > n + 1 && (rundownFaults & SignalFaults.NOISE) == 0) {
+            if (narrowPulses >= 3 && (rundownFaults & SignalFaults.NOISE) == 0) {
                 rundownFaults |= SignalFaults.NOISE;
                 events.onFault(SignalFaults.NOISE, pulseStartNs);
             }

@@ -15,8 +15,9 @@ public final class SignalFaults {
     /** A sample was NaN or infinite. */
     public static final int NOT_FINITE = 1 << 3;
     /**
-     * Most pulses of a rundown (three or more) had main lobes far narrower than any strike (strike
-     * pulses last about 1 to 5 ms; memory of transducer practice): electrical noise, not blows.
+     * Three pulses of a rundown had main lobes far narrower than any strike (strike pulses last
+     * about 1 to 5 ms; memory of transducer practice), each following the one before faster than
+     * any tool strikes: electrical noise, not blows.
      */
     public static final int NOISE = 1 << 4;
 
