@@ -39,6 +39,10 @@ public final class DemoCommand implements Callable<Integer> {
                     + " tool health raises TOOL_WEAK (default: ${DEFAULT-VALUE}, steady)"})
     double supplyDropPercent;
 
+    @Option(names = "--traces", paramLabel = "DIR",
+            description = "keep every joint's torque trace (.hst) in DIR; the results name them (replay and plot read them)")
+    Path traces;
+
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
@@ -51,6 +55,6 @@ public final class DemoCommand implements Callable<Integer> {
         if (!(supplyDropPercent >= 0 && supplyDropPercent < 90)) {
             throw new hammerstep.app.UserError("demo: --supply-drop must be from 0 to 90 percent, got " + supplyDropPercent, 2);
         }
-        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent), System.out).run();
+        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent, traces), System.out).run();
     }
 }

@@ -12,10 +12,12 @@ import java.nio.file.Path;
  * @param fast    virtual time as fast as the machine goes; otherwise paced to the wall clock
  * @param plain   one line per event instead of the live view
  * @param supplyDropPercent the air pressure or battery voltage falls by this much over the run (0: steady)
+ * @param tracesDir keep every joint's trace here (null: as the station file says)
  */
-public record DemoOptions(Path station, int parts, long seed, boolean fast, boolean plain, double supplyDropPercent) {
+public record DemoOptions(Path station, int parts, long seed, boolean fast, boolean plain, double supplyDropPercent,
+                          Path tracesDir) {
 
     public DemoOptions(Path station, int parts, long seed, boolean fast, boolean plain) {
-        this(station, parts, seed, fast, plain, 0);
+        this(station, parts, seed, fast, plain, 0, null);
     }
 }

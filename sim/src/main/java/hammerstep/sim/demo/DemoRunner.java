@@ -3,6 +3,9 @@ package hammerstep.sim.demo;
 import hammerstep.app.StationExtras;
 import hammerstep.app.StationSections;
 import hammerstep.app.UserError;
+import hammerstep.trace.StoredTrace;
+import hammerstep.trace.TraceKeeper;
+import hammerstep.trace.TracesSection;
 import hammerstep.config.ConfigException;
 import hammerstep.joint.JointMonitor;
 import hammerstep.results.JointOutcome;
@@ -101,6 +104,14 @@ public final class DemoRunner {
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener(tally, view, clock), errors::add);
         StationExtras.attach(station.agent(), config, sim.rateHz());
+        if (options.tracesDir() != null) {
+            try {
+                station.agent().keepTraces(TraceKeeper.open(new TracesSection.Traces(options.tracesDir(), 100_000,
+                        1_000_000_000L, StoredTrace.Encoding.INT16, 50, 12), sim.rateHz()));
+            } catch (java.io.IOException e) {
+                throw new UserError("--traces " + options.tracesDir() + ": " + e.getMessage(), 2);
+            }
+        }
         SupplyFade fade = new SupplyFade(tool, sim.tool(), SupplyFade.nominalOf(sim.tool(), sim.supplyBar(), sim.batteryV()),
                 options.supplyDropPercent(), parts.size());
 

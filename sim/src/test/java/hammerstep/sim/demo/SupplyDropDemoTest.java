@@ -17,7 +17,7 @@ class SupplyDropDemoTest {
     @Test
     void aFallingSupplyRaisesToolWeak() throws Exception {
         ByteArrayOutputStream bytes = new ByteArrayOutputStream();
-        int exit = new DemoRunner(new DemoOptions(STATION, 6, 1, true, true, 30),
+        int exit = new DemoRunner(new DemoOptions(STATION, 6, 1, true, true, 30, null),
                 new PrintStream(bytes, true, StandardCharsets.UTF_8)).run();
         String out = bytes.toString(StandardCharsets.UTF_8);
 
@@ -26,6 +26,19 @@ class SupplyDropDemoTest {
         assertThat(out).containsPattern("event WARNING TOOL_WEAK +tool CW-3D-17 on program flange-final");
         // the warning comes only after the supply has fallen, never while it is at nominal
         assertThat(out.indexOf("TOOL_WEAK")).isGreaterThan(out.indexOf("(15 % below nominal)"));
+    }
+
+    @Test
+    void keepsEveryJointsTraceWhenAsked(@org.junit.jupiter.api.io.TempDir Path dir) throws Exception {
+        ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+        int exit = new DemoRunner(new DemoOptions(STATION, 1, 1, true, true, 0, dir),
+                new PrintStream(bytes, true, StandardCharsets.UTF_8)).run();
+
+        assertThat(exit).isZero();
+        long joints = bytes.toString(StandardCharsets.UTF_8).lines().filter(l -> l.contains(" joint ")).count();
+        try (java.util.stream.Stream<Path> files = java.nio.file.Files.list(dir)) {
+            assertThat(files.filter(f -> f.toString().endsWith(".hst")).count()).isEqualTo(joints).isPositive();
+        }
     }
 
     @Test
