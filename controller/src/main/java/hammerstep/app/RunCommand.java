@@ -193,8 +193,9 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         }
 
         void start() {
+            java.io.InputStream source = System.in; // read now: the thread must not pick up a later System.in
             Thread t = new Thread(() -> {
-                try (BufferedReader in = new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8))) {
+                try (BufferedReader in = new BufferedReader(new InputStreamReader(source, StandardCharsets.UTF_8))) {
                     String line;
                     while ((line = in.readLine()) != null) {
                         String[] f = line.trim().split("\\s+");

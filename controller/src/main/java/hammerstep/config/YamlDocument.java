@@ -69,7 +69,7 @@ public final class YamlDocument {
             JsonLocation at = e.getLocation();
             int line = at == null ? 0 : Math.max(at.getLineNr(), 0);
             int column = at == null ? 0 : Math.max(at.getColumnNr(), 0);
-            throw new ConfigException(new Problem(file, line, column, "not valid YAML: " + oneLine(e.getOriginalMessage())));
+            throw new ConfigException(new Problem(file, line, column, "not valid YAML: " + withoutClassName(oneLine(e.getOriginalMessage()))));
         } catch (IOException e) {
             throw new ConfigException(new Problem(file, 0, 0, "cannot read: " + e.getMessage()));
         }
@@ -122,6 +122,11 @@ public final class YamlDocument {
     }
 
     /** The parser's message without its indented echo of the file, on one line. */
+    /** Drops a leading Java exception class name ("java.io.CharConversionException: ...") that means nothing to a line engineer. */
+    static String withoutClassName(String message) {
+        return message.replaceFirst("^([a-z][a-z0-9_]*\\.)+[A-Z][A-Za-z0-9_]*(Exception|Error): ", "");
+    }
+
     static String oneLine(String message) {
         StringBuilder sb = new StringBuilder();
         for (String line : message.split("\\R")) {

@@ -158,6 +158,9 @@ public final class HardwareSection {
     }
 
     private void claim(ConfigNode at, String name, int pin) {
+        if (at.kind() != ConfigNode.Kind.NUMBER || !at.text().equals(Integer.toString(pin))) {
+            return; // the pin was already reported as invalid: its stand-in value claims nothing
+        }
         String spi = SPI0.get(pin);
         if (spi != null) {
             problems.add(at, "'" + name + "' is pin " + pin + ", which is " + spi + ": choose another pin");

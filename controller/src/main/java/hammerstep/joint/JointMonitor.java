@@ -4,6 +4,7 @@ import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
 import hammerstep.signal.PulseDetector;
 import hammerstep.signal.PulseSink;
+import hammerstep.signal.SignalFaults;
 
 import java.util.Arrays;
 import java.util.List;
@@ -25,6 +26,12 @@ public final class JointMonitor implements PulseSink {
 
     /** Blow figures kept per rundown; the count and the final torque stay right beyond it. */
     public static final int MAX_STORED_BLOWS = 1024;
+    /**
+     * A pulse whose main lobe is narrower than this cannot be a strike: strike pulses last about 1 to
+     * 5 ms (memory of transducer practice). Three of them in a rundown, each closer to the pulse
+     * before than any tool strikes, mean electrical noise: the {@code NOISE} fault (SENSOR_FAULT).
+     */
+    public static final double MIN_STRIKE_MS = 0.25;
 
     private enum State { IDLE, ACTIVE, QUIET }
 
@@ -50,6 +57,8 @@ public final class JointMonitor implements PulseSink {
     private int reportedFaults;
 
     private int blows;
+    private int narrowPulses;
+    private long lastPulseStartNs;
     private int blowsAfterShutoff;
     private int firstBlowAtMin;
     private double maxPeak;
@@ -128,6 +137,7 @@ public final class JointMonitor implements PulseSink {
             shutoffNs = Long.MIN_VALUE;
             rundownFaults = faults;
             blows = 0;
+            narrowPulses = 0;
             blowsAfterShutoff = 0;
             firstBlowAtMin = 0;
             maxPeak = 0;
@@ -193,6 +203,18 @@ public final class JointMonitor implements PulseSink {
     @Override
     public void onPulse(long pulseStartNs, double peakNm, long peakNs, double widthMs, double impulseNms) {
         int n = blows;
+        // a spike narrower than any strike that follows the previous pulse sooner than any tool
+        // strikes (the dead time is half the shortest interval between blows) is noise; three such
+        // spikes in one rundown raise NOISE
+        boolean crowded = n > 0 && (pulseStartNs - lastPulseStartNs) * 1e-6 < 1.5 * program.blows().deadTimeMs();
+        lastPulseStartNs = pulseStartNs;
+        if (widthMs < MIN_STRIKE_MS && crowded) {
+            narrowPulses++;
+            if (narrowPulses >= 3 && (rundownFaults & SignalFaults.NOISE) == 0) {
+                rundownFaults |= SignalFaults.NOISE;
+                events.onFault(SignalFaults.NOISE, pulseStartNs);
+            }
+        }
         if (n < MAX_STORED_BLOWS) {
             peaks[n] = peakNm;
             peakTimes[n] = peakNs;

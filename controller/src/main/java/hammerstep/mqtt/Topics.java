@@ -32,6 +32,7 @@ public final class Topics {
     /** The command name of a topic under {@code cmd/}, or null when the topic is not one. */
     public String commandName(String topic) {
         String cmd = prefix + "cmd/";
-        return topic.startsWith(cmd) && topic.length() > cmd.length() ? topic.substring(cmd.length()) : null;
+        // an empty last level ("cmd/") is a legal topic that cmd/+ delivers: it gets an UNKNOWN_COMMAND answer
+        return topic.startsWith(cmd) ? topic.substring(cmd.length()) : null;
     }
 }

@@ -87,6 +87,8 @@ public final class Sequence {
     private int judgedPosition = -1;
     private Verdict judgedVerdict;
     private long completeAtNs;
+    private int sensorLockout;
+    private int sensorFaultsNow;
 
     /**
      * @param confirmSensors true when the fixture reports at which position the tool is
@@ -139,11 +141,15 @@ public final class Sequence {
         return true;
     }
 
-    /** The part left the fixture (part-present sensor). A part in work is abandoned; a rejected one still needs the key. */
+    /**
+     * The part left the fixture (part-present sensor). A part in work is abandoned; a rundown under
+     * way is still judged and stored first (the tool drops at once), so the tightening that happened
+     * is on record; a rejected one still needs the key.
+     */
     public void partRemoved(long nowNs) {
         switch (phase) {
-            case PROMPT, RUNDOWN, REWORK -> abandon(nowNs);
-            case STORING -> abandonAfterStore = true;
+            case PROMPT, REWORK -> abandon(nowNs);
+            case RUNDOWN, STORING -> abandonAfterStore = true;
             case COMPLETE -> clearPart();
             default -> { }
         }
@@ -207,8 +213,19 @@ public final class Sequence {
         }
     }
 
-    /** The supervisor key was turned (an edge): releases rework, ends a rejected part, retries a failed store. */
+    /**
+     * The supervisor key was turned (an edge): releases a sensor lockout once the signal is healthy
+     * again (that turn does nothing else), else releases rework, ends a rejected part, retries a failed store.
+     */
     public void supervisorKey(long nowNs) {
+        if (sensorLockout != 0) {
+            if (sensorFaultsNow == 0) {
+                event(StationEvent.Severity.NOTICE, "SENSOR_FAULT_CLEARED", "torque signal healthy again;"
+                        + " lockout released by the supervisor", part == null ? null : part.serial(), nowNs);
+                sensorLockout = 0;
+            }
+            return;
+        }
         switch (phase) {
             case REWORK -> releaseRework("supervisor", nowNs);
             case REJECTED -> {
@@ -223,6 +240,35 @@ public final class Sequence {
     /** The confirm sensors' reading (a level; {@link OperatorInputs#NO_POSITION} for none). */
     public void toolAt(int position) {
         this.toolAt = position;
+    }
+
+    /**
+     * A fault of the torque signal began (bits of {@code hammerstep.signal.SignalFaults}, named in
+     * {@code names}): the tool is locked out, red and yellow blink, and an alarm is stored. A rundown
+     * under way still ends and is judged (NO-GO, {@code SENSOR_FAULT}). The lockout holds until the
+     * signal is healthy ({@link #sensorFaults}) and the supervisor key is turned.
+     */
+    public void sensorFault(int faults, String names, long nowNs) {
+        if (faults == 0) {
+            return;
+        }
+        if (sensorLockout == 0) {
+            event(StationEvent.Severity.ALARM, "SENSOR_FAULT", "torque signal fault " + names
+                    + ": tool locked out until the fault clears and the supervisor key is turned",
+                    part == null ? null : part.serial(), nowNs);
+        }
+        sensorLockout |= faults;
+        sensorFaultsNow |= faults;
+    }
+
+    /** The signal's fault bits as they stand now (0 when healthy); called by the loop every cycle. */
+    public void sensorFaults(int faultsNow) {
+        this.sensorFaultsNow = faultsNow;
+    }
+
+    /** The fault bits that locked the tool out, or 0 when no sensor lockout stands. */
+    public int sensorLockout() {
+        return sensorLockout;
     }
 
     /** What the result store reported about its room. */
@@ -271,7 +317,7 @@ public final class Sequence {
 
     public boolean toolEnabled() {
         boolean prompting = phase == Phase.PROMPT || (phase == Phase.RUNDOWN && !shutoffSeen);
-        return prompting && (!confirmSensors || toolAt == prompted);
+        return prompting && sensorLockout == 0 && !abandonAfterStore && (!confirmSensors || toolAt == prompted);
     }
 
     public LampMode positionLamp(int index) {
@@ -308,13 +354,16 @@ public final class Sequence {
                 return phase == Phase.COMPLETE || (phase == Phase.PROMPT && lastVerdict == Verdict.GO)
                         ? LampMode.STEADY : LampMode.OFF;
             case RED:
+                if (sensorLockout != 0) {
+                    return LampMode.BLINKING;
+                }
                 return switch (phase) {
                     case REWORK -> LampMode.STEADY;
                     case REJECTED, FAULT -> LampMode.BLINKING;
                     default -> LampMode.OFF;
                 };
             default:
-                if (phase == Phase.FAULT || storage == ResultSink.Storage.FULL) {
+                if (phase == Phase.FAULT || storage == ResultSink.Storage.FULL || sensorLockout != 0) {
                     return LampMode.BLINKING;
                 }
                 return warning || storage == ResultSink.Storage.LOW ? LampMode.STEADY : LampMode.OFF;

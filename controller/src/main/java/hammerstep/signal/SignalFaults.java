@@ -14,6 +14,12 @@ public final class SignalFaults {
     public static final int ZERO_DRIFT = 1 << 2;
     /** A sample was NaN or infinite. */
     public static final int NOT_FINITE = 1 << 3;
+    /**
+     * Three pulses of a rundown had main lobes far narrower than any strike (strike pulses last
+     * about 1 to 5 ms; memory of transducer practice), each following the one before faster than
+     * any tool strikes: electrical noise, not blows.
+     */
+    public static final int NOISE = 1 << 4;
 
     private SignalFaults() {
     }
@@ -32,6 +38,9 @@ public final class SignalFaults {
         }
         if ((faults & NOT_FINITE) != 0) {
             names.add("NOT_FINITE");
+        }
+        if ((faults & NOISE) != 0) {
+            names.add("NOISE");
         }
         return names;
     }

@@ -14,6 +14,7 @@ import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
 import hammerstep.sequence.Store;
 import hammerstep.signal.Conditioning;
+import hammerstep.signal.SignalFaults;
 import hammerstep.station.OperatorInputs;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.SampleBlockHandler;
@@ -136,6 +137,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         work += ports.torque().poll(this, MAX_BLOCKS_PER_CYCLE);
         work += drainStores();
         sequence.storage(sink.storage());
+        sequence.sensorFaults(current.conditioner().faults());
         sequence.onTick(nowNs);
         work += drainStores();
         applyTool();
@@ -228,6 +230,15 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     public void onShutoff(long crossingNs) {
         shutoffPending = true;
         shutoffNs = crossingNs;
+    }
+
+    @Override
+    public void onFault(int faults, long atNs) {
+        // rare: the names are built only when a fault begins
+        sequence.sensorFault(faults, SignalFaults.names(faults).toString(), atNs);
+        if (toolOn && !sequence.toolEnabled()) {
+            applyTool();
+        }
     }
 
     @Override

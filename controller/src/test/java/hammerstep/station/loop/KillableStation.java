@@ -1,0 +1,106 @@
+package hammerstep.station.loop;
+
+import hammerstep.joint.FinalTorque;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.results.OutboxResultSink;
+import hammerstep.results.StationId;
+import hammerstep.results.StorageSettings;
+import hammerstep.results.journal.FileOutbox;
+import hammerstep.sequence.Acknowledge;
+import hammerstep.sequence.AfterNoGo;
+import hammerstep.sequence.Order;
+import hammerstep.sequence.Pattern;
+import hammerstep.sequence.Sequence;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.SampleRing;
+import hammerstep.station.ToolEnable;
+import hammerstep.station.VirtualClock;
+
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.List;
+import java.util.Map;
+import java.util.UUID;
+
+/**
+ * A station that works part after part in virtual time on a file outbox in the folder given as
+ * the first argument, forcing every result to disk, until it is killed. {@link StationKillIT} runs
+ * it in a child JVM and kills it with SIGKILL at random moments. Prints {@code started} once the
+ * outbox is open.
+ */
+public final class KillableStation {
+
+    private static final double RATE = 20_000;
+    private static final int BLOCK = 64;
+    private static final long BLOCK_NS = (long) (BLOCK * 1e9 / RATE);
+    private static final JointProgram FINAL = new JointProgram("final", "", new JointProgram.Torque(180, 200, 230),
+            FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 2, 40, 7.5),
+            new JointProgram.Rundown(10, 60, 4000), 200, 0);
+
+    private KillableStation() {
+    }
+
+    public static void main(String[] args) throws Exception {
+        Path dir = Path.of(args[0]);
+        FileOutbox outbox = FileOutbox.open(new StorageSettings(dir, 1 << 20, 64L << 20, 1L << 30, 0, 0),
+                () -> Long.MAX_VALUE);
+        Relay tool = new Relay();
+        Fakes.Scanner scanner = new Fakes.Scanner();
+        SampleRing ring = new SampleRing(RATE, BLOCK, 16);
+        VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
+        Pattern pattern = new Pattern("p2", "", List.of("L", "R"), List.of(
+                new Pattern.Pass("final", FINAL, Order.cross(2), 2, Acknowledge.OPERATOR, AfterNoGo.REJECT)));
+        StationAgent agent = new StationAgent(clock, new StationPorts(ring, new Fakes.RecordingLamps(4), tool,
+                new Fakes.Inputs(), scanner), new OutboxResultSink(outbox, new StationId("s", "l", "st")),
+                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", pattern),
+                JointMonitor.replayConditioning(FINAL), 1_000_000_000L, StationListener.NONE, t -> {
+                    t.printStackTrace();
+                    System.exit(3);
+                });
+        System.out.println("started");
+        System.out.flush();
+        float[] block = new float[BLOCK];
+        long sample = 0;
+        long blowAt = Long.MIN_VALUE;
+        long nextBlow = 0;
+        int blowNo = 0;
+        while (true) {
+            scanner.queue.add(new PartIdentity("SN-" + UUID.randomUUID().toString().substring(0, 8), "M"));
+            for (int joint = 0; joint < 2; joint++) {
+                blowNo = 0;
+                nextBlow = sample + BLOCK;
+                for (int k = 0; k < 120; k++) {
+                    boolean trigger = k < 80;
+                    for (int i = 0; i < BLOCK; i++) {
+                        long n = sample + i;
+                        if (trigger && tool.enabled && n >= nextBlow) {
+                            blowAt = n;
+                            blowNo++;
+                            nextBlow = n + 400;
+                        }
+                        long d = n - blowAt;
+                        block[i] = d >= 0 && d < 40 ? (float) (45.0 * blowNo * Math.sin(Math.PI * d / 40)) : 0f;
+                    }
+                    ring.offer(block, 0, BLOCK, clock.nanoTime());
+                    sample += BLOCK;
+                    clock.advanceNs(BLOCK_NS);
+                    agent.doWork();
+                }
+            }
+            for (int k = 0; k < 4; k++) {
+                clock.advanceNs(BLOCK_NS);
+                agent.doWork();
+            }
+        }
+    }
+
+    private static final class Relay implements ToolEnable {
+        boolean enabled;
+
+        @Override
+        public void set(boolean on) {
+            enabled = on;
+        }
+    }
+}
