@@ -169,7 +169,8 @@ public final class ResultPublisher implements Agent {
         long gen = ++generation;
         try {
             int receiveMax = l.connect(new Link.Will(topics.status(), status("offline")), events(gen));
-            window = Math.max(1, Math.min(settings.inflight(), receiveMax));
+            // two places of the broker's receive maximum stay free for status and command responses
+            window = Math.max(1, Math.min(settings.inflight(), receiveMax - 2));
             link = l;
             l.subscribe(topics.commands());
             inflight.clear();
@@ -289,7 +290,9 @@ public final class ResultPublisher implements Agent {
                     break;
                 }
                 for (Outbox.Entry e : batch) {
-                    link.publish(topics.result(e.kind()), e.payload(), false, e.position());
+                    if (!link.publish(topics.result(e.kind()), e.payload(), false, e.position())) {
+                        return sent;
+                    }
                     inflight.add(e.position());
                     cursor = e.position();
                     published++;
@@ -310,7 +313,9 @@ public final class ResultPublisher implements Agent {
         lastStorage = outbox.storage();
         nextStatusNs = now + settings.statusIntervalS() * 1000 * MS;
         try {
-            link.publish(topics.status(), status("online"), true, 0);
+            if (!link.publish(topics.status(), status("online"), true, 0)) {
+                nextStatusNs = now;
+            }
         } catch (IOException e) {
             drop(now, e.getMessage());
         }
