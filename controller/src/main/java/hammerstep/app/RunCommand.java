@@ -113,6 +113,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);
                 });
+        StationExtras.attach(agent, station, hw.adc().rateHz());
         IdleStrategy idle = io.isMock() ? new BackoffIdleStrategy(100, 10, 1_000, 10_000) : new BusySpinIdleStrategy();
         AgentRunner acquisitionRunner = new AgentRunner(idle, t -> {
             errors.incrementAndGet();
@@ -143,8 +144,9 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
             long statusNs = (long) (Math.max(1, statusEveryS) * 1e9);
             while (true) {
                 long left = exitAfterS > 0 ? endNs - clock.nanoTime() : statusNs;
-                if (left <= 0 || stop.await(Math.min(left, statusNs), TimeUnit.NANOSECONDS)) {
-                    break;
+                if (left <= 0 || stop.await(Math.min(left, statusNs), TimeUnit.NANOSECONDS)
+                        || (exitAfterS > 0 && endNs - clock.nanoTime() <= 0)) {
+                    break; // the closing status line follows
                 }
                 logStatus(acquisition, errors.get());
             }

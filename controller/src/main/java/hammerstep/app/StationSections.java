@@ -1,12 +1,14 @@
 package hammerstep.app;
 
 import hammerstep.config.MapReader;
+import hammerstep.health.ToolHealthSection;
 import hammerstep.hardware.HardwareSections;
 import hammerstep.results.StorageSettings;
 import hammerstep.station.setup.IdentitySection;
 import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.StationSection;
 import hammerstep.station.setup.TimingSection;
+import hammerstep.trace.TracesSection;
 
 import java.nio.file.Path;
 import java.util.List;
@@ -45,6 +47,8 @@ public final class StationSections {
                 PartsSection.INSTANCE,
                 TimingSection.INSTANCE,
                 STORAGE,
+                TracesSection.INSTANCE,
+                ToolHealthSection.INSTANCE,
                 HardwareSections.HARDWARE,
                 HardwareSections.TRANSDUCER,
                 StationSection.readElsewhere("simulation"));

@@ -52,6 +52,7 @@ final class Pi4jBoard implements AutoCloseable {
         requireGpio(spiBus, spiChipSelect);
         Context context = Pi4J.newContextBuilder()
                 .noAutoDetect()
+                .disableShutdownHook() // hammerstep run closes the board itself, after the loops stopped
                 .add(GpioDDigitalInputProvider.newInstance(), GpioDDigitalOutputProvider.newInstance(),
                         LinuxFsSpiProvider.newInstance())
                 .build();
@@ -62,6 +63,7 @@ final class Pi4jBoard implements AutoCloseable {
     static Pi4jBoard mock(SimulatedPart adc) {
         Context context = Pi4J.newContextBuilder()
                 .noAutoDetect()
+                .disableShutdownHook() // hammerstep run closes the board itself, after the loops stopped
                 .add(MockDigitalInputProvider.newInstance(), MockDigitalOutputProvider.newInstance(),
                         new SimulatedSpiProvider(adc))
                 .build();

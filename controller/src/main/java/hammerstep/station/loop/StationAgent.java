@@ -4,7 +4,11 @@ import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
+import hammerstep.health.ToolHealth;
+import hammerstep.health.ToolHealthEvents;
+import hammerstep.results.JointOutcome;
 import hammerstep.results.ResultSink;
+import hammerstep.results.StationEvent;
 import hammerstep.results.ResultStoreException;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
@@ -14,6 +18,7 @@ import hammerstep.station.OperatorInputs;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.SampleBlockHandler;
 import hammerstep.station.StationClock;
+import hammerstep.trace.TraceKeeper;
 import org.agrona.ErrorHandler;
 import org.agrona.concurrent.Agent;
 import org.slf4j.Logger;
@@ -50,6 +55,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private final StationListener listener;
     private final ErrorHandler errorHandler;
 
+    private TraceKeeper traces;
+    private ToolHealth toolHealth;
+    private String toolName = "tool";
     private JointMonitor current;
     private long nowNs;
     private boolean shutoffPending;
@@ -63,6 +71,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private PartIdentity waitingIdentity;
     private long errors;
     private long lastShutoffToRelayNs = -1;
+    private long maxShutoffToRelayNs = -1;
 
     /**
      * @param patternsByModel part model → pattern; every program of every pattern gets its monitor here
@@ -186,12 +195,18 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     @Override
     public void onBlock(float[] samples, int offset, int length, long firstSampleNs) {
+        if (traces != null) {
+            traces.onSamples(samples, offset, length, firstSampleNs);
+        }
         current.onSamples(samples, offset, length, firstSampleNs);
         if (shutoffPending) {
             shutoffPending = false;
             sequence.shutoff(shutoffNs);
             applyTool();
             lastShutoffToRelayNs = clock.nanoTime() - shutoffNs;
+            if (lastShutoffToRelayNs > maxShutoffToRelayNs) {
+                maxShutoffToRelayNs = lastShutoffToRelayNs;
+            }
         }
         selectMonitor();
     }
@@ -227,6 +242,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         int n = 0;
         Store s;
         while ((s = sequence.nextToStore()) != null) {
+            if (traces != null && s instanceof Store.Joint j) {
+                s = new Store.Joint(traces.keep(j.outcome()));
+            }
             ResultSink.Receipt receipt;
             try {
                 receipt = store(s);
@@ -241,6 +259,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             n++;
             if (s instanceof Store.Joint j) {
                 listener.onJoint(j.outcome(), receipt);
+                if (!watchTool(j.outcome())) {
+                    return n;
+                }
             } else if (s instanceof Store.Part p) {
                 listener.onPart(p.outcome(), receipt);
             } else if (s instanceof Store.Event e) {
@@ -248,6 +269,51 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             }
         }
         return n;
+    }
+
+    /**
+     * Tool health: the joint's blow rate and energy against the tool's baseline on its program; a
+     * change is stored as an event, and a weak tool holds the yellow lamp. False when the event
+     * could not be stored (the station then stands in FAULT, as for any result).
+     */
+    private boolean watchTool(JointOutcome joint) {
+        if (toolHealth == null) {
+            return true;
+        }
+        for (ToolHealth.Change c : toolHealth.observe(toolName, joint.result().program().id(), joint.result())) {
+            StationEvent event = ToolHealthEvents.of(c, joint.partSerial(), clock.instantOf(nowNs));
+            try {
+                ResultSink.Receipt receipt = sink.event(event);
+                listener.onEvent(event, receipt);
+            } catch (ResultStoreException e) {
+                sequence.storeFailed(nowNs);
+                applyTool();
+                LOG.error("event not stored, station stopped until the supervisor key: {}", e.getMessage());
+                listener.onStoreFailed(e.getMessage());
+                return false;
+            }
+        }
+        sequence.warning(toolHealth.anyWeak());
+        return true;
+    }
+
+    /** Keeps every joint's torque trace and names it in the joint's result. Call before the agent runs. */
+    public void keepTraces(TraceKeeper keeper) {
+        this.traces = keeper;
+    }
+
+    /** Watches the tool's blow rate and energy per program ({@code tool} names it in events). Call before the agent runs. */
+    public void watchTool(String tool, ToolHealth health) {
+        this.toolName = tool;
+        this.toolHealth = health;
+    }
+
+    public ToolHealth toolHealth() {
+        return toolHealth;
+    }
+
+    public TraceKeeper traces() {
+        return traces;
     }
 
     private ResultSink.Receipt store(Store s) throws ResultStoreException {
@@ -300,5 +366,10 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     /** Station-clock time from the last shut-off crossing sample to the relay command; -1 before the first. */
     public long lastShutoffToRelayNs() {
         return lastShutoffToRelayNs;
+    }
+
+    /** The longest such time so far; -1 before the first shut-off. */
+    public long maxShutoffToRelayNs() {
+        return maxShutoffToRelayNs;
     }
 }

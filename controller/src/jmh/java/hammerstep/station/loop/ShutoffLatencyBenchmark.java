@@ -1,0 +1,176 @@
+package hammerstep.station.loop;
+
+import hammerstep.joint.FinalTorque;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.results.MemoryOutbox;
+import hammerstep.results.OutboxResultSink;
+import hammerstep.results.StationId;
+import hammerstep.sequence.Acknowledge;
+import hammerstep.sequence.AfterNoGo;
+import hammerstep.sequence.Order;
+import hammerstep.sequence.Pattern;
+import hammerstep.sequence.Phase;
+import hammerstep.sequence.Sequence;
+import hammerstep.station.Lamps;
+import hammerstep.station.OperatorInputs;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.SampleRing;
+import hammerstep.station.ToolEnable;
+import hammerstep.station.TowerLamp;
+import hammerstep.station.VirtualClock;
+import org.openjdk.jmh.annotations.Benchmark;
+import org.openjdk.jmh.annotations.BenchmarkMode;
+import org.openjdk.jmh.annotations.Fork;
+import org.openjdk.jmh.annotations.Level;
+import org.openjdk.jmh.annotations.Measurement;
+import org.openjdk.jmh.annotations.Mode;
+import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Param;
+import org.openjdk.jmh.annotations.Scope;
+import org.openjdk.jmh.annotations.Setup;
+import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.Warmup;
+
+import java.time.Clock;
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.TimeUnit;
+
+/**
+ * Processing part of the shut-off latency: one station duty cycle that receives the block holding
+ * the shut-off crossing, from {@code doWork()} entry to the relay command (the cycle ends right after
+ * it, lamps included). The rest of the latency is waiting for the block to fill: at most one block
+ * period after the crossing sample ({@code blockLength / rateHz}).
+ *
+ * <p>Run: {@code mvn -q -Pbench -DskipTests package -pl controller && java -jar controller/target/benchmarks.jar ShutoffLatency}
+ */
+@State(Scope.Thread)
+@BenchmarkMode(Mode.SampleTime)
+@OutputTimeUnit(TimeUnit.MICROSECONDS)
+@Warmup(iterations = 3, time = 2)
+@Measurement(iterations = 5, time = 2)
+@Fork(1)
+public class ShutoffLatencyBenchmark {
+
+    @Param({"20000"})
+    double rateHz;
+
+    @Param({"16", "64"})
+    int blockLength;
+
+    private VirtualClock clock;
+    private SampleRing ring;
+    private StationAgent agent;
+    private Relay relay;
+    private final ArrayScanner scanner = new ArrayScanner();
+    private float[] quiet;
+    private float[] crossing;
+    private long blockNs;
+    private int serial;
+
+    static final class Relay implements ToolEnable {
+        boolean on;
+        long offCommands;
+
+        @Override
+        public void set(boolean enabled) {
+            if (on && !enabled) {
+                offCommands++;
+            }
+            on = enabled;
+        }
+    }
+
+    static final class DarkLamps implements Lamps {
+        int lit;
+
+        @Override
+        public int positionLamps() {
+            return 4;
+        }
+
+        @Override
+        public void position(int index, boolean on) {
+            lit += on ? 1 : 0;
+        }
+
+        @Override
+        public void tower(TowerLamp lamp, boolean on) {
+            lit += on ? 1 : 0;
+        }
+    }
+
+    static final class Idle implements OperatorInputs {
+        public boolean acknowledge() { return false; }
+        public boolean supervisorKey() { return false; }
+        public boolean hasPartPresent() { return false; }
+        public boolean partPresent() { return true; }
+        public boolean hasConfirmSensors() { return false; }
+        public int confirmedPosition() { return NO_POSITION; }
+        public boolean hasTrigger() { return false; }
+        public boolean trigger() { return false; }
+    }
+
+    static final class ArrayScanner implements hammerstep.station.PartIdentitySource {
+        PartIdentity next;
+
+        @Override
+        public PartIdentity poll() {
+            PartIdentity p = next;
+            next = null;
+            return p;
+        }
+    }
+
+    @Setup(Level.Trial)
+    public void build() {
+        JointProgram program = new JointProgram("final", "", new JointProgram.Torque(180, 200, 230),
+                FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 1, 40, 7.5),
+                new JointProgram.Rundown(10, 5, 4000), 200, 0);
+        Pattern pattern = new Pattern("one", "", List.of("A"), List.of(
+                new Pattern.Pass("final", program, Order.cross(1), 3, Acknowledge.OPERATOR, AfterNoGo.REJECT)));
+        clock = new VirtualClock(Instant.EPOCH);
+        ring = new SampleRing(rateHz, blockLength, 8);
+        relay = new Relay();
+        long[] ids = {0};
+        agent = new StationAgent(clock, new StationPorts(ring, new DarkLamps(), relay, new Idle(), scanner),
+                new OutboxResultSink(new MemoryOutbox(), new StationId("b", "b", "b"), () -> "id" + ids[0]++,
+                        Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)),
+                new Sequence(clock, new Sequence.Settings("TQ", null, 0), false), Map.of("M", pattern),
+                JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
+        quiet = new float[blockLength];
+        crossing = new float[blockLength];
+        int width = Math.max(4, Math.min((int) (0.002 * rateHz), 2 * blockLength - 2)); // peak inside the block
+        for (int i = 0; i < blockLength && i < width; i++) {
+            crossing[i] = (float) (210 * Math.sin(Math.PI * i / width));
+        }
+        blockNs = (long) (blockLength * 1e9 / rateHz);
+    }
+
+    /** Brings the station back to a prompted position with the tool on, then queues the crossing block. */
+    @Setup(Level.Invocation)
+    public void arm() {
+        for (int k = 0; k < 10_000 && !(agent.sequence().phase() == Phase.PROMPT && relay.on); k++) {
+            if (agent.sequence().phase() == Phase.WAITING) {
+                scanner.next = new PartIdentity("SN-" + serial++, "M");
+            }
+            ring.offer(quiet, 0, blockLength, clock.nanoTime());
+            clock.advanceNs(blockNs);
+            agent.doWork();
+        }
+        ring.offer(crossing, 0, blockLength, clock.nanoTime());
+        clock.advanceNs(blockNs);
+    }
+
+    @Benchmark
+    public boolean crossingBlockToRelay() {
+        agent.doWork();
+        if (relay.on) {
+            throw new IllegalStateException("relay still on after the crossing block");
+        }
+        return relay.on;
+    }
+}

@@ -1,0 +1,60 @@
+package hammerstep.sim.app;
+
+import ch.qos.logback.classic.Level;
+import hammerstep.app.Logging;
+import hammerstep.sim.demo.DemoOptions;
+import hammerstep.sim.demo.DemoRunner;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+
+/** {@code hammerstep-sim demo}: the whole station in simulation, from config/demo/. */
+@Command(name = "demo", mixinStandardHelpOptions = true,
+        description = {"Runs a whole station in simulation: modelled tool and fasteners, the controller's",
+                "station loop and sequence, and a scripted operator who follows the lamps.",
+                "Ends with a summary; exit 0 when every part was worked through."})
+public final class DemoCommand implements Callable<Integer> {
+
+    @Option(names = "--config", paramLabel = "FILE", defaultValue = "config/demo/station.yaml",
+            description = "station file with a simulation section (default: ${DEFAULT-VALUE})")
+    Path config;
+
+    @Option(names = "--parts", paramLabel = "N", defaultValue = "3", description = "parts to run (default: ${DEFAULT-VALUE})")
+    int parts;
+
+    @Option(names = "--seed", paramLabel = "S", defaultValue = "1", description = "random seed (default: ${DEFAULT-VALUE})")
+    long seed;
+
+    @Option(names = "--fast", description = "run in virtual time as fast as possible instead of real time")
+    boolean fast;
+
+    @Option(names = "--plain", description = "one line per result or event instead of the live view")
+    boolean plain;
+
+    @Option(names = "--supply-drop", paramLabel = "PERCENT", defaultValue = "0",
+            description = {"after two parts at full supply, let the air pressure (air tool) or battery voltage"
+                    + " (cordless) fall part by part until it is PERCENT lower for the last part: the station's"
+                    + " tool health raises TOOL_WEAK (default: ${DEFAULT-VALUE}, steady)"})
+    double supplyDropPercent;
+
+    @Option(names = "--traces", paramLabel = "DIR",
+            description = "keep every joint's torque trace (.hst) in DIR; the results name them (replay and plot read them)")
+    Path traces;
+
+    @Option(names = "--verbose", description = "log debug detail")
+    boolean verbose;
+
+    @Override
+    public Integer call() throws Exception {
+        Logging.configure(verbose, Level.WARN);
+        if (parts < 1 || parts > 100_000) {
+            throw new hammerstep.app.UserError("demo: --parts must be from 1 to 100000, got " + parts, 2);
+        }
+        if (!(supplyDropPercent >= 0 && supplyDropPercent < 90)) {
+            throw new hammerstep.app.UserError("demo: --supply-drop must be from 0 to 90 percent, got " + supplyDropPercent, 2);
+        }
+        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent, traces), System.out).run();
+    }
+}

@@ -1,0 +1,207 @@
+package hammerstep.sim.demo;
+
+import hammerstep.app.StationExtras;
+import hammerstep.app.StationSections;
+import hammerstep.app.UserError;
+import hammerstep.trace.StoredTrace;
+import hammerstep.trace.TraceKeeper;
+import hammerstep.trace.TracesSection;
+import hammerstep.config.ConfigException;
+import hammerstep.joint.JointMonitor;
+import hammerstep.results.JointOutcome;
+import hammerstep.results.MemoryOutbox;
+import hammerstep.results.OutboxResultSink;
+import hammerstep.results.PartOutcome;
+import hammerstep.results.ResultSink;
+import hammerstep.results.StationEvent;
+import hammerstep.results.StationId;
+import hammerstep.sequence.Pattern;
+import hammerstep.sequence.Sequence;
+import hammerstep.signal.Conditioning;
+import hammerstep.sim.station.RigToolModel;
+import hammerstep.sim.station.SimulatedStation;
+import hammerstep.sim.station.VirtualStation;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.VirtualClock;
+import hammerstep.station.loop.StationListener;
+import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.PartsSection;
+import hammerstep.station.setup.StationConfig;
+import hammerstep.station.setup.StationFile;
+import hammerstep.station.setup.StationSection;
+import hammerstep.station.setup.TimingSection;
+
+import java.io.PrintStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Runs the demo: a station from a station file with its {@code simulation:} section, the scripted
+ * operator working through the parts, a live view or one line per event, and a summary. Returns
+ * the exit code.
+ */
+public final class DemoRunner {
+
+    /** Virtual time a part may take before the run is called stuck. */
+    private static final long PART_LIMIT_NS = 600_000_000_000L;
+    /** Virtual start of every run, so the same seed stamps the same times. */
+    private static final Instant EPOCH = Instant.parse("2026-03-02T06:00:00Z");
+
+    private final DemoOptions options;
+    private final PrintStream out;
+
+    public DemoRunner(DemoOptions options, PrintStream out) {
+        this.options = options;
+        this.out = out;
+    }
+
+    public int run() throws ConfigException, InterruptedException {
+        if (!Files.exists(options.station())) {
+            throw new UserError(options.station() + ": no such file (run from the repository root, or give --config)", 2);
+        }
+        List<StationSection<?>> sections = new ArrayList<>(StationSections.all());
+        sections.removeIf(s -> s.key().equals(SimulationSection.INSTANCE.key()));
+        sections.add(SimulationSection.INSTANCE);
+        StationConfig config = StationFile.load(options.station(), sections);
+        SimulationSection.Simulation sim = config.get(SimulationSection.INSTANCE);
+        if (sim == null) {
+            throw new UserError(options.station() + ": no 'simulation' section: the demo needs one", 2);
+        }
+        StationId id = config.get(IdentitySection.INSTANCE);
+        Map<String, Pattern> patterns = config.get(PartsSection.INSTANCE).byModel();
+        TimingSection.Timing timing = config.get(TimingSection.INSTANCE);
+        List<PartIdentity> parts = parts(sim, patterns);
+
+        VirtualClock clock = new VirtualClock(EPOCH);
+        RigToolModel tool = new RigToolModel(sim.tool(), sim.joint(), sim.transducer(), sim.rateHz(), options.seed(),
+                sim.fixture().positions(), sim.internalRateHz());
+        tool.setBlowThresholdNm(lowestCountAbove(patterns));
+        if (!Double.isNaN(sim.supplyBar())) {
+            tool.setSupplyPressureBar(sim.supplyBar());
+        }
+        if (!Double.isNaN(sim.batteryV())) {
+            tool.setBatteryVoltage(sim.batteryV());
+        }
+        VirtualStation hardware = new VirtualStation(tool, sim.fixture(), sim.rateHz(), sim.blockSamples(), 64,
+                timing.blinkPeriodNs() + timing.blinkPeriodNs() / 5);
+        long[] ids = {0};
+        ResultSink sink = new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
+                Clock.fixed(EPOCH, ZoneOffset.UTC));
+        DemoTally tally = new DemoTally();
+        DemoView view = options.plain() ? new PlainView(out) : new LiveView(out);
+        Pattern first = patterns.values().iterator().next();
+        Conditioning conditioning = JointMonitor.replayConditioning(first.passes().get(0).program())
+                .withOverRange(sim.transducer().ratedTorqueNm());
+        List<Throwable> errors = new ArrayList<>();
+        SimulatedStation station = new SimulatedStation(clock, hardware, sink, patterns,
+                new Sequence.Settings(sim.transducerSerial(), sim.calibrationDue(), timing.completeHoldMs()),
+                conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
+                listener(tally, view, clock), errors::add);
+        StationExtras.attach(station.agent(), config, sim.rateHz());
+        if (options.tracesDir() != null) {
+            try {
+                station.agent().keepTraces(TraceKeeper.open(new TracesSection.Traces(options.tracesDir(), 100_000,
+                        1_000_000_000L, StoredTrace.Encoding.INT16, 50, 12), sim.rateHz()));
+            } catch (java.io.IOException e) {
+                throw new UserError("--traces " + options.tracesDir() + ": " + e.getMessage(), 2);
+            }
+        }
+        SupplyFade fade = new SupplyFade(tool, sim.tool(), SupplyFade.nominalOf(sim.tool(), sim.supplyBar(), sim.batteryV()),
+                options.supplyDropPercent(), parts.size());
+
+        view.start(id, config, parts.size());
+        long wallStart = System.nanoTime();
+        long limit = PART_LIMIT_NS * Math.max(1, parts.size());
+        while (!station.finished() && station.nowNs() < limit && errors.isEmpty()) {
+            String supply = fade.update(tally.parts);
+            if (supply != null) {
+                view.line(station.nowNs(), supply);
+            }
+            station.step();
+            view.frame(station, tally);
+            if (!options.fast()) {
+                long ahead = station.nowNs() - (System.nanoTime() - wallStart);
+                if (ahead > 20_000_000L) {
+                    Thread.sleep(ahead / 1_000_000L);
+                }
+            }
+        }
+        view.end(station, tally);
+        boolean finished = station.finished();
+        new DemoSummary(tally, station, tool, parts.size(), System.nanoTime() - wallStart, finished).print(out);
+        for (Throwable t : errors) {
+            out.println("station error: " + t);
+        }
+        if (!finished) {
+            out.println("the run did not finish: the simulated operator got stuck (see the events above)");
+            return 1;
+        }
+        return errors.isEmpty() ? 0 : 1;
+    }
+
+    /** The ground truth counts blows as the most sensitive program of the station does. */
+    static double lowestCountAbove(Map<String, Pattern> patterns) {
+        double lowest = Double.POSITIVE_INFINITY;
+        for (Pattern p : patterns.values()) {
+            for (Pattern.Pass pass : p.passes()) {
+                lowest = Math.min(lowest, pass.program().blows().countAboveNm());
+            }
+        }
+        return lowest;
+    }
+
+    private List<PartIdentity> parts(SimulationSection.Simulation sim, Map<String, Pattern> patterns) {
+        List<SimulationSection.PartStream> streams = sim.parts();
+        for (SimulationSection.PartStream s : streams) {
+            if (!patterns.containsKey(s.model())) {
+                throw new UserError(options.station() + ": simulation part model " + s.model()
+                        + " has no pattern under 'parts'", 2);
+            }
+        }
+        int n = options.parts() > 0 ? options.parts() : streams.size();
+        List<PartIdentity> list = new ArrayList<>(n);
+        for (int k = 0; k < n; k++) {
+            SimulationSection.PartStream s = streams.get(k % streams.size());
+            list.add(new PartIdentity(s.serial(k / streams.size()), s.model()));
+        }
+        return list;
+    }
+
+    private static StationListener listener(DemoTally tally, DemoView view, VirtualClock clock) {
+        return new StationListener() {
+            @Override
+            public void onBlow(int index, double peakNm, long peakNs) {
+                tally.blow(index, peakNm);
+            }
+
+            @Override
+            public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
+                tally.joint(joint);
+                view.line(clock.nanoTime(), DemoLines.joint(joint));
+            }
+
+            @Override
+            public void onPart(PartOutcome part, ResultSink.Receipt receipt) {
+                tally.part(part);
+                view.line(clock.nanoTime(), DemoLines.part(part));
+            }
+
+            @Override
+            public void onEvent(StationEvent event, ResultSink.Receipt receipt) {
+                tally.event(event);
+                view.line(clock.nanoTime(), DemoLines.event(event));
+            }
+
+            @Override
+            public void onStoreFailed(String message) {
+                view.line(clock.nanoTime(), "store failed: " + message);
+            }
+        };
+    }
+}

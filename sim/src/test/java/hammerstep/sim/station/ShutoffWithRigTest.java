@@ -1,0 +1,103 @@
+package hammerstep.sim.station;
+
+import hammerstep.config.ConfigException;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.joint.ProgramFile;
+import hammerstep.results.JointOutcome;
+import hammerstep.results.MemoryOutbox;
+import hammerstep.results.OutboxResultSink;
+import hammerstep.results.PartOutcome;
+import hammerstep.results.ResultSink;
+import hammerstep.results.StationId;
+import hammerstep.sequence.Acknowledge;
+import hammerstep.sequence.AfterNoGo;
+import hammerstep.sequence.Order;
+import hammerstep.sequence.Pattern;
+import hammerstep.sequence.Sequence;
+import hammerstep.sim.physics.Presets;
+import hammerstep.station.PartIdentity;
+import hammerstep.station.VirtualClock;
+import hammerstep.station.loop.StationListener;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
+
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+/**
+ * Shut-off on the physics rig: the demo's snug and final programs on the demo's joint, with the cordless tools
+ * at their nominal 18 V, from about 1200 to about 3100 blows per minute (demo runs reach 3350 on single
+ * joints). Overdriven (21 V and more) the modelled hammer can carry enough energy for one more strike
+ * after the cut; that is outside the demo's tools and is noted in docs/design.md. The station drops the relay within one 0.8 ms
+ * block of the crossing; no blow may begin after it, neither in the measurement nor in the model.
+ */
+class ShutoffWithRigTest {
+
+    private static final double RATE = 20_000;
+    private static final int BLOCK = 16;
+
+    @ParameterizedTest(name = "{0} at {1} V")
+    @CsvSource({
+            "cordless-skip-dog, 18.0",
+            "cordless-two-dog, 18.0",
+            "cordless-three-dog, 18.0"})
+    void noBlowBeginsAfterShutoff(String toolName, double volts) throws ConfigException {
+        JointProgram snug = ProgramFile.load(Path.of("../config/demo/programs/flange-snug.yaml"));
+        JointProgram fin = ProgramFile.load(Path.of("../config/demo/programs/flange-final.yaml"));
+        Pattern pattern = new Pattern("ring-4", "", List.of("1", "2", "3", "4"), List.of(
+                new Pattern.Pass("snug", snug, Order.cross(4), 3, Acknowledge.OPERATOR, AfterNoGo.CONTINUE),
+                new Pattern.Pass("final", fin, Order.cross(4), 3, Acknowledge.OPERATOR, AfterNoGo.CONTINUE)));
+        RigToolModel tool = new RigToolModel(Presets.tool(toolName), Presets.joint("flange-m16"),
+                Presets.defaultTransducer(), RATE, 11, 4, 400_000);
+        tool.setBatteryVoltage(volts);
+        tool.setBlowThresholdNm(fin.blows().countAboveNm());
+        VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
+        VirtualStation hw = new VirtualStation(tool, new VirtualStation.Fixture(4, true, true, 0), RATE, BLOCK, 64,
+                1_200_000_000L);
+        List<JointOutcome> joints = new ArrayList<>();
+        List<PartOutcome> parts = new ArrayList<>();
+        List<Throwable> errors = new ArrayList<>();
+        long[] ids = {0};
+        SimulatedStation s = new SimulatedStation(clock, hw,
+                new OutboxResultSink(new MemoryOutbox(), new StationId("t", "t", "t"), () -> "j" + ids[0]++,
+                        Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)),
+                Map.of("R", pattern), new Sequence.Settings("TQ", null, 500),
+                JointMonitor.replayConditioning(fin), 1_000_000_000L, Habits.careful(),
+                List.of(new PartIdentity("R-1", "R"), new PartIdentity("R-2", "R")), 3,
+                new StationListener() {
+                    @Override
+                    public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
+                        joints.add(joint);
+                    }
+
+                    @Override
+                    public void onPart(PartOutcome part, ResultSink.Receipt receipt) {
+                        parts.add(part);
+                    }
+                }, errors::add);
+        while (!s.finished() && s.nowNs() < 300_000_000_000L) {
+            s.step();
+        }
+        assertThat(errors).isEmpty();
+        assertThat(parts).hasSize(2);
+        assertThat(joints).isNotEmpty().allSatisfy(j -> {
+            assertThat(j.result().shutoffReached()).isTrue();
+            assertThat(j.result().blowsAfterShutoff()).isZero();
+        });
+        assertThat(tool.blowsAfterRelayOff()).as("blows in the model after the relay dropped").isZero();
+        assertThat(s.agent().maxShutoffToRelayNs()).isBetween(0L, hw.blockNs());
+        double fastest = joints.stream().mapToDouble(j -> j.result().blowRatePerMin()).max().orElse(0);
+        assertThat(fastest).isLessThan(3400);
+        if (toolName.equals("cordless-three-dog")) {
+            assertThat(fastest).as("the demo's tool strikes at about 3000 per minute").isGreaterThan(2800);
+        }
+    }
+}
