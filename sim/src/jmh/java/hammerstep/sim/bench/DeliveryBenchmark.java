@@ -46,7 +46,7 @@ import java.util.concurrent.atomic.AtomicLong;
 @Fork(value = 1, jvmArgsAppend = "-Xmx1g")
 public class DeliveryBenchmark {
 
-    private static final int BACKLOG = 2000;
+    private static final int BACKLOG = 5000;
 
     /** Broker, subscriber and one station's results side. */
     @State(Scope.Benchmark)
@@ -139,7 +139,7 @@ public class DeliveryBenchmark {
     }
 
     /**
-     * Time per result while a backlog of 2000 drains: from the publisher's start (connect included)
+     * Time per result while a backlog of 5000 drains: from the publisher's start (connect included)
      * until the broker has acknowledged every one and the outbox is empty.
      */
     @Benchmark
