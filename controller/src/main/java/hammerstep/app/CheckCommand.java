@@ -33,11 +33,25 @@ public final class CheckCommand implements Callable<Integer> {
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
+    /** Validates one file, throwing what is wrong with it. */
+    @FunctionalInterface
+    public interface FileCheck {
+        void check(Path file) throws ConfigException;
+    }
+
     @Override
     public Integer call() throws IOException {
         if (verbose) {
             Logging.configure(true, Level.WARN);
         }
+        return checkAll(paths, ConfigFiles::check, quiet);
+    }
+
+    /**
+     * Checks files and the YAML files under directories with {@code check}, prints every problem on
+     * stderr and returns the exit code: 0 when all are valid, 2 otherwise.
+     */
+    public static int checkAll(List<Path> paths, FileCheck check, boolean quiet) throws IOException {
         List<Path> files = new ArrayList<>();
         List<Problem> problems = new ArrayList<>();
         for (Path p : paths) {
@@ -51,7 +65,7 @@ public final class CheckCommand implements Callable<Integer> {
         }
         for (Path f : files) {
             try {
-                ConfigFiles.check(f);
+                check.check(f);
             } catch (ConfigException e) {
                 problems.addAll(e.problems());
             }

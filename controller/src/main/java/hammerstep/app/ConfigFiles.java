@@ -50,8 +50,10 @@ public final class ConfigFiles {
             }
             return;
         }
+        String hint = root.entries().containsKey("name") && root.entries().containsKey("description")
+                ? ": it looks like a simulator preset, which 'hammerstep-sim check' validates" : "";
         throw new ConfigException(new Problem(doc.file(), root.line(), root.column(),
                 "not a known kind of configuration file: a joint program has 'torque', a pattern 'passes',"
-                        + " a station file 'identity' and 'parts'"));
+                        + " a station file 'identity' and 'parts'" + hint));
     }
 }

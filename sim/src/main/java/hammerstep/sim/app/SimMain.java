@@ -10,7 +10,7 @@ import picocli.CommandLine.Command;
         mixinStandardHelpOptions = true,
         versionProvider = Version.class,
         description = "Hardware simulator for hammerstep: modelled impact tools, joints and transducers.",
-        subcommands = {SimulateCommand.class, DemoCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {SimulateCommand.class, DemoCommand.class, CheckCommand.class, CommandLine.HelpCommand.class})
 public final class SimMain {
 
     public static void main(String[] args) {

@@ -17,15 +17,20 @@ final class Truth {
         int n = rig.blows();
         List<Double> times = new ArrayList<>(n);
         List<Double> peaks = new ArrayList<>(n);
+        List<Integer> cutShort = new ArrayList<>();
         for (int i = 0; i < Math.min(n, Rig.MAX_BLOWS); i++) {
             times.add(round(rig.blowTimeS(i), 1e6));
             peaks.add(round(rig.blowPeakNm(i), 100));
+            if (rig.blowCutShort(i)) {
+                cutShort.add(i);
+            }
         }
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("start_s", round(startS, 1e6));
         m.put("blows", n);
         m.put("blow_times_s", times);
         m.put("peaks_nm", peaks);
+        m.put("cut_short_blows", cutShort);
         m.put("residual_torque_nm", round(rig.residualTorqueNm(), 100));
         m.put("angle_deg", round(rig.angleDeg(), 100));
         m.put("angle_after_snug_deg", round(rig.angleAfterSnugDeg(), 100));

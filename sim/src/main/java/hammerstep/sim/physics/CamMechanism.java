@@ -16,6 +16,8 @@ final class CamMechanism extends Mechanism {
 
     private final double jS;
     private final double jH;
+    private final double invJS;
+    private final double invJH;
     private final double springRate;
     private final double x0;
     private final double lead;
@@ -32,6 +34,8 @@ final class CamMechanism extends Mechanism {
         super(drive, trainStiffness, dampingRatio, spec.hammerInertiaKgM2());
         this.jS = spec.spindleInertiaKgM2() + drive.reflectedInertiaKgM2();
         this.jH = spec.hammerInertiaKgM2();
+        this.invJS = 1.0 / jS;
+        this.invJH = 1.0 / jH;
         this.springRate = spec.springRateNPerM();
         this.x0 = spec.springPreloadN() / spec.springRateNPerM();
         this.lead = spec.camLeadMPerRad();
@@ -81,8 +85,8 @@ final class CamMechanism extends Mechanism {
         double phi = thS - thH;
         double tc = camTorque(phi);
         double td = drive.shaftTorque(wS);
-        wS += h * (td - tc) / jS;
-        wH += h * (tc - trainNm) / jH;
+        wS += h * (td - tc) * invJS;
+        wH += h * (tc - trainNm) * invJH;
         thS += h * wS;
         thH += h * wH;
         driveWorkJ += td * wS * h;
@@ -91,6 +95,7 @@ final class CamMechanism extends Mechanism {
         if (engaged) {
             if (x >= dogHeight) {
                 engaged = false;
+                release();
             }
         } else if (x < dogHeight) {
             double psi = thH - (nutAngle + nutSpeed * h);
@@ -100,6 +105,11 @@ final class CamMechanism extends Mechanism {
                 face = (k + 1) * pitch;
             }
         }
+    }
+
+    @Override
+    double inputAngleRad() {
+        return thS;
     }
 
     @Override
@@ -134,13 +144,13 @@ final class CamMechanism extends Mechanism {
 
     @Override
     void reset() {
+        restAgainstAnvil();
         face = 0;
         thH = 0;
         thS = 0;
         wS = 0;
         wH = 0;
         engaged = true;
-        restAgainstAnvil();
     }
 
     boolean engaged() {

@@ -13,6 +13,8 @@ final class CordlessDrive extends Drive {
     private final double kt;
     private final double resistance;
     private final double efficiency;
+    private final double conductance;
+    private final double brakeConductance;
     private double voltage;
     private double lastCurrent;
 
@@ -22,6 +24,8 @@ final class CordlessDrive extends Drive {
         this.kt = 60.0 / (2.0 * Math.PI * spec.kvRpmPerV());
         this.resistance = spec.windingResistanceOhm() + spec.internalResistanceOhm();
         this.efficiency = spec.gearEfficiency();
+        this.conductance = 1.0 / resistance;
+        this.brakeConductance = 1.0 / spec.windingResistanceOhm();
         this.voltage = spec.voltageV();
     }
 
@@ -35,11 +39,11 @@ final class CordlessDrive extends Drive {
         double back = kt * wm;
         double current;
         if (powered) {
-            current = (voltage - back) / resistance;
+            current = (voltage - back) * conductance;
         } else {
-            current = -back / spec.windingResistanceOhm();
+            current = -back * brakeConductance;
         }
-        double limit = spec.currentLimitA();
+        double limit = powered ? spec.currentLimitA() : spec.brakeCurrentA();
         if (current > limit) {
             current = limit;
         } else if (current < -limit) {

@@ -16,7 +16,8 @@ public sealed interface DriveSpec permits DriveSpec.Cordless, DriveSpec.Air {
      * @param internalResistanceOhm  battery pack resistance (sag)
      * @param kvRpmPerV              motor speed constant
      * @param windingResistanceOhm   motor phase-to-phase resistance
-     * @param currentLimitA          motor controller's current limit
+     * @param currentLimitA          motor controller's current limit while driving
+     * @param brakeCurrentA          current limit of the electronic brake (windings shorted) when released
      * @param motorInertiaKgM2       rotor inertia
      * @param dragNmPerRadS          viscous drag at the motor, N·m per rad/s
      * @param sunTeeth               planetary sun (input)
@@ -25,7 +26,7 @@ public sealed interface DriveSpec permits DriveSpec.Cordless, DriveSpec.Air {
      * @param gearEfficiency         of the stage, 0..1
      */
     record Cordless(double voltageV, double internalResistanceOhm, double kvRpmPerV, double windingResistanceOhm,
-                    double currentLimitA, double motorInertiaKgM2, double dragNmPerRadS,
+                    double currentLimitA, double brakeCurrentA, double motorInertiaKgM2, double dragNmPerRadS,
                     int sunTeeth, int planetTeeth, int ringTeeth, double gearEfficiency) implements DriveSpec {
 
         public double ratio() {

@@ -15,9 +15,11 @@ import java.util.SplittableRandom;
 final class Fastener {
 
     private final double inertia;
+    private final double invInertia;
     private final SplittableRandom random;
     private JointSpec joint;
     private double rate;
+    private double invRelaxS;
 
     private double angle;
     private double speed;
@@ -30,6 +32,7 @@ final class Fastener {
 
     Fastener(JointSpec joint, double inertiaKgM2, SplittableRandom random) {
         this.inertia = inertiaKgM2;
+        this.invInertia = 1.0 / inertiaKgM2;
         this.random = random;
         renew(joint);
     }
@@ -38,6 +41,7 @@ final class Fastener {
     void renew(JointSpec joint) {
         this.joint = joint;
         this.rate = joint.rateNmPerRad();
+        this.invRelaxS = 1.0 / (joint.relaxationTimeConstantMs() * 1e-3);
         angle = 0;
         speed = 0;
         stuck = true;
@@ -69,7 +73,7 @@ final class Fastener {
             }
             stuck = false;
         }
-        speed += h * (trainNm - running) / inertia;
+        speed += h * (trainNm - running) * invInertia;
         if (speed <= 0) {
             speed = 0;
             stuck = true;
@@ -87,7 +91,7 @@ final class Fastener {
             return;
         }
         double target = joint.relaxationLoss() * clampAngle;
-        embeddedRad += (target - embeddedRad) * (h / (joint.relaxationTimeConstantMs() * 1e-3));
+        embeddedRad += (target - embeddedRad) * h * invRelaxS;
     }
 
     double angleRad() {

@@ -6,10 +6,11 @@ package hammerstep.sim.physics;
  * the new velocities. The train torque couples the mechanism to the fastener: it is computed once
  * per step by {@link #trainTorque} and handed to {@link #advance} as the reaction.
  *
- * <p>A <em>strike</em> begins when the striking body meets the anvil after at least
- * {@link #FREE_FLIGHT_S} apart (for the oil-pulse unit: when a sealing window begins); contact
- * chatter within that time belongs to the strike before. The rig takes the highest train torque
- * from one strike's start to the next as that strike's peak.
+ * <p>A <em>blow</em> begins at a release of the striking body (the cam letting the hammer go,
+ * the twin hammers swinging out; for the oil-pulse unit, a sealing window beginning), or when the striker meets the
+ * anvil again after more than {@link #REBLOW_S} apart without a release (the drive has
+ * accelerated it anew). Re-contacts sooner than that (rebounds, a hammer following a nut that
+ * stopped) belong to the blow before. The rig takes the highest train torque of a blow as its peak.
  *
  * <p>The mechanism books the work its drive does; the rig books the work done on the train. Single-threaded; allocation-free after construction.
  */
@@ -21,11 +22,12 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     protected final double trainDamping;
 
     protected double driveWorkJ;
-    protected int strikes;
+    protected int releases;
     private double apartS;
+    private boolean releasedSinceContact;
 
-    /** Time apart after which a new contact is a new strike (chatter shorter than this is not), s. */
-    static final double FREE_FLIGHT_S = 1.0e-3;
+    /** Free flight after which a contact without a release begins a new blow, s. */
+    static final double REBLOW_S = 5.0e-3;
 
     Mechanism(Drive drive, double trainStiffness, double dampingRatio, double strikingInertia) {
         this.drive = drive;
@@ -52,6 +54,9 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     /** Speed of the mechanism's input shaft (spindle, cage or liner), rad/s. */
     abstract double inputSpeedRadS();
 
+    /** Angle of the mechanism's input shaft, rad. */
+    abstract double inputAngleRad();
+
     /** Angle of the striking body (hammer, cage or liner), rad. */
     abstract double strikerAngle();
 
@@ -64,41 +69,54 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     /** At rest, the striking body against the anvil jaw, all angles zero (a new fastener). */
     abstract void reset();
 
-    /** Strikes begun so far. */
-    final int strikes() {
-        return strikes;
+    /** Blow boundaries so far (releases and re-strikes after long free flight). */
+    final int releases() {
+        return releases;
     }
 
-    /** Books contact for a step of {@code h} under {@code trainNm}: a contact after free flight is a strike. */
+    /** A release of the striker: the blow under way ends. */
+    final void release() {
+        releases++;
+        releasedSinceContact = true;
+    }
+
+    /** Books contact for a step of {@code h} under {@code trainNm} (cam and twin-hammer). */
     final void trackContact(double h, double trainNm) {
         if (trainNm != 0) {
-            if (apartS >= FREE_FLIGHT_S) {
-                strikes++;
+            if (apartS > REBLOW_S && !releasedSinceContact) {
+                releases++;
             }
             apartS = 0;
+            releasedSinceContact = false;
         } else {
             apartS += h;
         }
     }
 
-    /** The striker starts resting against the anvil: its first push is no strike. */
+    /** The striker rests against the anvil (a new fastener). */
     final void restAgainstAnvil() {
         apartS = 0;
+        releasedSinceContact = false;
     }
 
+    /** Work the drive has done on the mechanism's input shaft, J. */
     final double driveWorkJ() {
         return driveWorkJ;
     }
 
     /**
-     * Unilateral spring-damper contact on a face at {@code delta} penetration closing at
-     * {@code deltaSpeed}: pushes, never pulls.
+     * Unilateral contact on a face at {@code delta} penetration, closing at {@code deltaSpeed}:
+     * the train's spring, with its damping acting only while the contact unloads (restitution
+     * below one without a torque step at first touch). Pushes, never pulls.
      */
     final double contact(double delta, double deltaSpeed) {
         if (delta <= 0) {
             return 0.0;
         }
-        double t = trainStiffness * delta + trainDamping * deltaSpeed;
+        double t = trainStiffness * delta;
+        if (deltaSpeed < 0) {
+            t += trainDamping * deltaSpeed;
+        }
         return t > 0 ? t : 0.0;
     }
 }

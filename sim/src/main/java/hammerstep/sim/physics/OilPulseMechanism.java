@@ -7,7 +7,8 @@ package hammerstep.sim.physics;
  * {@code dT/dt = k·(ω_liner − ω_nut) − T/τ_leak}, held at the relief torque when it would exceed
  * it and at zero when it would pull. Past the window the chamber vents ({@code T} decays with
  * {@code τ_vent}) and only oil shear couples liner and shaft. The window ends only forwards: a
- * liner thrown back by the pulse stays sealed.
+ * liner thrown back by the pulse stays sealed. At rest the liner sits sealed against the blades,
+ * as a hammer rests against its anvil: a loose nut is driven through the oil, without a pulse.
  */
 final class OilPulseMechanism extends Mechanism {
 
@@ -69,9 +70,14 @@ final class OilPulseMechanism extends Mechanism {
             oilNm *= ventFactor;
             if (th - nutAngle >= windowStart) {
                 sealed = true;
-                strikes++;
+                release();
             }
         }
+    }
+
+    @Override
+    double inputAngleRad() {
+        return th;
     }
 
     @Override
@@ -99,7 +105,7 @@ final class OilPulseMechanism extends Mechanism {
         th = 0;
         w = 0;
         oilNm = 0;
-        sealed = false;
-        windowStart = 0.5 * pitch;
+        sealed = true;
+        windowStart = 0;
     }
 }

@@ -48,6 +48,7 @@ final class PresetReaders {
             double kv = m.requiredNumber("kv_rpm_per_v", 10, 100_000);
             double rw = m.requiredNumber("winding_resistance_ohm", 0.001, 100);
             double limit = m.requiredNumber("current_limit_a", 0.1, 10_000);
+            double brake = m.number("brake_current_a", Double.isNaN(limit) ? 0 : limit, 0, 10_000);
             double jm = m.requiredNumber("inertia_kg_m2", 1e-8, 0.1);
             double drag = m.number("drag_nm_per_rad_s", 0, 0, 1);
             m.finish();
@@ -61,7 +62,7 @@ final class PresetReaders {
                         + ": a planetary stage needs ring = sun + 2 × planet (" + (sun + 2 * planet) + ")");
             }
             g.finish();
-            spec = new DriveSpec.Cordless(volts, rb, kv, rw, limit, jm, drag, sun, planet, ring, eff);
+            spec = new DriveSpec.Cordless(volts, rb, kv, rw, limit, brake, jm, drag, sun, planet, ring, eff);
         } else {
             double p0 = d.requiredNumber("reference_pressure_bar", 0.5, 20);
             double free = d.requiredNumber("free_speed_rpm", 100, 100_000);

@@ -7,8 +7,8 @@ import java.util.SplittableRandom;
  * Each output sample integrates the mechanics over {@code substeps} internal steps (at least
  * {@link #MIN_INTERNAL_RATE_HZ}), then reads the transducer's ADC.
  *
- * <p>Ground truth: every strike of the mechanism (see {@link Mechanism}) whose highest shaft
- * torque reaches the blow threshold is a blow, timed at that peak. Blows are counted per fastener.
+ * <p>Ground truth: every blow of the mechanism (release to release, see {@link Mechanism}) whose
+ * highest shaft torque reaches the blow threshold counts, timed at that peak; per fastener.
  *
  * <p>Single-threaded. {@link #fill} allocates nothing; the same seed gives the same samples.
  */
@@ -16,8 +16,10 @@ public final class Rig {
 
     /** Internal integration rate floor, Hz. */
     public static final double MIN_INTERNAL_RATE_HZ = 1.0e6;
-    /** Default shaft torque a cycle must reach to count as a blow, N·m. */
+    /** Default shaft torque a blow must reach to count as a blow, N·m. */
     public static final double DEFAULT_BLOW_THRESHOLD_NM = 40.0;
+    /** A blow ended by a release while its torque was still above this fraction of its peak is cut short. */
+    public static final double CUT_SHORT_FRACTION = 0.5;
     /** Blows kept per fastener; the count stays right beyond it. */
     public static final int MAX_BLOWS = 8192;
 
@@ -37,11 +39,12 @@ public final class Rig {
     private long steps;
     private double blowThresholdNm = DEFAULT_BLOW_THRESHOLD_NM;
 
-    private int seenStrikes;
-    private double strikePeakNm;
-    private long strikePeakStep;
+    private int seenReleases;
+    private double blowPeakNm;
+    private long blowPeakStep;
     private final double[] blowPeaksNm = new double[MAX_BLOWS];
     private final double[] blowTimesS = new double[MAX_BLOWS];
+    private final boolean[] blowCutShort = new boolean[MAX_BLOWS];
     private int closedBlows;
     private double trainWorkJ;
     private double lastShaftNm;
@@ -105,7 +108,7 @@ public final class Rig {
         }
     }
 
-    /** Torque a cycle must reach to count as a blow (ground truth), N·m. */
+    /** Torque a blow must reach to count as a blow (ground truth), N·m. */
     public void setBlowThresholdNm(double nm) {
         this.blowThresholdNm = nm;
     }
@@ -135,20 +138,21 @@ public final class Rig {
         trainWorkJ += t * ((mechanism.strikerAngle() - striker) - (fastener.angleRad() - nutAngle));
         transducer.filter(t);
         lastShaftNm = t;
-        if (mechanism.strikes() != seenStrikes) {
-            seenStrikes = mechanism.strikes();
-            if (strikePeakNm >= blowThresholdNm) {
+        if (t > blowPeakNm) {
+            blowPeakNm = t;
+            blowPeakStep = steps;
+        }
+        if (mechanism.releases() != seenReleases) {
+            seenReleases = mechanism.releases();
+            if (blowPeakNm >= blowThresholdNm) {
                 if (closedBlows < MAX_BLOWS) {
-                    blowPeaksNm[closedBlows] = strikePeakNm;
-                    blowTimesS[closedBlows] = strikePeakStep * h;
+                    blowPeaksNm[closedBlows] = blowPeakNm;
+                    blowTimesS[closedBlows] = blowPeakStep * h;
+                    blowCutShort[closedBlows] = t >= CUT_SHORT_FRACTION * blowPeakNm;
                 }
                 closedBlows++;
             }
-            strikePeakNm = 0;
-        }
-        if (t > strikePeakNm) {
-            strikePeakNm = t;
-            strikePeakStep = steps;
+            blowPeakNm = 0;
         }
         steps++;
     }
@@ -157,8 +161,8 @@ public final class Rig {
     public void newFastener(JointSpec joint) {
         fastener.renew(joint);
         mechanism.reset();
-        seenStrikes = mechanism.strikes();
-        strikePeakNm = 0;
+        seenReleases = mechanism.releases();
+        blowPeakNm = 0;
         closedBlows = 0;
     }
 
@@ -182,19 +186,28 @@ public final class Rig {
         return fastener.clampLoadN();
     }
 
-    /** Blows on the present fastener so far (a cycle still open counts once its peak qualifies). */
+    /** Blows on the present fastener so far (a blow still open counts once its peak qualifies). */
     public int blows() {
-        return closedBlows + (strikePeakNm >= blowThresholdNm ? 1 : 0);
+        return closedBlows + (blowPeakNm >= blowThresholdNm ? 1 : 0);
     }
 
     /** Peak shaft torque of blow {@code i} (0-based) of the present fastener, N·m. */
     public double blowPeakNm(int i) {
-        return i == closedBlows ? strikePeakNm : blowPeaksNm[i];
+        return i == closedBlows ? blowPeakNm : blowPeaksNm[i];
     }
 
     /** Time of blow {@code i}'s peak, seconds of virtual time since the rig was created. */
     public double blowTimeS(int i) {
-        return i == closedBlows ? strikePeakStep * h : blowTimesS[i];
+        return i == closedBlows ? blowPeakStep * h : blowTimesS[i];
+    }
+
+    /**
+     * Whether blow {@code i} was cut short: the striker was released in mid-strike (dogs sliding
+     * off a jaw they barely engaged), so its torque fell from near its peak within microseconds,
+     * faster than a transducer and ADC can follow. Its measured peak reads low.
+     */
+    public boolean blowCutShort(int i) {
+        return i < closedBlows && blowCutShort[i];
     }
 
     /** Samples produced so far. */
@@ -210,6 +223,11 @@ public final class Rig {
     /** Speed of the mechanism's input (spindle, cage or liner), rpm. */
     public double toolSpeedRpm() {
         return mechanism.inputSpeedRadS() * 60.0 / (2.0 * Math.PI);
+    }
+
+    /** Turns of the mechanism's input relative to the fastener since the present fastener was started. */
+    public double relativeTurns() {
+        return (mechanism.inputAngleRad() - fastener.angleRad()) / (2.0 * Math.PI);
     }
 
     /** Free speed of the mechanism's input under the present supply, rpm. */

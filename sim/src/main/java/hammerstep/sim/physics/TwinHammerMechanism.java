@@ -54,6 +54,7 @@ final class TwinHammerMechanism extends Mechanism {
             boolean rebound = pushed && trainNm == 0 && w < nutSpeed;
             if (rebound || heldS >= camOutS) {
                 engaged = false;
+                release();
             }
         } else if (th - nutAngle > face + arc) {
             engaged = true;
@@ -61,6 +62,11 @@ final class TwinHammerMechanism extends Mechanism {
             heldS = 0;
             face += PITCH;
         }
+    }
+
+    @Override
+    double inputAngleRad() {
+        return th;
     }
 
     @Override
@@ -84,14 +90,20 @@ final class TwinHammerMechanism extends Mechanism {
         return engaged && d > 0 ? 0.5 * trainStiffness * d * d : 0.0;
     }
 
+    /** Places the cage (tests: a strike from a known state). */
+    void setStriker(double angleRad, double speedRadS) {
+        th = angleRad;
+        w = speedRadS;
+    }
+
     @Override
     void reset() {
+        restAgainstAnvil();
         th = 0;
         w = 0;
         face = 0;
         engaged = true;
         pushed = false;
         heldS = 0;
-        restAgainstAnvil();
     }
 }

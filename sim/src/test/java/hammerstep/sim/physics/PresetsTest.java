@@ -81,12 +81,12 @@ class PresetsTest {
     @Test
     void rejectsGearsThatCannotMesh(@TempDir Path dir) throws Exception {
         String text = Files.readString(Path.of("..", "config", "sim", "tools", "cordless-two-dog.yaml"))
-                .replace("ring_teeth: 81", "ring_teeth: 80");
+                .replace("ring_teeth: 80", "ring_teeth: 79");
         Path file = dir.resolve("tool.yaml");
         Files.writeString(file, text);
         assertThatThrownBy(() -> Presets.tool(file.toString()))
                 .isInstanceOf(ConfigException.class)
-                .hasMessageContaining("ring = sun + 2 × planet (81)");
+                .hasMessageContaining("ring = sun + 2 × planet (80)");
     }
 
     @Test

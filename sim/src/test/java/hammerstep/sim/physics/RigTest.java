@@ -52,4 +52,24 @@ class RigTest {
         assertThat(r.joint().name()).isEqualTo("iso-soft");
         assertThat(r.samplesElapsed()).isEqualTo(20_100);
     }
+
+    @Test
+    void fillAllocatesNothing() throws Exception {
+        Rig r = rig("cordless-two-dog", "iso-hard", 4);
+        float[] block = new float[512];
+        r.setTrigger(true);
+        for (int i = 0; i < 200; i++) {
+            r.fill(block, 0, block.length);
+        }
+        com.sun.management.ThreadMXBean mx =
+                (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
+        long id = Thread.currentThread().getId();
+        long before = mx.getThreadAllocatedBytes(id);
+        for (int i = 0; i < 200; i++) {
+            r.fill(block, 0, block.length);
+        }
+        long allocated = mx.getThreadAllocatedBytes(id) - before;
+        assertThat(allocated).as("bytes allocated by 200 fills").isLessThan(1024);
+        assertThat(r.blows()).isPositive();
+    }
 }
