@@ -180,7 +180,8 @@ final class DemoDelivery implements AutoCloseable {
 
     private synchronized boolean allReceived() {
         for (MessageKind k : MessageKind.values()) {
-            if (receivedMaxSeq.getOrDefault(k, 0L) < outbox.nextSeq(k) - 1) {
+            long last = outbox.nextSeq(k) - 1;
+            if (last >= firstSeq.get(k) && receivedMaxSeq.getOrDefault(k, 0L) < last) {
                 return false;
             }
         }
