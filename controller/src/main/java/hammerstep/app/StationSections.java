@@ -2,6 +2,7 @@ package hammerstep.app;
 
 import hammerstep.config.MapReader;
 import hammerstep.health.ToolHealthSection;
+import hammerstep.mqtt.BrokerSettings;
 import hammerstep.hardware.HardwareSections;
 import hammerstep.results.StorageSettings;
 import hammerstep.station.setup.IdentitySection;
@@ -37,6 +38,27 @@ public final class StationSections {
         }
     };
 
+    /**
+     * {@code broker:}: the MQTT connection (optional; without it the station keeps its results in
+     * the outbox and delivers nothing). The client id defaults to site-line-station (empty here).
+     */
+    public static final StationSection<BrokerSettings> BROKER = new StationSection<>() {
+        @Override
+        public String key() {
+            return "broker";
+        }
+
+        @Override
+        public boolean required() {
+            return false;
+        }
+
+        @Override
+        public BrokerSettings read(MapReader section, Path base) {
+            return BrokerSettings.read(section, base, "");
+        }
+    };
+
     private StationSections() {
     }
 
@@ -47,6 +69,7 @@ public final class StationSections {
                 PartsSection.INSTANCE,
                 TimingSection.INSTANCE,
                 STORAGE,
+                BROKER,
                 TracesSection.INSTANCE,
                 ToolHealthSection.INSTANCE,
                 HardwareSections.HARDWARE,

@@ -51,9 +51,15 @@ public record BrokerSettings(
         return url.startsWith("ssl://");
     }
 
-    /** A copy with another url and client id (the demo's {@code --broker}). */
+    /** A copy with another url (the demo's {@code --broker}). */
     public BrokerSettings withUrl(String newUrl) {
         return new BrokerSettings(newUrl, clientId, username, passwordFile, caFile, keepAliveS, connectTimeoutS,
+                reconnectMinMs, reconnectMaxMs, sessionExpiryS, commandMaxExpiryS, statusIntervalS, inflight);
+    }
+
+    /** A copy with another client id. */
+    public BrokerSettings withClientId(String id) {
+        return new BrokerSettings(url, id, username, passwordFile, caFile, keepAliveS, connectTimeoutS,
                 reconnectMinMs, reconnectMaxMs, sessionExpiryS, commandMaxExpiryS, statusIntervalS, inflight);
     }
 

@@ -40,8 +40,13 @@ public interface Link {
     /** Subscribes at QoS 1, blocking until the broker answers. */
     void subscribe(String filter) throws IOException;
 
-    /** Publishes at QoS 1 without waiting; the acknowledgement arrives through {@link Events#acknowledged}. */
-    void publish(String topic, byte[] payload, boolean retained, long tag) throws IOException;
+    /**
+     * Publishes at QoS 1 without waiting; the acknowledgement arrives through {@link Events#acknowledged}.
+     *
+     * @return false when the client has as many publishes in flight as the broker takes: nothing was
+     *         sent, try again after an acknowledgement
+     */
+    boolean publish(String topic, byte[] payload, boolean retained, long tag) throws IOException;
 
     /** Publishes a response at QoS 1 with the request's correlation data, without waiting. */
     void respond(String topic, byte[] payload, byte[] correlation, long expiryS) throws IOException;

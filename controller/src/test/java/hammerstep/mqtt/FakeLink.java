@@ -34,11 +34,12 @@ final class FakeLink implements Link {
     }
 
     @Override
-    public void publish(String topic, byte[] payload, boolean retained, long tag) throws IOException {
+    public boolean publish(String topic, byte[] payload, boolean retained, long tag) throws IOException {
         if (closed) {
             throw new IOException("closed");
         }
         sent.add(new Sent(topic, payload, retained, tag, null));
+        return true;
     }
 
     @Override

@@ -138,15 +138,15 @@ public final class PahoLink implements Link {
     }
 
     @Override
-    public void publish(String topic, byte[] payload, boolean retained, long tag) throws IOException {
+    public boolean publish(String topic, byte[] payload, boolean retained, long tag) throws IOException {
         MqttMessage m = new MqttMessage(payload);
         m.setQos(1);
         m.setRetained(retained);
-        send(topic, m, tag);
+        return send(topic, m, tag);
     }
 
     /** Hands one message to the client; the listener reports the broker's PUBACK. */
-    private void send(String topic, MqttMessage m, long tag) throws IOException {
+    private boolean send(String topic, MqttMessage m, long tag) throws IOException {
         try {
             client.publish(topic, m, null, new MqttActionListener() {
                 @Override
@@ -161,7 +161,11 @@ public final class PahoLink implements Link {
                     acked(tag, false, error == null ? "failed" : error.getMessage());
                 }
             });
+            return true;
         } catch (MqttException e) {
+            if (e.getReasonCode() == org.eclipse.paho.mqttv5.client.MqttClientException.REASON_CODE_MAX_INFLIGHT) {
+                return false;
+            }
             throw new IOException(describe(e), e);
         }
     }
@@ -183,7 +187,9 @@ public final class PahoLink implements Link {
         }
         p.setMessageExpiryInterval(expiryS);
         m.setProperties(p);
-        send(topic, m, 0);
+        if (!send(topic, m, 0)) {
+            throw new IOException("too many publishes in flight to send the response now");
+        }
     }
 
     @Override

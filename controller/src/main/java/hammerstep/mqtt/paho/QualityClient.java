@@ -14,7 +14,9 @@ import org.eclipse.paho.mqttv5.common.packet.MqttProperties;
 import java.io.IOException;
 import java.util.List;
 import java.util.concurrent.CopyOnWriteArrayList;
+import java.util.concurrent.Executors;
 import java.util.concurrent.ScheduledExecutorService;
+import java.util.concurrent.TimeUnit;
 
 /**
  * The quality system's side, as the demo and the tests play it: subscribes with a persistent
@@ -31,31 +33,57 @@ public final class QualityClient implements AutoCloseable {
     }
 
 
-    private final MqttAsyncClient client;
-    private final ClientThreads threads;
+    private final String url;
+    private final String clientId;
+    private final Handler handler;
     private final List<String> filters = new CopyOnWriteArrayList<>();
+    private final ScheduledExecutorService watchdog;
+    private volatile MqttAsyncClient client;
+    private volatile ClientThreads threads;
+    private volatile boolean closed;
 
-    private QualityClient(MqttAsyncClient client, ClientThreads threads) {
-        this.client = client;
-        this.threads = threads;
+    private QualityClient(String url, String clientId, Handler handler) {
+        this.url = url;
+        this.clientId = clientId;
+        this.handler = handler;
+        this.watchdog = Executors.newSingleThreadScheduledExecutor(r -> {
+            Thread t = new Thread(r, "mqtt-quality-watchdog-" + clientId);
+            t.setDaemon(true);
+            return t;
+        });
     }
 
-    /** Connects (blocking up to 10 s); messages of every later subscription go to {@code handler}. */
+    /**
+     * Connects (blocking up to 10 s); messages of every later subscription go to {@code handler}.
+     * A lost connection is noticed within about two seconds and made again with a new client (not
+     * Paho's automatic reconnect, whose connect race can leave it stuck); the broker keeps the
+     * session, so nothing published meanwhile is lost.
+     */
     public static QualityClient connect(String url, String clientId, Handler handler) throws IOException {
-        ClientThreads threads = new ClientThreads("quality-" + clientId);
-        ScheduledExecutorService ex = threads.executor();
+        QualityClient q = new QualityClient(url, clientId, handler);
         try {
-            MqttAsyncClient c = new MqttAsyncClient(url, clientId, new MemoryPersistence(), null, ex);
-            QualityClient q = new QualityClient(c, threads);
+            q.open();
+        } catch (IOException e) {
+            q.watchdog.shutdownNow();
+            throw e;
+        }
+        q.watchdog.scheduleWithFixedDelay(q::check, 1, 1, TimeUnit.SECONDS);
+        return q;
+    }
+
+    private void open() throws IOException {
+        ClientThreads t = new ClientThreads("quality-" + clientId);
+        try {
+            MqttAsyncClient c = new MqttAsyncClient(url, clientId, new MemoryPersistence(), null, t.executor());
             c.setCallback(new MqttCallback() {
                 @Override
                 public void disconnected(MqttDisconnectResponse r) {
-                    // automatic reconnect is on
+                    // the watchdog connects again
                 }
 
                 @Override
                 public void mqttErrorOccurred(MqttException e) {
-                    // reported through disconnected
+                    // the watchdog connects again
                 }
 
                 @Override
@@ -71,9 +99,7 @@ public final class QualityClient implements AutoCloseable {
 
                 @Override
                 public void connectComplete(boolean reconnect, String serverUri) {
-                    if (reconnect) {
-                        ex.execute(q::resubscribe);
-                    }
+                    // subscriptions are made by the connecting thread, never here
                 }
 
                 @Override
@@ -84,16 +110,54 @@ public final class QualityClient implements AutoCloseable {
             MqttConnectionOptions o = new MqttConnectionOptions();
             o.setCleanStart(false);
             o.setSessionExpiryInterval(3600L);
-            o.setAutomaticReconnect(true);
-            o.setAutomaticReconnectDelay(1, 2);
+            o.setAutomaticReconnect(false);
             o.setKeepAliveInterval(10);
             o.setConnectionTimeout(10);
             o.setTopicAliasMaximum(0);
+            threads = t;
+            client = c;
             c.connect(o).waitForCompletion(10_000);
-            return q;
+            for (String f : filters) {
+                c.subscribe(new MqttSubscription[] {new MqttSubscription(f, 1)}).waitForCompletion(10_000);
+            }
         } catch (MqttException e) {
-            threads.shutdown();
+            release();
             throw new IOException("cannot connect to " + url + ": " + PahoLink.describe(e), e);
+        }
+    }
+
+    private void check() {
+        MqttAsyncClient c = client;
+        if (closed || (c != null && c.isConnected())) {
+            return;
+        }
+        release();
+        try {
+            open();
+        } catch (IOException | RuntimeException e) {
+            // tried again in a second
+        }
+    }
+
+    private void release() {
+        MqttAsyncClient c = client;
+        client = null;
+        if (c != null) {
+            try {
+                c.disconnectForcibly(0, 500, false);
+            } catch (MqttException | RuntimeException ignored) {
+                // releasing anyway
+            }
+            try {
+                c.close(true);
+            } catch (MqttException | RuntimeException ignored) {
+                // releasing anyway
+            }
+        }
+        ClientThreads t = threads;
+        threads = null;
+        if (t != null) {
+            t.shutdown();
         }
     }
 
@@ -101,19 +165,9 @@ public final class QualityClient implements AutoCloseable {
     public void subscribe(String filter) throws IOException {
         filters.add(filter);
         try {
-            client.subscribe(new MqttSubscription[] {new MqttSubscription(filter, 1)}).waitForCompletion(10_000);
+            current().subscribe(new MqttSubscription[] {new MqttSubscription(filter, 1)}).waitForCompletion(10_000);
         } catch (MqttException e) {
             throw new IOException(PahoLink.describe(e), e);
-        }
-    }
-
-    private void resubscribe() {
-        for (String f : filters) {
-            try {
-                client.subscribe(new MqttSubscription[] {new MqttSubscription(f, 1)}).waitForCompletion(10_000);
-            } catch (MqttException e) {
-                // the broker kept the session, or the next reconnect tries again
-            }
         }
     }
 
@@ -140,30 +194,37 @@ public final class QualityClient implements AutoCloseable {
         }
         m.setProperties(p);
         try {
-            client.publish(topic, m).waitForCompletion(10_000);
+            current().publish(topic, m).waitForCompletion(10_000);
         } catch (MqttException e) {
             throw new IOException(PahoLink.describe(e), e);
         }
     }
 
+    private MqttAsyncClient current() throws IOException {
+        MqttAsyncClient c = client;
+        if (c == null) {
+            throw new IOException("not connected to " + url + " (connecting again)");
+        }
+        return c;
+    }
+
     public boolean connected() {
-        return client.isConnected();
+        MqttAsyncClient c = client;
+        return c != null && c.isConnected();
     }
 
     @Override
     public void close() {
+        closed = true;
+        watchdog.shutdownNow();
+        MqttAsyncClient c = client;
         try {
-            if (client.isConnected()) {
-                client.disconnect(1000).waitForCompletion(2000);
+            if (c != null && c.isConnected()) {
+                c.disconnect(1000).waitForCompletion(2000);
             }
         } catch (MqttException | RuntimeException ignored) {
             // closing anyway
         }
-        try {
-            client.close(true);
-        } catch (MqttException | RuntimeException ignored) {
-            // closing anyway
-        }
-        threads.shutdown();
+        release();
     }
 }

@@ -43,6 +43,22 @@ public final class DemoCommand implements Callable<Integer> {
             description = "keep every joint's torque trace (.hst) in DIR; the results name them (replay and plot read them)")
     Path traces;
 
+    @Option(names = "--broker", paramLabel = "URL",
+            description = "deliver to this MQTT 5 broker (tcp://HOST:PORT) instead of the embedded one on 127.0.0.1")
+    String broker;
+
+    @Option(names = "--results-out", paramLabel = "FILE",
+            description = "write every message the quality system's subscriber receives, one JSON line each")
+    Path resultsOut;
+
+    @Option(names = "--summary-out", paramLabel = "FILE",
+            description = "write what the station produced (joints, parts, events, last seq of each) as JSON")
+    Path summaryOut;
+
+    @Option(names = "--state", paramLabel = "DIR",
+            description = "keep the result outbox in DIR, so a restart resumes (default: a temporary folder)")
+    Path state;
+
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
@@ -55,6 +71,10 @@ public final class DemoCommand implements Callable<Integer> {
         if (!(supplyDropPercent >= 0 && supplyDropPercent < 90)) {
             throw new hammerstep.app.UserError("demo: --supply-drop must be from 0 to 90 percent, got " + supplyDropPercent, 2);
         }
-        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent, traces), System.out).run();
+        if (broker != null && !broker.matches("tcp://[^/:]+:[0-9]{1,5}")) {
+            throw new hammerstep.app.UserError("demo: --broker must be tcp://HOST:PORT, got " + broker, 2);
+        }
+        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent, traces, true,
+                broker, resultsOut, summaryOut, state), System.out).run();
     }
 }

@@ -19,7 +19,7 @@ import java.util.stream.Stream;
 /**
  * An MQTT 5 broker inside the simulator (HiveMQ Community Edition, embedded), so the demo needs
  * nothing installed. It listens on 127.0.0.1 only, keeps everything in memory, sends no usage
- * statistics and does not take over logging (its own logback set-up is skipped and its bundled
+ * statistics, takes 64 unacknowledged publishes per client (its default is 10) and does not take over logging (its own logback set-up is skipped and its bundled
  * logback.xml is left out of the simulator's jar). Its working folders live in a temporary folder
  * removed on {@link #close()}.
  */
@@ -55,6 +55,11 @@ public final class EmbeddedBroker implements AutoCloseable {
                     <persistence>
                         <mode>in-memory</mode>
                     </persistence>
+                    <mqtt>
+                        <receive-maximum>
+                            <server-receive-maximum>64</server-receive-maximum>
+                        </receive-maximum>
+                    </mqtt>
                     <anonymous-usage-statistics>
                         <enabled>false</enabled>
                     </anonymous-usage-statistics>

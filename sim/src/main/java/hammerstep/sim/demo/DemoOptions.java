@@ -13,11 +13,23 @@ import java.nio.file.Path;
  * @param plain   one line per event instead of the live view
  * @param supplyDropPercent the air pressure or battery voltage falls by this much over the run (0: steady)
  * @param tracesDir keep every joint's trace here (null: as the station file says)
+ * @param delivery  results go through a file outbox and MQTT to a subscriber; false keeps them in
+ *                  memory (quick runs in unit tests)
+ * @param brokerUrl an external broker instead of the embedded one (null: embedded)
+ * @param resultsOut every message the subscriber receives, one JSON line each (null: none)
+ * @param summaryOut the counts the station produced, as JSON (null: none)
+ * @param stateDir  the outbox folder, so a restart resumes (null: a temporary folder)
  */
 public record DemoOptions(Path station, int parts, long seed, boolean fast, boolean plain, double supplyDropPercent,
-                          Path tracesDir) {
+                          Path tracesDir, boolean delivery, String brokerUrl, Path resultsOut, Path summaryOut,
+                          Path stateDir) {
 
     public DemoOptions(Path station, int parts, long seed, boolean fast, boolean plain) {
         this(station, parts, seed, fast, plain, 0, null);
+    }
+
+    public DemoOptions(Path station, int parts, long seed, boolean fast, boolean plain, double supplyDropPercent,
+                       Path tracesDir) {
+        this(station, parts, seed, fast, plain, supplyDropPercent, tracesDir, false, null, null, null, null);
     }
 }

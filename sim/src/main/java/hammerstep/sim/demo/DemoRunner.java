@@ -90,8 +90,24 @@ public final class DemoRunner {
         }
         VirtualStation hardware = new VirtualStation(tool, sim.fixture(), sim.rateHz(), sim.blockSamples(), 64,
                 timing.blinkPeriodNs() + timing.blinkPeriodNs() / 5);
+        DemoDelivery delivery = options.delivery()
+                ? DemoDelivery.open(options, id, config.get(StationSections.STORAGE), config.get(StationSections.BROKER))
+                : null;
+        try {
+            return run(config, sim, id, patterns, timing, parts, clock, tool, hardware, delivery);
+        } finally {
+            if (delivery != null) {
+                delivery.close();
+            }
+        }
+    }
+
+    private int run(StationConfig config, SimulationSection.Simulation sim, StationId id, Map<String, Pattern> patterns,
+                    TimingSection.Timing timing, List<PartIdentity> parts, VirtualClock clock, RigToolModel tool,
+                    VirtualStation hardware, DemoDelivery delivery) throws InterruptedException {
         long[] ids = {0};
-        ResultSink sink = new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
+        ResultSink sink = delivery != null ? delivery.sink(Clock.fixed(EPOCH, ZoneOffset.UTC))
+                : new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
                 Clock.fixed(EPOCH, ZoneOffset.UTC));
         DemoTally tally = new DemoTally();
         DemoView view = options.plain() ? new PlainView(out) : new LiveView(out);
@@ -137,6 +153,9 @@ public final class DemoRunner {
         new DemoSummary(tally, station, tool, parts.size(), System.nanoTime() - wallStart, finished).print(out);
         for (Throwable t : errors) {
             out.println("station error: " + t);
+        }
+        if (delivery != null && !delivery.finish(out, options.summaryOut())) {
+            return 1;
         }
         if (!finished) {
             out.println("the run did not finish: the simulated operator got stuck (see the events above)");

@@ -101,6 +101,24 @@ class EmbeddedBrokerDeliveryIT {
     }
 
     @Test
+    void drainsABacklogStoredWhileTheBrokerWasUnreachable() throws Exception {
+        Received got = new Received();
+        try (LoopbackProxy proxy = new LoopbackProxy(broker.port());
+             QualityClient q = subscriber(got, "qs-drain");
+             StationHarness station = new StationHarness(proxy.url(), state.resolve("g"), StationCommands.NONE)) {
+            proxy.cut();
+            for (int i = 1; i <= 600; i++) {
+                station.joint(i);
+            }
+            proxy.restore();
+            Received.await("600 joints", Duration.ofSeconds(60), () -> got.uniqueJoints().size() >= 600);
+            Received.await("backlog drained", Duration.ofSeconds(60), () -> station.outbox.backlog() == 0);
+            assertThat(got.uniqueJoints().values()).containsExactlyInAnyOrderElementsOf(
+                    LongStream.rangeClosed(1, 600).boxed().toList());
+        }
+    }
+
+    @Test
     void aLateSubscriberFindsTheRetainedStatus() throws Exception {
         try (StationHarness station = new StationHarness(broker.url(), state.resolve("c"), StationCommands.NONE)) {
             station.joint(1);
