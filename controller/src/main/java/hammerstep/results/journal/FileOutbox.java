@@ -62,6 +62,7 @@ public final class FileOutbox implements Outbox {
     private final FileLock lock;
     private final List<Segment> segments = new ArrayList<>();
     private final TreeMap<Long, Loc> pending = new TreeMap<>();
+    private final List<Entry> unfinishedPartJoints = new ArrayList<>();
     private final long[] nextSeq = new long[MessageKind.values().length];
     private final CRC32C crc = new CRC32C();
     private ByteBuffer out = ByteBuffer.allocate(64 * 1024);
@@ -211,8 +212,15 @@ public final class FileOutbox implements Outbox {
             }
             byte[] id = new byte[idLength];
             buf.get(body + JournalFormat.RESULT_FIXED, id);
-            pending.put(position, new Loc(seg, payloadAt, body + length - payloadAt, kind, seq,
-                    new String(id, StandardCharsets.UTF_8)));
+            String idText = new String(id, StandardCharsets.UTF_8);
+            pending.put(position, new Loc(seg, payloadAt, body + length - payloadAt, kind, seq, idText));
+            if (kind == MessageKind.PART) {
+                unfinishedPartJoints.clear();
+            } else if (kind == MessageKind.JOINT) {
+                byte[] payload = new byte[body + length - payloadAt];
+                buf.get(payloadAt, payload);
+                unfinishedPartJoints.add(new Entry(position, kind, seq, idText, payload));
+            }
             seg.pending++;
             nextPosition = Math.max(nextPosition, position + 1);
             nextSeq[kind.ordinal()] = Math.max(nextSeq[kind.ordinal()], seq + 1);
@@ -395,6 +403,11 @@ public final class FileOutbox implements Outbox {
     @Override
     public synchronized Recovery recovery() {
         return recovery;
+    }
+
+    @Override
+    public synchronized List<Entry> unfinishedPartJoints() {
+        return List.copyOf(unfinishedPartJoints);
     }
 
     /** Bytes the journal's segment files take now. */
