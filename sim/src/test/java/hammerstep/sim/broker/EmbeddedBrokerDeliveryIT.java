@@ -2,6 +2,7 @@ package hammerstep.sim.broker;
 
 import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.paho.QualityClient;
+import hammerstep.results.MessageSchemas;
 import hammerstep.results.ResultSink;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
