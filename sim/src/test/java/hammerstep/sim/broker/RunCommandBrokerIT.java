@@ -2,6 +2,7 @@ package hammerstep.sim.broker;
 
 import hammerstep.app.Main;
 import hammerstep.mqtt.paho.QualityClient;
+import hammerstep.results.MessageSchemas;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
