@@ -89,6 +89,18 @@ class SequenceInterruptedPartTest {
     }
 
     @Test
+    void thePlantEndingItClosesItAsInterruptedToo() {
+        h.seq.partInterrupted(unfinished, h.now());
+        assertThat(h.seq.endPart("scrapped after the power cut", h.now())).isNull();
+        h.drain();
+        assertThat(h.parts()).singleElement().satisfies(p -> {
+            assertThat(p.outcome().ended()).isEqualTo("INTERRUPTED");
+            assertThat(p.outcome().jointIds()).containsExactly("j1", "j2", "j3");
+        });
+        assertThat(h.seq.phase()).isEqualTo(Phase.WAITING);
+    }
+
+    @Test
     void isTakenOverOnlyAtStart() {
         h.start(TestPrograms.fourBolt(1, Acknowledge.OPERATOR, AfterNoGo.REJECT), "SN-6");
         assertThatThrownBy(() -> h.seq.partInterrupted(unfinished, h.now())).isInstanceOf(IllegalStateException.class);
