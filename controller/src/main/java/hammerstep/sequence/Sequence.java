@@ -140,6 +140,31 @@ public final class Sequence {
         }
     }
 
+    /**
+     * The plant ended the part in work ({@code cmd/end-part}): a {@code PART_ENDED} notice with the
+     * reason, then the part is stored as abandoned, as if it had left the fixture (a rundown under
+     * way is judged and stored first, the tool drops at once; a rejected part ends as rejected).
+     *
+     * @return null when the part was ended, else why not: {@code NO_PART} or {@code FAULT}
+     */
+    public String endPart(String reason, long nowNs) {
+        if (phase == Phase.FAULT) {
+            return "FAULT";
+        }
+        if (part == null || phase == Phase.COMPLETE || abandonAfterStore) {
+            return "NO_PART";
+        }
+        event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: " + reason,
+                part.serial(), nowNs);
+        if (phase == Phase.REJECTED) {
+            toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+            clearPart();
+        } else {
+            partRemoved(nowNs);
+        }
+        return null;
+    }
+
     /** A rundown began (reported by the joint monitor at its first sample). */
     public void rundownStarted(long nowNs) {
         if (effective() == Phase.PROMPT) {
