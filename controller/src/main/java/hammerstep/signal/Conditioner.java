@@ -201,6 +201,19 @@ public final class Conditioner {
         return true;
     }
 
+    /**
+     * Everything this conditioner carries from one block to the next. Two conditioners with the
+     * same settings and equal states turn the same samples into the same output and faults.
+     */
+    public record State(double zeroNm, boolean zeroSet, long flatSamples, float lastValue, float lastGood,
+                        int faults, double z1, double z2) {
+    }
+
+    /** The carried state now; allocates (not for the sample path). */
+    public State state() {
+        return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2);
+    }
+
     /** The offset currently subtracted, N·m. */
     public double zeroNm() {
         return zeroNm;
