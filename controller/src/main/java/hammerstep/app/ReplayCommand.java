@@ -94,7 +94,14 @@ public final class ReplayCommand implements Callable<Integer> {
             SplitReplay split = new SplitReplay(program, conditioning, rate, BLOCK);
             int workers = split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
             try {
-                split.run(samples::read, samples.samples(), workers).results().forEach(events::onRundown);
+                SplitReplay.Outcome outcome = split.run(samples::read, samples.samples(), workers);
+                if (verbose) {
+                    // looked up only here: a logger would otherwise start logging for every replay
+                    org.slf4j.LoggerFactory.getLogger(ReplayCommand.class).debug(
+                            "{} samples on {} workers: {} handovers, {} samples run past segment ends",
+                            samples.samples(), outcome.workers(), outcome.handovers(), outcome.samplesPastSegments());
+                }
+                outcome.results().forEach(events::onRundown);
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
                 return 1;

@@ -9,6 +9,7 @@ import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
+import java.util.concurrent.locks.LockSupport;
 
 /**
  * Replay of a long trace on several cores, with results identical to one {@link JointMonitor}
@@ -16,13 +17,14 @@ import java.util.concurrent.Future;
  *
  * <p>The trace is cut into one segment per worker at block boundaries. Each worker but the first
  * starts {@code primeS} seconds before its segment with a fresh monitor, so that its zero and
- * filter settle on the same signal; each worker but the last runs {@code handoverS} seconds past
- * its segment's end. In that overlap both workers note their {@link JointMonitor#idleState()} at
- * every block boundary. At the first boundary where both are idle with equal states, the later
- * worker is from then on in exactly the state the single monitor would be in, and its results
- * replace the earlier worker's. Where no boundary in the overlap qualifies (a trace with hardly a
- * quiet moment), the earlier worker simply carries on alone to the end, which is the single
- * monitor itself: the split can cost time but never change a result.
+ * filter settle on the same signal, and notes its {@link JointMonitor#idleState()} at every block
+ * boundary of the first {@code windowS} seconds of its segment. Each worker but the last, having
+ * done its own segment, carries on into the next one, comparing its state with the one noted
+ * there at each boundary. At the first boundary where both are idle with equal states, the later
+ * worker is from then on in exactly the state the single monitor would be in: the earlier worker
+ * stops, and the later worker's results from that boundary on replace its own. A worker that never
+ * meets an equal state simply carries on to the end, which is the single monitor itself: the split
+ * can cost time but never change a result.
  */
 public final class SplitReplay {
 
@@ -33,106 +35,97 @@ public final class SplitReplay {
         void read(long from, float[] into, int length);
     }
 
-    /** What a replay produced: the results in time order and how the segments were joined. */
-    public record Outcome(List<JointResult> results, int workers, int handovers, int fallbacks) {
+    /**
+     * What a replay produced: the results in time order, how many segments were handed over, and
+     * how many samples workers ran past their own segment before one was (the cost of the split).
+     */
+    public record Outcome(List<JointResult> results, int workers, int handovers, long samplesPastSegments) {
     }
 
-    /** Priming before a segment: the zero tracker's time constant is 1 s, so 40 s leave e⁻⁴⁰ of any start-up gap. */
+    /**
+     * Priming before a segment. On simulated shifts (1.5 s rundowns, 0.5 s pauses) two zero trackers
+     * met after about 110 s; priming for part of that leaves the earlier worker less to run on.
+     */
     public static final double PRIME_S = 40.0;
-    /** Overlap after a segment in which a handover boundary is looked for. */
-    public static final double HANDOVER_S = 20.0;
+    /** How far into its segment a worker notes its states for the worker before it to meet. */
+    public static final double WINDOW_S = 600.0;
 
     private final JointProgram program;
     private final Conditioning conditioning;
     private final double rateHz;
     private final int block;
     private final long primeSamples;
-    private final long handoverSamples;
+    private final long windowSamples;
 
     public SplitReplay(JointProgram program, Conditioning conditioning, double rateHz, int block) {
-        this(program, conditioning, rateHz, block, PRIME_S, HANDOVER_S);
+        this(program, conditioning, rateHz, block, PRIME_S, WINDOW_S);
     }
 
     SplitReplay(JointProgram program, Conditioning conditioning, double rateHz, int block, double primeS,
-                double handoverS) {
+                double windowS) {
         this.program = Objects.requireNonNull(program);
         this.conditioning = Objects.requireNonNull(conditioning);
         this.rateHz = rateHz;
         this.block = block;
         this.primeSamples = roundUpToBlock((long) Math.ceil(primeS * rateHz));
-        this.handoverSamples = roundUpToBlock((long) Math.ceil(handoverS * rateHz));
+        this.windowSamples = roundUpToBlock((long) Math.ceil(windowS * rateHz));
     }
 
     /**
      * The number of workers worth starting for {@code samples} on {@code cores}: each segment must be
-     * several times longer than the overlap it carries, else one monitor alone is as fast.
+     * several times longer than its priming, else one monitor alone is as fast.
      */
     public int workersFor(long samples, int cores) {
-        long overlap = primeSamples + handoverSamples;
-        long n = samples / (4 * overlap);
+        long n = samples / (8 * Math.max(primeSamples, block));
         return (int) Math.max(1, Math.min(cores, n));
     }
 
     /** Replays {@code samples} samples of {@code source} on {@code workers} threads. */
     public Outcome run(Samples source, long samples, int workers) throws InterruptedException {
-        if (workers <= 1) {
-            Worker only = new Worker(source, 0, samples, 0, 0, 0);
-            only.run();
-            only.monitor.finish();
-            return new Outcome(only.results, 1, 0, 0);
+        int n = Math.max(1, workers);
+        long[] cut = new long[n + 1];
+        for (int w = 1; w < n; w++) {
+            cut[w] = roundDownToBlock(samples * w / n);
         }
-        long[] cut = new long[workers + 1];
-        for (int w = 1; w < workers; w++) {
-            cut[w] = roundDownToBlock(samples * w / workers);
-        }
-        cut[workers] = samples;
-        List<Worker> crew = new ArrayList<>(workers);
-        for (int w = 0; w < workers; w++) {
+        cut[n] = samples;
+        List<Worker> crew = new ArrayList<>(n);
+        for (int w = 0; w < n; w++) {
             long from = w == 0 ? 0 : Math.max(cut[w - 1], cut[w] - primeSamples);
-            long to = w == workers - 1 ? samples : Math.min(samples, cut[w + 1] + handoverSamples);
-            crew.add(new Worker(source, from, to, cut[w], w == 0 ? 0 : Math.min(handoverSamples, to - cut[w]),
-                    w == workers - 1 ? -1 : cut[w + 1]));
+            long noted = w == 0 ? 0 : Math.min(windowSamples, cut[w + 1] - cut[w]) / block;
+            crew.add(new Worker(source, from, cut[w], cut[w + 1], (int) noted));
+        }
+        for (int w = 0; w + 1 < n; w++) {
+            crew.get(w).crew = crew;
+            crew.get(w).index = w;
         }
         runAll(crew);
-        return join(crew, samples);
+        return join(crew);
     }
 
-    private Outcome join(List<Worker> crew, long samples) {
+    private Outcome join(List<Worker> crew) {
         List<JointResult> results = new ArrayList<>();
         int handovers = 0;
-        Worker current = crew.get(0);
-        int firstResult = 0;
-        for (int w = 1; w < crew.size(); w++) {
-            Worker next = crew.get(w);
-            int at = handover(current, next);
-            if (at < 0) {
-                current.continueTo(samples);
-                current.monitor.finish();
-                results.addAll(current.results.subList(firstResult, current.results.size()));
-                return new Outcome(results, crew.size(), handovers, 1);
+        long past = 0;
+        Worker w = crew.get(0);
+        int first = 0;
+        while (true) {
+            past += w.stoppedAt - w.segmentEnd;
+            if (w.next == null) {
+                results.addAll(w.results.subList(first, w.results.size()));
+                return new Outcome(results, crew.size(), handovers, past);
             }
-            results.addAll(current.results.subList(firstResult, current.outCounts[at]));
-            firstResult = next.inCounts[at];
-            current = next;
+            results.addAll(w.results.subList(first, w.resultsAtHandover));
+            first = w.next.counts[w.nextIndex];
+            w = w.next;
             handovers++;
         }
-        current.monitor.finish();
-        results.addAll(current.results.subList(firstResult, current.results.size()));
-        return new Outcome(results, crew.size(), handovers, 0);
-    }
-
-    /** The first overlap boundary (index) where both workers are idle in equal states, or -1. */
-    private static int handover(Worker earlier, Worker later) {
-        for (int k = 0; k < earlier.outStates.length && k < later.inStates.length; k++) {
-            JointMonitor.IdleState a = earlier.outStates[k];
-            if (a != null && a.equals(later.inStates[k])) {
-                return k;
-            }
-        }
-        return -1;
     }
 
     private static void runAll(List<Worker> crew) throws InterruptedException {
+        if (crew.size() == 1) {
+            crew.get(0).run();
+            return;
+        }
         ExecutorService pool = Executors.newFixedThreadPool(crew.size() - 1, r -> {
             Thread t = new Thread(r, "replay-segment");
             t.setDaemon(true);
@@ -168,7 +161,11 @@ public final class SplitReplay {
         return n / block * block;
     }
 
-    /** One monitor over {@code [from, to)}, noting its idle states in its incoming and outgoing overlaps. */
+    /**
+     * One monitor from {@code from}: primes up to {@code segmentStart}, notes its states at the
+     * first {@code noted} boundaries of its segment, then runs on past {@code segmentEnd} until it
+     * meets a later worker's noted state or the trace ends.
+     */
     private final class Worker implements Runnable {
         final Samples source;
         final JointMonitor monitor;
@@ -176,64 +173,87 @@ public final class SplitReplay {
         final float[] samples = new float[block];
         final double periodNs = 1e9 / rateHz;
         final long from;
-        final long to;
-        final long inFrom;
-        final JointMonitor.IdleState[] inStates;
-        final int[] inCounts;
-        final long outFrom;
-        final JointMonitor.IdleState[] outStates;
-        final int[] outCounts;
+        final long segmentStart;
+        final long segmentEnd;
+        final JointMonitor.IdleState[] states;
+        final int[] counts;
+        /** Boundaries noted so far; written by this worker, read by the one before it. */
+        volatile int published;
+        volatile boolean done;
 
-        /**
-         * @param inFrom  first boundary of the incoming overlap, {@code inLength} samples long
-         * @param outFrom first boundary of the outgoing overlap, or -1 for the last worker
-         */
-        Worker(Samples source, long from, long to, long inFrom, long inLength, long outFrom) {
+        List<Worker> crew;
+        int index;
+        long stoppedAt;
+        Worker next;
+        int nextIndex;
+        int resultsAtHandover;
+
+        Worker(Samples source, long from, long segmentStart, long segmentEnd, int noted) {
             this.source = source;
             this.monitor = new JointMonitor(program, conditioning, rateHz, block, results::add);
             this.from = from;
-            this.to = to;
-            this.inFrom = inFrom;
-            this.inStates = new JointMonitor.IdleState[(int) (inLength / block)];
-            this.inCounts = new int[inStates.length];
-            this.outFrom = outFrom;
-            int outBlocks = outFrom < 0 ? 0 : (int) ((to - outFrom) / block);
-            this.outStates = new JointMonitor.IdleState[outBlocks];
-            this.outCounts = new int[outBlocks];
+            this.segmentStart = segmentStart;
+            this.segmentEnd = segmentEnd;
+            this.states = new JointMonitor.IdleState[noted];
+            this.counts = new int[noted];
         }
 
         @Override
         public void run() {
-            feed(from, to, true);
-        }
-
-        /** Goes on alone from where {@link #run()} stopped to {@code end}. */
-        void continueTo(long end) {
-            feed(to, end, false);
-        }
-
-        private void feed(long start, long end, boolean noting) {
-            for (long s = start; s < end; s += block) {
-                if (noting) {
-                    note(s);
+            try {
+                long end = crew == null ? segmentEnd : crew.get(crew.size() - 1).segmentEnd;
+                for (long s = from; s < end; s += block) {
+                    if (s >= segmentEnd && meets(s)) {
+                        stoppedAt = s;
+                        return;
+                    }
+                    if (s >= segmentStart) {
+                        note(s);
+                    }
+                    int k = (int) Math.min(block, end - s);
+                    source.read(s, samples, k);
+                    monitor.onSamples(samples, 0, k, (long) (s * periodNs));
                 }
-                int k = (int) Math.min(block, end - s);
-                source.read(s, samples, k);
-                monitor.onSamples(samples, 0, k, (long) (s * periodNs));
+                stoppedAt = end;
+                monitor.finish();
+            } finally {
+                done = true;
+                published = states.length;
             }
         }
 
         private void note(long s) {
-            long i = (s - inFrom) / block;
-            if (s >= inFrom && i < inStates.length) {
-                inStates[(int) i] = monitor.idleState();
-                inCounts[(int) i] = results.size();
+            int i = (int) ((s - segmentStart) / block);
+            if (i < states.length) {
+                states[i] = monitor.idleState();
+                counts[i] = results.size();
+                published = i + 1;
             }
-            long o = (s - outFrom) / block;
-            if (outFrom >= 0 && s >= outFrom && o < outStates.length) {
-                outStates[(int) o] = monitor.idleState();
-                outCounts[(int) o] = results.size();
+        }
+
+        /** True when this worker's state at boundary {@code s} equals the one a later worker noted there. */
+        private boolean meets(long s) {
+            for (int j = crew.size() - 1; j > index; j--) {
+                Worker later = crew.get(j);
+                if (s >= later.segmentStart) {
+                    int i = (int) ((s - later.segmentStart) / block);
+                    if (i >= later.states.length) {
+                        return false;
+                    }
+                    while (later.published <= i && !later.done) {
+                        LockSupport.parkNanos(20_000);
+                    }
+                    JointMonitor.IdleState mine = monitor.idleState();
+                    if (i < later.published && mine != null && mine.equals(later.states[i])) {
+                        next = later;
+                        nextIndex = i;
+                        resultsAtHandover = results.size();
+                        return true;
+                    }
+                    return false;
+                }
             }
+            return false;
         }
     }
 }

@@ -11,6 +11,7 @@ import org.junit.jupiter.params.provider.ValueSource;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Random;
+import java.util.concurrent.CountDownLatch;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
@@ -50,10 +51,14 @@ class SplitReplayTest {
         return results;
     }
 
-    private static SplitReplay.Outcome split(float[] x, Conditioning c, int workers, double primeS, double handoverS)
+    private static SplitReplay.Outcome split(float[] x, Conditioning c, int workers, double primeS, double windowS)
             throws InterruptedException {
-        SplitReplay replay = new SplitReplay(PROGRAM, c, RATE, BLOCK, primeS, handoverS);
-        return replay.run((from, into, length) -> System.arraycopy(x, (int) from, into, 0, length), x.length, workers);
+        return split(x, c, workers, primeS, windowS, (from, into, length) -> System.arraycopy(x, (int) from, into, 0, length));
+    }
+
+    private static SplitReplay.Outcome split(float[] x, Conditioning c, int workers, double primeS, double windowS,
+                                             SplitReplay.Samples source) throws InterruptedException {
+        return new SplitReplay(PROGRAM, c, RATE, BLOCK, primeS, windowS).run(source, x.length, workers);
     }
 
     private static void assertSame(List<JointResult> actual, List<JointResult> expected) {
@@ -70,10 +75,9 @@ class SplitReplayTest {
     void noisyShift(int workers) throws InterruptedException {
         float[] x = shift(11 + workers, 400, 0.6, 0.05);
         Conditioning c = JointMonitor.replayConditioning(PROGRAM);
-        SplitReplay.Outcome out = split(x, c, workers, SplitReplay.PRIME_S, SplitReplay.HANDOVER_S);
+        SplitReplay.Outcome out = split(x, c, workers, SplitReplay.PRIME_S, SplitReplay.WINDOW_S);
         assertSame(out.results(), single(x, c));
         assertThat(out.handovers()).isEqualTo(workers - 1);
-        assertThat(out.fallbacks()).isZero();
     }
 
     @Test
@@ -81,18 +85,56 @@ class SplitReplayTest {
     void filtered() throws InterruptedException {
         float[] x = shift(5, 400, -0.4, 0.1);
         Conditioning c = JointMonitor.replayConditioning(PROGRAM).withLowPass(800).withFlatLine(50);
-        SplitReplay.Outcome out = split(x, c, 2, SplitReplay.PRIME_S, SplitReplay.HANDOVER_S);
+        SplitReplay.Outcome out = split(x, c, 2, SplitReplay.PRIME_S, SplitReplay.WINDOW_S);
         assertSame(out.results(), single(x, c));
         assertThat(out.handovers()).isEqualTo(1);
     }
 
     @Test
-    @DisplayName("a priming too short for the zero to agree: the first worker carries on alone, results identical")
-    void fallsBackWhenStatesNeverAgree() throws InterruptedException {
+    @DisplayName("no priming: the first worker runs on into the second segment until the zeros agree, results identical")
+    void runsOnUntilTheStatesAgree() throws InterruptedException {
+        float[] x = shift(7, 300, 0.8, 0.05);
+        Conditioning c = JointMonitor.replayConditioning(PROGRAM);
+        SplitReplay.Outcome out = split(x, c, 2, 0, SplitReplay.WINDOW_S);
+        assertThat(out.handovers()).isEqualTo(1);
+        assertThat(out.samplesPastSegments()).isPositive();
+        assertSame(out.results(), single(x, c));
+    }
+
+    @Test
+    @DisplayName("states never agree within the window: the first worker carries on to the end alone, results identical")
+    void carriesOnAloneWhenStatesNeverAgree() throws InterruptedException {
         float[] x = shift(7, 200, 0.8, 0.05);
         Conditioning c = JointMonitor.replayConditioning(PROGRAM);
-        SplitReplay.Outcome out = split(x, c, 2, 0.5, 2.0);
-        assertThat(out.fallbacks()).isEqualTo(1);
+        SplitReplay.Outcome out = split(x, c, 2, 0, 1.0);
+        assertThat(out.handovers()).isZero();
+        assertThat(out.samplesPastSegments()).isEqualTo(x.length - x.length / 2 / BLOCK * BLOCK);
+        assertSame(out.results(), single(x, c));
+    }
+
+    @Test
+    @DisplayName("a first worker that reaches the next segment before its states are noted waits for them")
+    void waitsForTheLaterWorker() throws InterruptedException {
+        float[] x = shift(13, 300, 0.5, 0.05);
+        Conditioning c = JointMonitor.replayConditioning(PROGRAM);
+        long cut = x.length / 2 / BLOCK * BLOCK;
+        CountDownLatch firstWorkerThere = new CountDownLatch(1);
+        // the second worker may not read anything until the first has finished its own segment
+        SplitReplay.Samples source = (from, into, length) -> {
+            if (from >= cut) {
+                firstWorkerThere.countDown();
+            }
+            if (Thread.currentThread().getName().equals("replay-segment")) {
+                try {
+                    firstWorkerThere.await();
+                } catch (InterruptedException e) {
+                    throw new IllegalStateException(e);
+                }
+            }
+            System.arraycopy(x, (int) from, into, 0, length);
+        };
+        SplitReplay.Outcome out = split(x, c, 2, 0, SplitReplay.WINDOW_S, source);
+        assertThat(out.handovers()).isEqualTo(1);
         assertSame(out.results(), single(x, c));
     }
 
@@ -101,7 +143,7 @@ class SplitReplayTest {
     void zeroAtLimit() throws InterruptedException {
         float[] x = shift(9, 300, 3.5, 0.05);
         Conditioning c = JointMonitor.replayConditioning(PROGRAM);
-        SplitReplay.Outcome out = split(x, c, 3, SplitReplay.PRIME_S, SplitReplay.HANDOVER_S);
+        SplitReplay.Outcome out = split(x, c, 3, SplitReplay.PRIME_S, SplitReplay.WINDOW_S);
         assertSame(out.results(), single(x, c));
         assertThat(out.handovers()).isEqualTo(2);
     }
@@ -111,18 +153,18 @@ class SplitReplayTest {
     void oneWorker() throws InterruptedException {
         float[] x = shift(3, 150, 0.2, 0.05);
         Conditioning c = JointMonitor.replayConditioning(PROGRAM);
-        SplitReplay.Outcome out = split(x, c, 1, SplitReplay.PRIME_S, SplitReplay.HANDOVER_S);
+        SplitReplay.Outcome out = split(x, c, 1, SplitReplay.PRIME_S, SplitReplay.WINDOW_S);
         assertSame(out.results(), single(x, c));
         assertThat(out.workers()).isEqualTo(1);
     }
 
     @Test
-    @DisplayName("segments shorter than four overlaps are not worth a worker")
+    @DisplayName("segments shorter than eight primings are not worth a worker")
     void workersFor() {
         SplitReplay replay = new SplitReplay(PROGRAM, JointMonitor.replayConditioning(PROGRAM), 50_000, 4096);
-        long overlap = (long) ((SplitReplay.PRIME_S + SplitReplay.HANDOVER_S) * 50_000);
-        assertThat(replay.workersFor(overlap, 2)).isEqualTo(1);
-        assertThat(replay.workersFor(9 * overlap, 2)).isEqualTo(2);
-        assertThat(replay.workersFor(50_000_000, 8)).isEqualTo(4);
+        long prime = (long) (SplitReplay.PRIME_S * 50_000);
+        assertThat(replay.workersFor(8 * prime, 2)).isEqualTo(1);
+        assertThat(replay.workersFor(17 * prime, 2)).isEqualTo(2);
+        assertThat(replay.workersFor(50_000_000, 8)).isEqualTo(6);
     }
 }

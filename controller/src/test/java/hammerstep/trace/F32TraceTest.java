@@ -39,6 +39,23 @@ class F32TraceTest {
     }
 
     @Test
+    void traceWriterWritesWhatF32TraceReads() throws Exception {
+        Path p = dir.resolve("w.f32");
+        float[] x = new float[10_000];
+        for (int i = 0; i < x.length; i++) {
+            x[i] = (float) Math.sin(i * 0.01) * 300f;
+        }
+        try (TraceWriter w = new TraceWriter(p, 50_000, java.util.Map.of("ignored", "in .f32"))) {
+            w.write(x, 0, 7000);
+            w.write(x, 7000, 3000);
+        }
+        F32Trace t = F32Trace.open(p);
+        float[] back = new float[x.length];
+        t.read(0, back, back.length);
+        assertThat(back).containsExactly(x);
+    }
+
+    @Test
     void refusesReadsPastTheEnd() throws Exception {
         F32Trace t = F32Trace.open(write(100), 64);
         assertThatThrownBy(() -> t.read(90, new float[20], 20)).isInstanceOf(IndexOutOfBoundsException.class);
