@@ -165,6 +165,7 @@ class SplitReplayTest {
         long prime = (long) (SplitReplay.PRIME_S * 50_000);
         assertThat(replay.workersFor(8 * prime, 2)).isEqualTo(1);
         assertThat(replay.workersFor(17 * prime, 2)).isEqualTo(2);
-        assertThat(replay.workersFor(50_000_000, 8)).isEqualTo(6);
+        assertThat(replay.workersFor(80 * prime, 8)).isEqualTo(8);
+        assertThat(replay.workersFor(41 * prime, 8)).isEqualTo(5);
     }
 }
