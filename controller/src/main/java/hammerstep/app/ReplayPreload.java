@@ -16,7 +16,7 @@ import hammerstep.results.JsonLines;
  *
  * <p>It is an optimisation only: any failure here is left for the real run to meet and report.
  */
-final class ReplayPreload {
+final class ReplayPreload implements Runnable {
 
     private static final String PROGRAM = """
             id: preload
@@ -29,12 +29,14 @@ final class ReplayPreload {
     }
 
     static void start() {
-        Thread t = new Thread(ReplayPreload::run, "replay-preload");
+        // a Runnable, not a method reference: the first lambda costs the main thread tens of ms
+        Thread t = new Thread(new ReplayPreload(), "replay-preload");
         t.setDaemon(true);
         t.start();
     }
 
-    static void run() {
+    @Override
+    public void run() {
         try {
             JointProgram program = ProgramFile.read(YamlDocument.parse("preload", PROGRAM));
             double rateHz = 10_000;
