@@ -8,9 +8,7 @@ import hammerstep.hardware.HardwareSections;
 import hammerstep.hardware.HardwareSettings;
 import hammerstep.hardware.TransducerSettings;
 import hammerstep.hardware.pi4j.Pi4jHardware;
-import hammerstep.results.MemoryOutbox;
-import hammerstep.results.OutboxResultSink;
-import hammerstep.results.ResultSink;
+import hammerstep.mqtt.ResultPublisher;
 import hammerstep.results.StationId;
 import hammerstep.sequence.Sequence;
 import hammerstep.signal.Conditioning;
@@ -19,6 +17,7 @@ import hammerstep.station.PartIdentitySource;
 import hammerstep.station.SampleRing;
 import hammerstep.station.StationClock;
 import hammerstep.station.SystemStationClock;
+import hammerstep.station.loop.CommandDesk;
 import hammerstep.station.loop.StationAgent;
 import hammerstep.station.loop.StationListener;
 import hammerstep.station.loop.StationPorts;
@@ -51,7 +50,9 @@ import java.util.concurrent.atomic.AtomicLong;
  * {@code hammerstep run}: the station service. Reads the station file, opens the hardware (the
  * Raspberry Pi's GPIO and SPI, or Pi4J's mock GPIO with a simulated ADC), runs the acquisition and
  * the station loop on their own threads until stopped (SIGTERM, Ctrl-C) or {@code --exit-after}.
- * Stopping drops the tool enable relay and switches every lamp off.
+ * Results go to the outbox journal of {@code storage:} and, with a {@code broker:} section, to the
+ * plant's MQTT broker, which also brings the plant's commands ({@link CommandDesk}). Stopping drops
+ * the tool enable relay, switches every lamp off, publishes the offline status and closes the journal.
  */
 @Command(name = "run", mixinStandardHelpOptions = true,
         description = {"Runs the station on its hardware until stopped.",
@@ -88,13 +89,19 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
             throw new UserError(hardware.config + ": " + mismatch);
         }
         StationClock clock = new SystemStationClock();
-        try (Pi4jHardware io = hardware.open(new HardwareConfig(hw, td), clock::nanoTime)) {
-            return run(station, io, hw, td, clock);
+        StationId id = station.get(IdentitySection.INSTANCE);
+        java.nio.file.Path file = hardware.config;
+        CommandDesk desk = new CommandDesk(() -> StationFile.load(file, StationSections.all())
+                .get(PartsSection.INSTANCE).byModel());
+        try (ResultDelivery delivery = ResultDelivery.open(id, station.get(StationSections.STORAGE),
+                station.get(StationSections.BROKER), desk, new Version().getVersion()[0]);
+             Pi4jHardware io = hardware.open(new HardwareConfig(hw, td), clock::nanoTime)) {
+            return run(station, io, hw, td, clock, delivery, desk);
         }
     }
 
     private int run(StationConfig station, Pi4jHardware io, HardwareSettings hw, TransducerSettings td,
-                    StationClock clock) throws InterruptedException {
+                    StationClock clock, ResultDelivery delivery, CommandDesk desk) throws InterruptedException {
         StationId id = station.get(IdentitySection.INSTANCE);
         PartsSection.Parts parts = station.get(PartsSection.INSTANCE);
         TimingSection.Timing timing = station.has(TimingSection.INSTANCE) ? station.get(TimingSection.INSTANCE)
@@ -102,18 +109,18 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         SampleRing ring = new SampleRing(hw.adc().rateHz(), hw.adc().blockSamples(), RING_BLOCKS);
         Acquisition acquisition = new Acquisition(io.adc(), io.dataReady(), clock::nanoTime, io.calibration(),
                 td.zeroCounts(), ring);
-        ResultSink sink = new OutboxResultSink(new MemoryOutbox(), id);
         Sequence sequence = new Sequence(clock, new Sequence.Settings(td.serial(), td.calibrationDue(),
                 timing.completeHoldMs()), !hw.confirm().isEmpty());
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);
         AtomicLong errors = new AtomicLong();
-        StationAgent agent = new StationAgent(clock, ports, sink, sequence, parts.byModel(), conditioning(td),
+        StationAgent agent = new StationAgent(clock, ports, delivery.sink(), sequence, parts.byModel(), conditioning(td),
                 (long) (timing.blinkPeriodMs() * 1e6), StationListener.NONE, t -> {
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);
                 });
         StationExtras.attach(agent, station, hw.adc().rateHz());
+        agent.takeCommands(desk);
         IdleStrategy idle = io.isMock() ? new BackoffIdleStrategy(100, 10, 1_000, 10_000) : new BusySpinIdleStrategy();
         AgentRunner acquisitionRunner = new AgentRunner(idle, t -> {
             errors.incrementAndGet();
@@ -124,7 +131,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         Thread hook = new Thread(() -> {
             stop.countDown();
             try {
-                stopped.await(5, TimeUnit.SECONDS);
+                stopped.await(10, TimeUnit.SECONDS); // the offline status may take a few seconds
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
             }
@@ -139,6 +146,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         try (StationRunner stationRunner = new StationRunner(agent)) {
             AgentRunner.startOnThread(acquisitionRunner);
             stationRunner.start();
+            delivery.start();
             identities.start();
             long endNs = exitAfterS > 0 ? clock.nanoTime() + (long) (exitAfterS * 1e9) : Long.MAX_VALUE;
             long statusNs = (long) (Math.max(1, statusEveryS) * 1e9);
@@ -148,11 +156,12 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
                         || (exitAfterS > 0 && endNs - clock.nanoTime() <= 0)) {
                     break; // the closing status line follows
                 }
-                logStatus(acquisition, errors.get());
+                logStatus(acquisition, delivery, errors.get());
             }
         } finally {
             acquisitionRunner.close();
-            logStatus(acquisition, errors.get());
+            logStatus(acquisition, delivery, errors.get());
+            delivery.close(); // after the station loop: offline status, clean disconnect, journal closed
             stopped.countDown();
             if (exitAfterS > 0) {
                 try {
@@ -171,9 +180,12 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         return new Conditioning(0.01 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0);
     }
 
-    private static void logStatus(Acquisition a, long errors) {
-        LOG.info("status: {} samples, {} missed, {} blocks dropped, {} errors", a.samples(), a.missedSamples(),
-                a.droppedBlocks(), errors);
+    private static void logStatus(Acquisition a, ResultDelivery d, long errors) {
+        ResultPublisher.Figures f = d.figures();
+        LOG.info("status: {} samples, {} missed, {} blocks dropped, {} errors; results: {} not yet delivered{}",
+                a.samples(), a.missedSamples(), a.droppedBlocks(), errors, d.outbox().backlog(),
+                f == null ? " (no broker)" : f.connected() ? ", broker connected, " + f.acknowledged() + " acknowledged"
+                        : ", broker not connected");
     }
 
     private static String fmt(double v) {

@@ -49,12 +49,6 @@ public final class Sequence {
     public record Settings(String transducerSerial, LocalDate calibrationDue, double completeHoldMs) {
     }
 
-    private static final byte NOT_IN_PASS = 0;
-    private static final byte PENDING = 1;
-    private static final byte DONE = 2;
-    private static final byte FAILED = 3;
-    private static final byte SKIPPED = 4;
-
     private final StationClock clock;
     private final Settings settings;
     private final boolean confirmSensors;
@@ -68,13 +62,9 @@ public final class Sequence {
     private PartIdentity part;
     private Pattern pattern;
     private Instant partStarted;
-    private final List<String> jointIds = new ArrayList<>();
-    private boolean partFailed;
+    private final PartProgress progress = new PartProgress();
     private boolean abandonAfterStore;
     private int passIndex;
-    private byte[] status = new byte[0];
-    private int[] attempts = new int[0];
-    private boolean[] leftOut = new boolean[0];
 
     private int prompted = -1;
     private int reworkPosition = -1;
@@ -128,13 +118,8 @@ public final class Sequence {
         this.part = identity;
         this.pattern = pattern;
         this.partStarted = clock.instantOf(nowNs);
-        this.jointIds.clear();
-        this.partFailed = false;
         this.abandonAfterStore = false;
-        int n = pattern.size();
-        this.status = new byte[n];
-        this.attempts = new int[n];
-        this.leftOut = new boolean[n];
+        this.progress.startPart(pattern.size());
         this.passIndex = 0;
         this.lastVerdict = null;
         startPass(nowNs);
@@ -155,10 +140,35 @@ public final class Sequence {
         }
     }
 
+    /**
+     * The plant ended the part in work ({@code cmd/end-part}): a {@code PART_ENDED} notice with the
+     * reason, then the part is stored as abandoned, as if it had left the fixture (a rundown under
+     * way is judged and stored first, the tool drops at once; a rejected part ends as rejected).
+     *
+     * @return null when the part was ended, else why not: {@code NO_PART} or {@code FAULT}
+     */
+    public String endPart(String reason, long nowNs) {
+        if (phase == Phase.FAULT) {
+            return "FAULT";
+        }
+        if (part == null || phase == Phase.COMPLETE || abandonAfterStore) {
+            return "NO_PART";
+        }
+        event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: " + reason,
+                part.serial(), nowNs);
+        if (phase == Phase.REJECTED) {
+            toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+            clearPart();
+        } else {
+            partRemoved(nowNs);
+        }
+        return null;
+    }
+
     /** A rundown began (reported by the joint monitor at its first sample). */
     public void rundownStarted(long nowNs) {
         if (effective() == Phase.PROMPT) {
-            rundownPosition = confirmSensors && toolAt >= 0 && toolAt < status.length ? toolAt : prompted;
+            rundownPosition = confirmSensors && toolAt >= 0 && toolAt < progress.size() ? toolAt : prompted;
             go(Phase.RUNDOWN);
             shutoffSeen = false;
             lastVerdict = null;
@@ -188,18 +198,16 @@ public final class Sequence {
         int pos = rundownPosition;
         JointResult r = result;
         if (pos != prompted) {
-            r = withReason(result, status[pos] == DONE ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
-            event(StationEvent.Severity.ALARM, status[pos] == DONE ? "REHIT" : "OUT_OF_SEQUENCE",
+            boolean rehit = progress.done(pos);
+            r = withReason(result, rehit ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
+            event(StationEvent.Severity.ALARM, rehit ? "REHIT" : "OUT_OF_SEQUENCE",
                     "rundown on position " + label(pos) + " while " + label(prompted) + " was prompted",
                     part.serial(), nowNs);
         }
-        if (status[pos] == NOT_IN_PASS || status[pos] == SKIPPED) {
-            status[pos] = PENDING;
-        }
-        attempts[pos]++;
+        int attempt = progress.countAttempt(pos);
         Pattern.Pass pass = pass();
         toStore.add(new Store.Joint(new JointOutcome(part.serial(), part.model(), pattern.id(),
-                pattern.positions().get(pos), pos + 1, pass.name(), attempts[pos], r,
+                pattern.positions().get(pos), pos + 1, pass.name(), attempt, r,
                 settings.transducerSerial(), settings.calibrationDue(), clock.instantOf(nowNs), null)));
         judgedPosition = pos;
         judgedVerdict = r.verdict();
@@ -298,7 +306,7 @@ public final class Sequence {
     public void stored(ResultSink.Receipt receipt, long nowNs) {
         Store done = toStore.poll();
         if (done instanceof Store.Joint) {
-            jointIds.add(receipt.id());
+            progress.jointStored(receipt.id());
             if (phase == Phase.STORING) {
                 applyVerdict(nowNs);
             }
@@ -321,18 +329,17 @@ public final class Sequence {
     }
 
     public LampMode positionLamp(int index) {
-        if (part == null || index >= status.length) {
+        if (part == null || index >= progress.size()) {
             return LampMode.OFF;
         }
         Phase p = phase == Phase.FAULT ? resumeAfterFault : phase;
         switch (p) {
             case PROMPT, RUNDOWN, STORING:
-                return index == prompted ? LampMode.BLINKING : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+                return progress.workingLamp(index, prompted);
             case REWORK:
-                return index == reworkPosition ? LampMode.BLINKING : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+                return progress.workingLamp(index, reworkPosition);
             case REJECTED:
-                return status[index] == FAILED || leftOut[index] ? LampMode.BLINKING
-                        : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+                return progress.rejectedLamp(index);
             case COMPLETE:
                 return LampMode.STEADY;
             default:
@@ -410,17 +417,17 @@ public final class Sequence {
 
     /** Rundowns so far on {@code position} in the current pass. */
     public int attempts(int position) {
-        return position < attempts.length ? attempts[position] : 0;
+        return progress.attempts(position);
     }
 
     /** True when {@code position} is done (GO) in the current pass. */
     public boolean done(int position) {
-        return position < status.length && status[position] == DONE;
+        return progress.done(position);
     }
 
     /** True once some position of the part has failed for good: the part cannot end GO. */
     public boolean partFailed() {
-        return partFailed;
+        return progress.partFailed();
     }
 
     // ---- inside ----------------------------------------------------------------------------
@@ -439,25 +446,16 @@ public final class Sequence {
     }
 
     private void startPass(long nowNs) {
-        Pattern.Pass pass = pass();
-        java.util.Arrays.fill(status, NOT_IN_PASS);
-        java.util.Arrays.fill(attempts, 0);
-        for (int k = 0; k < pass.orderLength(); k++) {
-            int pos = pass.orderAt(k);
-            status[pos] = leftOut[pos] ? SKIPPED : PENDING;
-        }
+        progress.startPass(pass());
         advance(nowNs);
     }
 
     private void advance(long nowNs) {
-        Pattern.Pass pass = pass();
-        for (int k = 0; k < pass.orderLength(); k++) {
-            int pos = pass.orderAt(k);
-            if (status[pos] == PENDING) {
-                prompted = pos;
-                phase = Phase.PROMPT;
-                return;
-            }
+        int next = progress.nextPending(pass());
+        if (next >= 0) {
+            prompted = next;
+            phase = Phase.PROMPT;
+            return;
         }
         prompted = -1;
         if (passIndex + 1 < pattern.passes().size()) {
@@ -465,7 +463,7 @@ public final class Sequence {
             startPass(nowNs);
             return;
         }
-        if (partFailed) {
+        if (progress.partFailed()) {
             phase = Phase.REJECTED;
             return;
         }
@@ -478,7 +476,7 @@ public final class Sequence {
         int pos = judgedPosition;
         lastVerdict = judgedVerdict;
         if (judgedVerdict == Verdict.GO) {
-            status[pos] = DONE;
+            progress.passed(pos);
             if (abandonAfterStore) {
                 abandon(nowNs);
             } else {
@@ -488,25 +486,20 @@ public final class Sequence {
         }
         Pattern.Pass pass = pass();
         reworkPosition = pos;
-        if (attempts[pos] < pass.attempts()) {
-            status[pos] = PENDING;
+        int tried = progress.attempts(pos);
+        if (tried < pass.attempts()) {
+            progress.retry(pos);
             reworkRetry = true;
         } else {
-            status[pos] = FAILED;
-            partFailed = true;
+            progress.failed(pos, pass.afterNoGo() == AfterNoGo.SKIP_POSITION);
             reworkRetry = false;
             event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO-GO after "
-                    + attempts[pos] + (attempts[pos] == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
+                    + tried + (tried == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
                     part.serial(), nowNs);
-            if (pass.afterNoGo() == AfterNoGo.SKIP_POSITION) {
-                leftOut[pos] = true;
-            }
             if (pass.afterNoGo() == AfterNoGo.REJECT) {
                 prompted = -1;
                 phase = Phase.REJECTED;
-                if (abandonAfterStore) {
-                    abandonAfterStore = false;
-                }
+                abandonAfterStore = false; // a rejected part still needs the key, taken out or not
                 return;
             }
         }
@@ -544,7 +537,7 @@ public final class Sequence {
     }
 
     private PartOutcome partOutcome(String verdict, String ended, long nowNs) {
-        return new PartOutcome(part.serial(), part.model(), pattern.id(), verdict, ended, jointIds,
+        return new PartOutcome(part.serial(), part.model(), pattern.id(), verdict, ended, progress.jointIds(),
                 partStarted, clock.instantOf(nowNs));
     }
 

@@ -25,8 +25,11 @@ class HardwareCommandsTest {
     }
 
     @Test
-    void runOnMockHardwareEndsAfterTheBoundedTime() {
-        Captured run = Captured.run("run", "--config", STATION, "--hardware", "mock", "--exit-after", "0.5");
+    void runOnMockHardwareEndsAfterTheBoundedTime(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws Exception {
+        // a copy whose journal is in dir: the example's /var/lib/hammerstep is for a real station
+        Captured run = Captured.run("run", "--config", RunDeliveryTest.station(dir, "").toString(),
+                "--hardware", "mock", "--exit-after", "0.5");
 
         assertThat(run.exit()).isZero();
         assertThat(run.err()).isEmpty();

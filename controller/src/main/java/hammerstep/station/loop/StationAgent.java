@@ -49,13 +49,15 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private final StationPorts ports;
     private final ResultSink sink;
     private final Sequence sequence;
-    private final Map<String, Pattern> patternsByModel;
-    private final Map<JointProgram, JointMonitor> monitors = new HashMap<>();
-    private final JointMonitor watch;
+    private Map<String, Pattern> patternsByModel;
+    private Map<JointProgram, JointMonitor> monitors = new HashMap<>();
+    private JointMonitor watch;
+    private final Conditioning conditioning;
     private final LampDriver lampDriver;
     private final StationListener listener;
     private final ErrorHandler errorHandler;
 
+    private CommandDesk commands;
     private TraceKeeper traces;
     private ToolHealth toolHealth;
     private String toolName = "tool";
@@ -91,24 +93,14 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         this.patternsByModel = new LinkedHashMap<>(patternsByModel);
         this.listener = listener;
         this.errorHandler = errorHandler;
-        double rate = ports.torque().rateHz();
-        int block = ports.torque().maxBlockLength();
-        JointMonitor first = null;
-        for (Pattern pattern : this.patternsByModel.values()) {
-            if (pattern.size() > ports.lamps().positionLamps()) {
-                throw new IllegalArgumentException("pattern " + pattern.id() + " has " + pattern.size()
-                        + " positions but the station has " + ports.lamps().positionLamps() + " position lamps");
-            }
-            for (Pattern.Pass pass : pattern.passes()) {
-                JointMonitor m = monitors.computeIfAbsent(pass.program(),
-                        p -> new JointMonitor(p, conditioning, rate, block, this));
-                if (first == null) {
-                    first = m;
-                }
-            }
+        this.conditioning = conditioning;
+        String problem = lampProblem(this.patternsByModel);
+        if (problem != null) {
+            throw new IllegalArgumentException(problem);
         }
-        this.watch = first;
-        this.current = first;
+        this.monitors = monitorsFor(this.patternsByModel, Map.of());
+        this.watch = monitors.get(firstProgram(this.patternsByModel));
+        this.current = watch;
         this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
         ports.tool().set(false);
     }
@@ -132,7 +124,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     private int cycle() {
         nowNs = clock.nanoTime();
-        int work = pollInputs();
+        sequence.storage(sink.storage()); // fresh before a part may start (commands, inputs)
+        int work = commands == null ? 0 : commands.serve(this, nowNs);
+        work += pollInputs();
         selectMonitor();
         work += ports.torque().poll(this, MAX_BLOCKS_PER_CYCLE);
         work += drainStores();
@@ -359,6 +353,85 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     @Override
     public void onClose() {
         safeOff();
+        if (commands != null) {
+            commands.close();
+        }
+    }
+
+    // ---- the plant's commands (CommandDesk, on this thread) --------------------------------------
+
+    /** Takes the plant's commands from {@code desk} at the start of every cycle. Call before the agent runs. */
+    public void takeCommands(CommandDesk desk) {
+        this.commands = desk;
+    }
+
+    Map<String, Pattern> patterns() {
+        return patternsByModel;
+    }
+
+    ResultSink.Storage storage() {
+        return sink.storage();
+    }
+
+    boolean partPresent() {
+        OperatorInputs in = ports.inputs();
+        return !in.hasPartPresent() || in.partPresent();
+    }
+
+    boolean inRundown() {
+        return current.inRundown();
+    }
+
+    /** A part named by the plant: started as a scanned one is, once it is in the fixture. */
+    void identify(PartIdentity identity) {
+        waitingIdentity = identity;
+    }
+
+    /**
+     * Puts reloaded patterns in place (no part in work, no rundown under way): a program unchanged
+     * keeps its monitor, a new or changed one gets a new monitor.
+     *
+     * @return null when done, else why nothing changed
+     */
+    String replacePatterns(Map<String, Pattern> next) {
+        String problem = lampProblem(next);
+        if (problem != null) {
+            return problem;
+        }
+        patternsByModel = new LinkedHashMap<>(next);
+        monitors = monitorsFor(patternsByModel, monitors);
+        watch = monitors.get(firstProgram(patternsByModel));
+        current = watch;
+        return null;
+    }
+
+    private String lampProblem(Map<String, Pattern> patterns) {
+        for (Pattern pattern : patterns.values()) {
+            if (pattern.size() > ports.lamps().positionLamps()) {
+                return "pattern " + pattern.id() + " has " + pattern.size() + " positions but the station has "
+                        + ports.lamps().positionLamps() + " position lamps";
+            }
+        }
+        return null;
+    }
+
+    private Map<JointProgram, JointMonitor> monitorsFor(Map<String, Pattern> patterns,
+                                                        Map<JointProgram, JointMonitor> before) {
+        double rate = ports.torque().rateHz();
+        int block = ports.torque().maxBlockLength();
+        Map<JointProgram, JointMonitor> next = new HashMap<>();
+        for (Pattern pattern : patterns.values()) {
+            for (Pattern.Pass pass : pattern.passes()) {
+                JointMonitor kept = before.get(pass.program());
+                next.computeIfAbsent(pass.program(),
+                        p -> kept != null ? kept : new JointMonitor(p, conditioning, rate, block, this));
+            }
+        }
+        return next;
+    }
+
+    private static JointProgram firstProgram(Map<String, Pattern> patterns) {
+        return patterns.values().iterator().next().passes().get(0).program();
     }
 
     public Sequence sequence() {

@@ -5,6 +5,7 @@ import hammerstep.mqtt.ResultPublisher;
 import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.paho.PahoLink;
 import hammerstep.mqtt.paho.QualityClient;
+import hammerstep.results.MessageSchemas;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;

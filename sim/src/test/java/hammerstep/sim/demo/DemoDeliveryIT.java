@@ -2,7 +2,7 @@ package hammerstep.sim.demo;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import hammerstep.sim.broker.MessageSchemas;
+import hammerstep.results.MessageSchemas;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
