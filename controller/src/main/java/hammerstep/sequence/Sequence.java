@@ -8,6 +8,7 @@ import hammerstep.results.JointOutcome;
 import hammerstep.results.PartOutcome;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StationEvent;
+import hammerstep.results.UnfinishedPart;
 import hammerstep.station.LampMode;
 import hammerstep.station.OperatorInputs;
 import hammerstep.station.PartIdentity;
@@ -61,6 +62,8 @@ public final class Sequence {
 
     private PartIdentity part;
     private Pattern pattern;
+    private String patternId;
+    private String rejectedAs = "REJECTED";
     private Instant partStarted;
     private final PartProgress progress = new PartProgress();
     private boolean abandonAfterStore;
@@ -117,6 +120,8 @@ public final class Sequence {
         }
         this.part = identity;
         this.pattern = pattern;
+        this.patternId = pattern.id();
+        this.rejectedAs = "REJECTED";
         this.partStarted = clock.instantOf(nowNs);
         this.abandonAfterStore = false;
         this.progress.startPart(pattern.size());
@@ -124,6 +129,34 @@ public final class Sequence {
         this.lastVerdict = null;
         startPass(nowNs);
         return true;
+    }
+
+    /**
+     * At start: the station stopped (power cut, kill) while {@code unfinished} was in work; its joints
+     * are stored but it has no part record. Nothing resumes: the tool stays off, red blinks, an alarm
+     * names the part, and a scan starts nothing until the supervisor key closes the part with a
+     * part record {@code NO_GO}, ended {@code INTERRUPTED}, listing the joints stored before the stop.
+     * Call before any other event.
+     */
+    public void partInterrupted(UnfinishedPart unfinished, long nowNs) {
+        if (phase != Phase.WAITING || part != null) {
+            throw new IllegalStateException("an interrupted part is taken over at start, before any other part");
+        }
+        part = new PartIdentity(unfinished.partSerial(), unfinished.partModel());
+        pattern = null;
+        patternId = unfinished.pattern();
+        partStarted = null;
+        progress.startPart(0);
+        for (String id : unfinished.jointIds()) {
+            progress.jointStored(id);
+        }
+        prompted = -1;
+        rejectedAs = "INTERRUPTED";
+        phase = Phase.REJECTED;
+        int n = unfinished.jointIds().size();
+        event(StationEvent.Severity.ALARM, "PART_INTERRUPTED", "part " + part.serial() + " was in work when the"
+                + " station stopped (" + n + (n == 1 ? " joint" : " joints") + " stored, no part record): check it,"
+                + " then turn the supervisor key to close it as INTERRUPTED", part.serial(), nowNs);
     }
 
     /**
@@ -157,7 +190,7 @@ public final class Sequence {
         event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: " + reason,
                 part.serial(), nowNs);
         if (phase == Phase.REJECTED) {
-            toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+            toStore.add(new Store.Part(partOutcome("NO_GO", rejectedAs, nowNs)));
             clearPart();
         } else {
             partRemoved(nowNs);
@@ -237,7 +270,7 @@ public final class Sequence {
         switch (phase) {
             case REWORK -> releaseRework("supervisor", nowNs);
             case REJECTED -> {
-                toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+                toStore.add(new Store.Part(partOutcome("NO_GO", rejectedAs, nowNs)));
                 clearPart();
             }
             case FAULT -> phase = resumeAfterFault;
@@ -530,6 +563,8 @@ public final class Sequence {
     private void clearPart() {
         part = null;
         pattern = null;
+        patternId = null;
+        rejectedAs = "REJECTED";
         prompted = -1;
         reworkPosition = -1;
         abandonAfterStore = false;
@@ -537,7 +572,7 @@ public final class Sequence {
     }
 
     private PartOutcome partOutcome(String verdict, String ended, long nowNs) {
-        return new PartOutcome(part.serial(), part.model(), pattern.id(), verdict, ended, progress.jointIds(),
+        return new PartOutcome(part.serial(), part.model(), patternId, verdict, ended, progress.jointIds(),
                 partStarted, clock.instantOf(nowNs));
     }
 

@@ -47,6 +47,11 @@ public class ForwardingOutbox implements Outbox {
     }
 
     @Override
+    public List<Entry> unfinishedPartJoints() {
+        return inner.unfinishedPartJoints();
+    }
+
+    @Override
     public void close() {
         inner.close();
     }

@@ -47,6 +47,8 @@ public final class FileOutbox implements Outbox {
     private final FileLock lock;
     private final List<SegmentFile> segments = new ArrayList<>();
     private final TreeMap<Long, Loc> pending = new TreeMap<>();
+    private final TreeMap<Long, Loc> jointsAfterLastPart = new TreeMap<>();
+    private List<Entry> unfinishedPartJoints = List.of();
     private final long[] nextSeq = new long[MessageKind.values().length];
     private final CRC32C crc = new CRC32C();
     private ByteBuffer out = ByteBuffer.allocate(64 * 1024);
@@ -95,7 +97,7 @@ public final class FileOutbox implements Outbox {
 
     // ---- recovery --------------------------------------------------------------------------------
 
-    private void recover() throws IOException {
+    private void recover() throws IOException, ResultStoreException {
         List<Long> numbers = SegmentFile.numbersIn(settings.dir());
         List<String> notes = new ArrayList<>();
         Index index = new Index();
@@ -122,6 +124,12 @@ public final class FileOutbox implements Outbox {
         }
         refreshStorage();
         recovery = new Recovery(numbers.size(), records, pending.size(), torn, notes);
+        List<Entry> unfinished = new ArrayList<>(jointsAfterLastPart.size());
+        for (Map.Entry<Long, Loc> e : jointsAfterLastPart.entrySet()) {
+            unfinished.add(read(e.getKey(), e.getValue()));
+        }
+        unfinishedPartJoints = List.copyOf(unfinished);
+        jointsAfterLastPart.clear();
     }
 
     /** Rebuilds the counters and the index of undelivered results from the records a scan finds. */
@@ -137,7 +145,13 @@ public final class FileOutbox implements Outbox {
         @Override
         public void result(SegmentFile seg, long position, MessageKind kind, long seq, String id, int payloadAt,
                            int payloadLength) {
-            pending.put(position, new Loc(seg, payloadAt, payloadLength, kind, seq, id));
+            Loc loc = new Loc(seg, payloadAt, payloadLength, kind, seq, id);
+            pending.put(position, loc);
+            if (kind == MessageKind.PART) {
+                jointsAfterLastPart.clear();
+            } else if (kind == MessageKind.JOINT) {
+                jointsAfterLastPart.put(position, loc);
+            }
             seg.pending++;
             nextPosition = Math.max(nextPosition, position + 1);
             nextSeq[kind.ordinal()] = Math.max(nextSeq[kind.ordinal()], seq + 1);
@@ -270,17 +284,20 @@ public final class FileOutbox implements Outbox {
             if (list.size() == max) {
                 break;
             }
-            Loc loc = e.getValue();
-            byte[] payload = new byte[loc.length];
-            try {
-                loc.segment.read(loc.payloadAt, ByteBuffer.wrap(payload));
-            } catch (IOException ex) {
-                throw new ResultStoreException("cannot read " + loc.kind.topic() + " " + loc.seq + ": "
-                        + ex.getMessage(), ex);
-            }
-            list.add(new Entry(e.getKey(), loc.kind, loc.seq, loc.id, payload));
+            list.add(read(e.getKey(), e.getValue()));
         }
         return list;
+    }
+
+    private static Entry read(long position, Loc loc) throws ResultStoreException {
+        byte[] payload = new byte[loc.length];
+        try {
+            loc.segment.read(loc.payloadAt, ByteBuffer.wrap(payload));
+        } catch (IOException ex) {
+            throw new ResultStoreException("cannot read " + loc.kind.topic() + " " + loc.seq + ": "
+                    + ex.getMessage(), ex);
+        }
+        return new Entry(position, loc.kind, loc.seq, loc.id, payload);
     }
 
     @Override
@@ -296,6 +313,11 @@ public final class FileOutbox implements Outbox {
     @Override
     public synchronized Recovery recovery() {
         return recovery;
+    }
+
+    @Override
+    public synchronized List<Entry> unfinishedPartJoints() {
+        return unfinishedPartJoints;
     }
 
     /** Bytes the journal's segment files take now. */

@@ -4,6 +4,7 @@ import hammerstep.joint.JointMonitor;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.sequence.Phase;
 import hammerstep.sequence.Sequence;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.SampleRing;
@@ -24,8 +25,8 @@ import static hammerstep.station.loop.StationFixture.RATE;
 /**
  * A station that works part after part in virtual time on a file outbox in the folder given as
  * the first argument, forcing every result to disk, until it is killed. {@link StationKillIT} runs
- * it in a child JVM and kills it with SIGKILL at random moments. Prints {@code started} once the
- * outbox is open.
+ * it in a child JVM and kills it with SIGKILL at random moments. A part found interrupted at start
+ * is closed with the supervisor key first. Prints {@code started} once that is stored.
  */
 public final class KillableStation {
 
@@ -38,15 +39,26 @@ public final class KillableStation {
                 () -> Long.MAX_VALUE);
         Fakes.Relay tool = new Fakes.Relay();
         Fakes.Scanner scanner = new Fakes.Scanner();
+        Fakes.Inputs inputs = new Fakes.Inputs();
         SampleRing ring = new SampleRing(RATE, BLOCK, 16);
         VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
         StationAgent agent = new StationAgent(clock, new StationPorts(ring, new Fakes.RecordingLamps(4), tool,
-                new Fakes.Inputs(), scanner), new OutboxResultSink(outbox, ID),
+                inputs, scanner), new OutboxResultSink(outbox, ID),
                 new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
                 JointMonitor.replayConditioning(FINAL), 1_000_000_000L, StationListener.NONE, t -> {
                     t.printStackTrace();
                     System.exit(3);
                 });
+        if (agent.sequence().phase() == Phase.REJECTED) {
+            // a part was in work at the last kill: the supervisor checks it and turns the key
+            agent.doWork();
+            inputs.key = true;
+            clock.advanceNs(BLOCK_NS);
+            agent.doWork();
+            inputs.key = false;
+            clock.advanceNs(BLOCK_NS);
+            agent.doWork();
+        }
         System.out.println("started");
         System.out.flush();
         float[] block = new float[BLOCK];

@@ -194,6 +194,45 @@ class StationJournalFaultTest {
         assertThat(box.pending(0, 100).stream().filter(e -> e.kind() == MessageKind.PART)).hasSize(1);
     }
 
+    @Test
+    void aPartInWorkWhenTheStationStoppedIsMarkedInterruptedAndNeedsTheSupervisorBeforeTheNextPart() throws Exception {
+        try (FileOutbox box = openJournal()) {
+            start(box);
+            station.scanner.queue.add(new PartIdentity("SN-30", "M"));
+            station.cycle();
+            station.tighten(); // one of two positions done, then the power goes
+            assertThat(box.pending(0, 100)).extracting(Outbox.Entry::kind).containsExactly(MessageKind.JOINT);
+        }
+        try (FileOutbox box = openJournal()) {
+            start(box);
+            assertThat(station.tool.enabled).isFalse();
+            assertThat(station.agent.sequence().tower(TowerLamp.RED)).isEqualTo(LampMode.BLINKING);
+            assertThat(station.agent.sequence().tower(TowerLamp.WHITE)).isEqualTo(LampMode.OFF);
+            station.scanner.queue.add(new PartIdentity("SN-31", "M"));
+            station.cycle();
+            assertThat(station.agent.sequence().part().serial()).as("no new part before the key").isEqualTo("SN-30");
+            station.inputs.key = true;
+            station.cycle();
+            station.inputs.key = false;
+            station.cycle();
+            List<Outbox.Entry> all = box.pending(0, 100);
+            assertThat(all).extracting(Outbox.Entry::kind).containsExactly(MessageKind.JOINT, MessageKind.EVENT,
+                    MessageKind.EVENT, MessageKind.PART);
+            for (Outbox.Entry e : all) {
+                hammerstep.results.MessageSchemas.assertValid(e.payload());
+            }
+            String part = new String(all.get(3).payload(), java.nio.charset.StandardCharsets.UTF_8);
+            assertThat(part).contains("\"part_serial\":\"SN-30\"", "\"verdict\":\"NO_GO\"",
+                    "\"ended\":\"INTERRUPTED\"", "\"joints\":[\"" + all.get(0).id() + "\"]");
+            assertThat(station.events).extracting(hammerstep.results.StationEvent::code).contains("PART_INTERRUPTED", "IDENTITY_IGNORED");
+            onePart("SN-32");
+            assertThat(box.pending(0, 100).stream().filter(e -> e.kind() == MessageKind.PART)).hasSize(2);
+        }
+        try (FileOutbox box = openJournal()) {
+            assertThat(box.unfinishedPartJoints()).as("closed: nothing to mark at the next start").isEmpty();
+        }
+    }
+
     /** An in-memory outbox whose appends can be made to fail. */
     private static final class FailingOutbox extends ForwardingOutbox {
         boolean failing;
