@@ -16,7 +16,11 @@ public final class Cli {
     }
 
     public static CommandLine commandLine(Object command) {
-        CommandLine cl = new CommandLine(command);
+        return configure(new CommandLine(command));
+    }
+
+    /** Applies the shared behaviour to {@code cl} and the subcommands it holds already. */
+    public static CommandLine configure(CommandLine cl) {
         cl.setCaseInsensitiveEnumValuesAllowed(true);
         cl.setExecutionExceptionHandler(Cli::handle);
         cl.setParameterExceptionHandler((ex, args) -> {

@@ -7,9 +7,11 @@ import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
 import hammerstep.joint.ProgramFile;
+import hammerstep.joint.SplitReplay;
 import hammerstep.results.JointFields;
 import hammerstep.results.JsonLines;
 import hammerstep.signal.Conditioning;
+import hammerstep.trace.F32Trace;
 import hammerstep.trace.TraceException;
 import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
@@ -83,25 +85,48 @@ public final class ReplayCommand implements Callable<Integer> {
             if (summary) {
                 results.add(result);
             } else {
-                try {
-                    Map<String, Object> m = JointFields.of(result);
-                    m.put("start_s", JointFields.round(result.startNs() * 1e-9, 10_000));
-                    out.write(JsonLines.of(m));
-                    out.write('\n');
-                } catch (IOException e) {
-                    throw new UncheckedIOException(e);
-                }
+                print(result, out);
             }
         };
-        JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
-        float[] block = new float[BLOCK];
-        TraceFiles.read(trace, rate, block, monitor::onSamples);
-        monitor.finish();
+        if (TraceReader.isF32(trace)) {
+            // random access: a long trace is replayed on every core, with the single monitor's results
+            F32Trace samples = F32Trace.open(trace);
+            SplitReplay split = new SplitReplay(program, conditioning, rate, BLOCK);
+            int workers = split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
+            try {
+                SplitReplay.Outcome outcome = split.run(samples::read, samples.samples(), workers);
+                if (verbose) {
+                    // looked up only here: a logger would otherwise start logging for every replay
+                    org.slf4j.LoggerFactory.getLogger(ReplayCommand.class).debug(
+                            "{} samples on {} workers: {} handovers, {} samples run past segment ends",
+                            samples.samples(), outcome.workers(), outcome.handovers(), outcome.samplesPastSegments());
+                }
+                outcome.results().forEach(events::onRundown);
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                return 1;
+            }
+        } else {
+            JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
+            TraceFiles.read(trace, rate, new float[BLOCK], monitor::onSamples);
+            monitor.finish();
+        }
         if (summary) {
             printSummary(results, System.out);
         }
         out.flush();
         return 0;
+    }
+
+    private static void print(JointResult result, BufferedWriter out) {
+        try {
+            Map<String, Object> m = JointFields.of(result);
+            m.put("start_s", JointFields.round(result.startNs() * 1e-9, 10_000));
+            out.write(JsonLines.of(m));
+            out.write('\n');
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
     }
 
     static void printSummary(List<JointResult> results, PrintStream out) {

@@ -1,6 +1,5 @@
 package hammerstep.app;
 
-import ch.qos.logback.classic.Level;
 import hammerstep.config.ConfigException;
 import hammerstep.hardware.HardwareConfig;
 import hammerstep.hardware.Sampler;
@@ -8,7 +7,6 @@ import hammerstep.hardware.TransducerSettings;
 import hammerstep.hardware.pi4j.Pi4jHardware;
 import hammerstep.signal.Calibration;
 import org.agrona.concurrent.NanoClock;
-import org.agrona.concurrent.SystemNanoClock;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -27,45 +25,33 @@ import java.util.concurrent.Callable;
 public final class ShuntCheckCommand implements Callable<Integer> {
 
     @Mixin
-    HardwareOptions hardware;
-
-    @Option(names = "--seconds", defaultValue = "1.0", paramLabel = "S", description = "averaging time per reading (default 1.0)")
-    double seconds;
+    MeasureOptions measure;
 
     @Option(names = "--tolerance-pct", defaultValue = "0.5", paramLabel = "PCT",
             description = "accepted difference from the expected output, % (default 0.5, common practice)")
     double tolerancePct;
 
-    @Option(names = "--verbose", description = "log debug detail")
-    boolean verbose;
-
-    NanoClock clock = SystemNanoClock.INSTANCE;
-
     @Override
     public Integer call() throws ConfigException {
-        Logging.configure(verbose, Level.WARN);
-        if (!(seconds > 0 && seconds <= 60)) {
-            throw new UserError("--seconds must be above 0 and at most 60");
-        }
-        HardwareConfig c = hardware.load();
+        HardwareConfig c = measure.begin();
         TransducerSettings t = c.transducer();
         if (!t.hasShunt()) {
-            throw new UserError(hardware.config + ": transducer.shunt_ohm is not set (a bridge transducer with a shunt"
+            throw new UserError(measure.config() + ": transducer.shunt_ohm is not set (a bridge transducer with a shunt"
                     + " resistor is needed)");
         }
         double expectedMvPerV = t.shuntOutputMvPerV();
         double expectedNm = t.shuntTorqueNm();
         System.out.printf(Locale.ROOT, "expected: %s Ω across a %s Ω arm gives %.4f mV/V = %.2f N·m of %s N·m"
-                        + " (Vo/E = R / (2R + 4Rs))%n", ZeroCommand.fmt(t.shuntOhm()), ZeroCommand.fmt(t.bridgeOhm()),
-                expectedMvPerV, expectedNm, ZeroCommand.fmt(t.fullScaleNm()));
+                        + " (Vo/E = R / (2R + 4Rs))%n", MeasureOptions.fmt(t.shuntOhm()), MeasureOptions.fmt(t.bridgeOhm()),
+                expectedMvPerV, expectedNm, MeasureOptions.fmt(t.fullScaleNm()));
         if (c.hardware().shuntCal() == null) {
             System.out.println("no hardware.outputs.shunt_cal in the station file: switch the shunt in by hand and compare"
                     + " the reading with the figure above");
             return 0;
         }
-        try (Pi4jHardware hw = hardware.open(c, clock)) {
-            HardwareOptions.start(hw);
-            long ns = (long) (seconds * 1e9);
+        NanoClock clock = measure.clock;
+        try (Pi4jHardware hw = measure.openStarted(c)) {
+            long ns = measure.readingNs();
             long settleNs = Math.max(50_000_000L, (long) (10e9 / hw.adc().rateHz()));
             hw.toolEnable().set(false);
             hw.shuntCal().set(false);
@@ -90,7 +76,7 @@ public final class ShuntCheckCommand implements Callable<Integer> {
         double errPct = (measuredMvPerV - expectedMvPerV) / expectedMvPerV * 100;
         boolean ok = Math.abs(errPct) <= tolerancePct;
         System.out.printf(Locale.ROOT, "measured: %.4f mV/V = %.2f N·m (%+.2f %%): %s ±%s %%%n", measuredMvPerV, deltaNm,
-                errPct, ok ? "within" : "OUTSIDE", ZeroCommand.fmt(tolerancePct));
+                errPct, ok ? "within" : "OUTSIDE", MeasureOptions.fmt(tolerancePct));
         if (!ok) {
             System.out.println("check the transducer's calibration certificate, the shunt resistor, the cable and the"
                     + " station file's rated output before use");

@@ -1,14 +1,11 @@
 package hammerstep.app;
 
-import ch.qos.logback.classic.Level;
 import hammerstep.config.ConfigException;
 import hammerstep.hardware.HardwareConfig;
 import hammerstep.hardware.Sampler;
 import hammerstep.hardware.TransducerSettings;
 import hammerstep.hardware.pi4j.Pi4jHardware;
 import hammerstep.signal.Calibration;
-import org.agrona.concurrent.NanoClock;
-import org.agrona.concurrent.SystemNanoClock;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -27,30 +24,17 @@ import java.util.concurrent.Callable;
 public final class ZeroCommand implements Callable<Integer> {
 
     @Mixin
-    HardwareOptions hardware;
-
-    @Option(names = "--seconds", defaultValue = "1.0", paramLabel = "S", description = "how long to average (default 1.0)")
-    double seconds;
+    MeasureOptions measure;
 
     @Option(names = "--limit-pct", defaultValue = "2.0", paramLabel = "PCT",
             description = "largest acceptable offset, % of full scale (default 2, common practice)")
     double limitPct;
 
-    @Option(names = "--verbose", description = "log debug detail")
-    boolean verbose;
-
-    NanoClock clock = SystemNanoClock.INSTANCE;
-
     @Override
     public Integer call() throws ConfigException {
-        Logging.configure(verbose, Level.WARN);
-        if (!(seconds > 0 && seconds <= 60)) {
-            throw new UserError("--seconds must be above 0 and at most 60");
-        }
-        HardwareConfig c = hardware.load();
-        try (Pi4jHardware hw = hardware.open(c, clock)) {
-            HardwareOptions.start(hw);
-            Sampler.Reading r = Sampler.measure(hw.adc(), hw.dataReady(), clock, (long) (seconds * 1e9));
+        HardwareConfig c = measure.begin();
+        try (Pi4jHardware hw = measure.openStarted(c)) {
+            Sampler.Reading r = Sampler.measure(hw.adc(), hw.dataReady(), measure.clock, measure.readingNs());
             hw.adc().stop();
             return report(r, hw.calibration(), c.transducer());
         }
@@ -63,7 +47,7 @@ public final class ZeroCommand implements Callable<Integer> {
         double spreadNm = r.spreadCounts() * k;
         System.out.printf(Locale.ROOT, "zero: %d counts = %.4f N·m (%.3f %% of %s N·m), noise %.4f N·m rms,"
                         + " spread %.4f N·m over %d samples%n", Math.round(r.meanCounts()), offsetNm, pct,
-                fmt(t.fullScaleNm()), r.stdCounts() * k, spreadNm, r.samples());
+                MeasureOptions.fmt(t.fullScaleNm()), r.stdCounts() * k, spreadNm, r.samples());
         if (spreadNm > 0.01 * t.fullScaleNm()) {
             System.out.printf(Locale.ROOT, "not at rest: the signal moved %.3f N·m (over 1 %% of full scale); release the tool"
                     + " and the socket and try again%n", spreadNm);
@@ -71,15 +55,11 @@ public final class ZeroCommand implements Callable<Integer> {
         }
         if (Math.abs(pct) > limitPct) {
             System.out.printf(Locale.ROOT, "offset beyond ±%s %% of full scale: check the transducer, its cable and the"
-                    + " bridge wiring before use%n", fmt(limitPct));
+                    + " bridge wiring before use%n", MeasureOptions.fmt(limitPct));
             return 1;
         }
         System.out.printf(Locale.ROOT, "within ±%s %%: to start from it, set transducer.zero_counts: %d in %s%n",
-                fmt(limitPct), Math.round(r.meanCounts()), hardware.config);
+                MeasureOptions.fmt(limitPct), Math.round(r.meanCounts()), measure.config());
         return 0;
-    }
-
-    static String fmt(double v) {
-        return v == Math.rint(v) ? Long.toString((long) v) : Double.toString(v);
     }
 }

@@ -257,6 +257,21 @@ public final class JointMonitor implements PulseSink {
         state = State.IDLE;
     }
 
+    /**
+     * The state carried into the next block while no rundown is under way, or null during a
+     * rundown and the quiet spell after a cut one. Between rundowns the blow detector and the
+     * rundown figures hold nothing that the next rundown reads before it sets it, so two monitors
+     * of the same program and rate with equal idle states judge the samples that follow alike
+     * (the split replay relies on it).
+     */
+    public IdleState idleState() {
+        return state == State.IDLE ? new IdleState(conditioner.state(), reportedFaults) : null;
+    }
+
+    /** See {@link #idleState()}. */
+    public record IdleState(Conditioner.State conditioner, int reportedFaults) {
+    }
+
     /** True while a rundown is under way. */
     public boolean inRundown() {
         return state == State.ACTIVE;

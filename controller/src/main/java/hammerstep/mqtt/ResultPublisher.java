@@ -71,6 +71,10 @@ public final class ResultPublisher implements Agent {
     private final String version;
     private final Instant started;
     private final CommandParser parser;
+    // a client can send commands at will: at most 10 warnings a minute each, then a count
+    private final RateLimitedWarnings refusals = new RateLimitedWarnings(LOG, "refused commands", 10, 60_000_000_000L);
+    private final RateLimitedWarnings unsentResponses = new RateLimitedWarnings(LOG, "unsent responses", 10,
+            60_000_000_000L);
     private final ConcurrentLinkedQueue<Signal> signals = new ConcurrentLinkedQueue<>();
     private final Set<Long> inflight = new HashSet<>();
 
@@ -129,6 +133,8 @@ public final class ResultPublisher implements Agent {
     public int doWork() {
         long now = clock.nanoTime();
         int work = drain(now);
+        refusals.poll(now);
+        unsentResponses.poll(now);
         if (link == null) {
             if (now - nextAttemptNs >= 0) {
                 work += connect(now);
@@ -371,8 +377,8 @@ public final class ResultPublisher implements Agent {
         CommandParser.Result r = parser.parse(name, in.payload, in.expiryS);
         if (!r.ok()) {
             commandsRefused++;
-            LOG.warn("refused command {}: {} {}", name.length() > 64 ? name.substring(0, 64) : name, r.errorCode(),
-                    r.message());
+            refusals.warn(clock.nanoTime(), "refused command {}: {} {}", name.length() > 64 ? name.substring(0, 64)
+                    : name, r.errorCode(), r.message());
             respond(in.responseTopic, in.correlation, name, StationCommands.Reply.refused(r.errorCode(), r.message()),
                     null);
             return;
@@ -421,7 +427,7 @@ public final class ResultPublisher implements Agent {
         try {
             link.respond(responseTopic, ResultMessages.bytes(m), correlation, RESPONSE_EXPIRY_S);
         } catch (IOException e) {
-            LOG.warn("could not send the response to {}: {}", command, e.getMessage());
+            unsentResponses.warn(clock.nanoTime(), "could not send the response to {}: {}", command, e.getMessage());
         }
     }
 }

@@ -90,6 +90,12 @@ public final class MemoryOutbox implements Outbox {
         return pendingBytes >= lowBytes ? ResultSink.Storage.LOW : ResultSink.Storage.OK;
     }
 
+    /** A memory outbox starts empty: there is never an unfinished part from before. */
+    @Override
+    public List<Entry> unfinishedPartJoints() {
+        return List.of();
+    }
+
     @Override
     public Recovery recovery() {
         return Recovery.fresh();

@@ -63,6 +63,14 @@ public interface Outbox extends AutoCloseable {
     /** What opening the store found. */
     Recovery recovery();
 
+    /**
+     * The joint records stored after the last part record, delivered or not, as found when the store
+     * opened: the joints of a part that was in work when the station stopped (power cut, kill) and
+     * never got its part record. Empty when the last part ended with its record, and for a store
+     * that starts empty.
+     */
+    List<Entry> unfinishedPartJoints();
+
     /** Releases files; pending records stay for the next start. */
     @Override
     void close();

@@ -1,6 +1,12 @@
 package hammerstep.results;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+
+import java.io.IOException;
 import java.time.Clock;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.UUID;
 import java.util.function.Supplier;
 
@@ -58,6 +64,47 @@ public final class OutboxResultSink implements ResultSink {
         reportRecovery();
         Receipt r = store(event);
         return after(r);
+    }
+
+    /** From the joints the outbox found after its last part record; those of the last joint's part. */
+    @Override
+    public UnfinishedPart unfinishedPart() {
+        List<Outbox.Entry> joints = outbox.unfinishedPartJoints();
+        if (joints.isEmpty()) {
+            return null;
+        }
+        ObjectMapper json = new ObjectMapper();
+        List<JsonNode> parsed = new ArrayList<>();
+        for (Outbox.Entry e : joints) {
+            try {
+                parsed.add(json.readTree(e.payload()));
+            } catch (IOException ex) {
+                parsed.add(null); // not ours to judge here; the publisher sends it as stored
+            }
+        }
+        JsonNode last = null;
+        for (JsonNode n : parsed) {
+            if (n != null && n.hasNonNull("part_serial")) {
+                last = n;
+            }
+        }
+        if (last == null) {
+            return null;
+        }
+        String serial = last.get("part_serial").asText();
+        List<String> ids = new ArrayList<>();
+        for (int k = 0; k < joints.size(); k++) {
+            JsonNode n = parsed.get(k);
+            if (n != null && n.hasNonNull("part_serial") && serial.equals(n.get("part_serial").asText())) {
+                ids.add(joints.get(k).id());
+            }
+        }
+        return new UnfinishedPart(serial, text(last, "part_model"), text(last, "pattern"), ids);
+    }
+
+    private static String text(JsonNode n, String field) {
+        JsonNode v = n.get(field);
+        return v == null || v.isNull() ? null : v.asText();
     }
 
     @Override

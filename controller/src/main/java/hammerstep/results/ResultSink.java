@@ -21,6 +21,15 @@ public interface ResultSink {
 
     Storage storage();
 
+    /**
+     * The part that was in work when the station last stopped and has joints stored but no part
+     * record, or null. Read once, when the station starts. A sink that keeps nothing across a
+     * restart has none.
+     */
+    default UnfinishedPart unfinishedPart() {
+        return null;
+    }
+
     /** The stable id and the per-station sequence number a stored record was given. */
     record Receipt(String id, long seq) { }
 }

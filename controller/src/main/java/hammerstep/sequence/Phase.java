@@ -12,7 +12,10 @@ public enum Phase {
     STORING,
     /** A position came out NO-GO: tool disabled until the rework is acknowledged (red, blue blinking). */
     REWORK,
-    /** The part cannot end GO: tool disabled until the supervisor key ends it (red blinking). */
+    /**
+     * The part cannot end GO (rejected, or interrupted by a stop of the station): tool disabled until
+     * the supervisor key ends it (red blinking).
+     */
     REJECTED,
     /** Every position passed every pass (green). */
     COMPLETE,

@@ -8,6 +8,7 @@ import hammerstep.results.JointOutcome;
 import hammerstep.results.PartOutcome;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StationEvent;
+import hammerstep.results.UnfinishedPart;
 import hammerstep.station.LampMode;
 import hammerstep.station.OperatorInputs;
 import hammerstep.station.PartIdentity;
@@ -49,12 +50,6 @@ public final class Sequence {
     public record Settings(String transducerSerial, LocalDate calibrationDue, double completeHoldMs) {
     }
 
-    private static final byte NOT_IN_PASS = 0;
-    private static final byte PENDING = 1;
-    private static final byte DONE = 2;
-    private static final byte FAILED = 3;
-    private static final byte SKIPPED = 4;
-
     private final StationClock clock;
     private final Settings settings;
     private final boolean confirmSensors;
@@ -67,14 +62,12 @@ public final class Sequence {
 
     private PartIdentity part;
     private Pattern pattern;
+    private String patternId;
+    private String rejectedAs = "REJECTED";
     private Instant partStarted;
-    private final List<String> jointIds = new ArrayList<>();
-    private boolean partFailed;
+    private final PartProgress progress = new PartProgress();
     private boolean abandonAfterStore;
     private int passIndex;
-    private byte[] status = new byte[0];
-    private int[] attempts = new int[0];
-    private boolean[] leftOut = new boolean[0];
 
     private int prompted = -1;
     private int reworkPosition = -1;
@@ -127,18 +120,43 @@ public final class Sequence {
         }
         this.part = identity;
         this.pattern = pattern;
+        this.patternId = pattern.id();
+        this.rejectedAs = "REJECTED";
         this.partStarted = clock.instantOf(nowNs);
-        this.jointIds.clear();
-        this.partFailed = false;
         this.abandonAfterStore = false;
-        int n = pattern.size();
-        this.status = new byte[n];
-        this.attempts = new int[n];
-        this.leftOut = new boolean[n];
+        this.progress.startPart(pattern.size());
         this.passIndex = 0;
         this.lastVerdict = null;
         startPass(nowNs);
         return true;
+    }
+
+    /**
+     * At start: the station stopped (power cut, kill) while {@code unfinished} was in work; its joints
+     * are stored but it has no part record. Nothing resumes: the tool stays off, red blinks, an alarm
+     * names the part, and a scan starts nothing until the supervisor key closes the part with a
+     * part record {@code NO_GO}, ended {@code INTERRUPTED}, listing the joints stored before the stop.
+     * Call before any other event.
+     */
+    public void partInterrupted(UnfinishedPart unfinished, long nowNs) {
+        if (phase != Phase.WAITING || part != null) {
+            throw new IllegalStateException("an interrupted part is taken over at start, before any other part");
+        }
+        part = new PartIdentity(unfinished.partSerial(), unfinished.partModel());
+        pattern = null;
+        patternId = unfinished.pattern();
+        partStarted = null;
+        progress.startPart(0);
+        for (String id : unfinished.jointIds()) {
+            progress.jointStored(id);
+        }
+        prompted = -1;
+        rejectedAs = "INTERRUPTED";
+        phase = Phase.REJECTED;
+        int n = unfinished.jointIds().size();
+        event(StationEvent.Severity.ALARM, "PART_INTERRUPTED", "part " + part.serial() + " was in work when the"
+                + " station stopped (" + n + (n == 1 ? " joint" : " joints") + " stored, no part record): check it,"
+                + " then turn the supervisor key to close it as INTERRUPTED", part.serial(), nowNs);
     }
 
     /**
@@ -172,7 +190,7 @@ public final class Sequence {
         event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: " + reason,
                 part.serial(), nowNs);
         if (phase == Phase.REJECTED) {
-            toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+            toStore.add(new Store.Part(partOutcome("NO_GO", rejectedAs, nowNs)));
             clearPart();
         } else {
             partRemoved(nowNs);
@@ -183,7 +201,7 @@ public final class Sequence {
     /** A rundown began (reported by the joint monitor at its first sample). */
     public void rundownStarted(long nowNs) {
         if (effective() == Phase.PROMPT) {
-            rundownPosition = confirmSensors && toolAt >= 0 && toolAt < status.length ? toolAt : prompted;
+            rundownPosition = confirmSensors && toolAt >= 0 && toolAt < progress.size() ? toolAt : prompted;
             go(Phase.RUNDOWN);
             shutoffSeen = false;
             lastVerdict = null;
@@ -213,18 +231,16 @@ public final class Sequence {
         int pos = rundownPosition;
         JointResult r = result;
         if (pos != prompted) {
-            r = withReason(result, status[pos] == DONE ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
-            event(StationEvent.Severity.ALARM, status[pos] == DONE ? "REHIT" : "OUT_OF_SEQUENCE",
+            boolean rehit = progress.done(pos);
+            r = withReason(result, rehit ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
+            event(StationEvent.Severity.ALARM, rehit ? "REHIT" : "OUT_OF_SEQUENCE",
                     "rundown on position " + label(pos) + " while " + label(prompted) + " was prompted",
                     part.serial(), nowNs);
         }
-        if (status[pos] == NOT_IN_PASS || status[pos] == SKIPPED) {
-            status[pos] = PENDING;
-        }
-        attempts[pos]++;
+        int attempt = progress.countAttempt(pos);
         Pattern.Pass pass = pass();
         toStore.add(new Store.Joint(new JointOutcome(part.serial(), part.model(), pattern.id(),
-                pattern.positions().get(pos), pos + 1, pass.name(), attempts[pos], r,
+                pattern.positions().get(pos), pos + 1, pass.name(), attempt, r,
                 settings.transducerSerial(), settings.calibrationDue(), clock.instantOf(nowNs), null)));
         judgedPosition = pos;
         judgedVerdict = r.verdict();
@@ -254,7 +270,7 @@ public final class Sequence {
         switch (phase) {
             case REWORK -> releaseRework("supervisor", nowNs);
             case REJECTED -> {
-                toStore.add(new Store.Part(partOutcome("NO_GO", "REJECTED", nowNs)));
+                toStore.add(new Store.Part(partOutcome("NO_GO", rejectedAs, nowNs)));
                 clearPart();
             }
             case FAULT -> phase = resumeAfterFault;
@@ -323,7 +339,7 @@ public final class Sequence {
     public void stored(ResultSink.Receipt receipt, long nowNs) {
         Store done = toStore.poll();
         if (done instanceof Store.Joint) {
-            jointIds.add(receipt.id());
+            progress.jointStored(receipt.id());
             if (phase == Phase.STORING) {
                 applyVerdict(nowNs);
             }
@@ -346,18 +362,17 @@ public final class Sequence {
     }
 
     public LampMode positionLamp(int index) {
-        if (part == null || index >= status.length) {
+        if (part == null || index >= progress.size()) {
             return LampMode.OFF;
         }
         Phase p = phase == Phase.FAULT ? resumeAfterFault : phase;
         switch (p) {
             case PROMPT, RUNDOWN, STORING:
-                return index == prompted ? LampMode.BLINKING : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+                return progress.workingLamp(index, prompted);
             case REWORK:
-                return index == reworkPosition ? LampMode.BLINKING : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+                return progress.workingLamp(index, reworkPosition);
             case REJECTED:
-                return status[index] == FAILED || leftOut[index] ? LampMode.BLINKING
-                        : status[index] == DONE ? LampMode.STEADY : LampMode.OFF;
+                return progress.rejectedLamp(index);
             case COMPLETE:
                 return LampMode.STEADY;
             default:
@@ -435,17 +450,17 @@ public final class Sequence {
 
     /** Rundowns so far on {@code position} in the current pass. */
     public int attempts(int position) {
-        return position < attempts.length ? attempts[position] : 0;
+        return progress.attempts(position);
     }
 
     /** True when {@code position} is done (GO) in the current pass. */
     public boolean done(int position) {
-        return position < status.length && status[position] == DONE;
+        return progress.done(position);
     }
 
     /** True once some position of the part has failed for good: the part cannot end GO. */
     public boolean partFailed() {
-        return partFailed;
+        return progress.partFailed();
     }
 
     // ---- inside ----------------------------------------------------------------------------
@@ -464,25 +479,16 @@ public final class Sequence {
     }
 
     private void startPass(long nowNs) {
-        Pattern.Pass pass = pass();
-        java.util.Arrays.fill(status, NOT_IN_PASS);
-        java.util.Arrays.fill(attempts, 0);
-        for (int k = 0; k < pass.orderLength(); k++) {
-            int pos = pass.orderAt(k);
-            status[pos] = leftOut[pos] ? SKIPPED : PENDING;
-        }
+        progress.startPass(pass());
         advance(nowNs);
     }
 
     private void advance(long nowNs) {
-        Pattern.Pass pass = pass();
-        for (int k = 0; k < pass.orderLength(); k++) {
-            int pos = pass.orderAt(k);
-            if (status[pos] == PENDING) {
-                prompted = pos;
-                phase = Phase.PROMPT;
-                return;
-            }
+        int next = progress.nextPending(pass());
+        if (next >= 0) {
+            prompted = next;
+            phase = Phase.PROMPT;
+            return;
         }
         prompted = -1;
         if (passIndex + 1 < pattern.passes().size()) {
@@ -490,7 +496,7 @@ public final class Sequence {
             startPass(nowNs);
             return;
         }
-        if (partFailed) {
+        if (progress.partFailed()) {
             phase = Phase.REJECTED;
             return;
         }
@@ -503,7 +509,7 @@ public final class Sequence {
         int pos = judgedPosition;
         lastVerdict = judgedVerdict;
         if (judgedVerdict == Verdict.GO) {
-            status[pos] = DONE;
+            progress.passed(pos);
             if (abandonAfterStore) {
                 abandon(nowNs);
             } else {
@@ -513,25 +519,20 @@ public final class Sequence {
         }
         Pattern.Pass pass = pass();
         reworkPosition = pos;
-        if (attempts[pos] < pass.attempts()) {
-            status[pos] = PENDING;
+        int tried = progress.attempts(pos);
+        if (tried < pass.attempts()) {
+            progress.retry(pos);
             reworkRetry = true;
         } else {
-            status[pos] = FAILED;
-            partFailed = true;
+            progress.failed(pos, pass.afterNoGo() == AfterNoGo.SKIP_POSITION);
             reworkRetry = false;
             event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO-GO after "
-                    + attempts[pos] + (attempts[pos] == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
+                    + tried + (tried == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
                     part.serial(), nowNs);
-            if (pass.afterNoGo() == AfterNoGo.SKIP_POSITION) {
-                leftOut[pos] = true;
-            }
             if (pass.afterNoGo() == AfterNoGo.REJECT) {
                 prompted = -1;
                 phase = Phase.REJECTED;
-                if (abandonAfterStore) {
-                    abandonAfterStore = false;
-                }
+                abandonAfterStore = false; // a rejected part still needs the key, taken out or not
                 return;
             }
         }
@@ -562,6 +563,8 @@ public final class Sequence {
     private void clearPart() {
         part = null;
         pattern = null;
+        patternId = null;
+        rejectedAs = "REJECTED";
         prompted = -1;
         reworkPosition = -1;
         abandonAfterStore = false;
@@ -569,7 +572,7 @@ public final class Sequence {
     }
 
     private PartOutcome partOutcome(String verdict, String ended, long nowNs) {
-        return new PartOutcome(part.serial(), part.model(), pattern.id(), verdict, ended, jointIds,
+        return new PartOutcome(part.serial(), part.model(), patternId, verdict, ended, progress.jointIds(),
                 partStarted, clock.instantOf(nowNs));
     }
 

@@ -21,7 +21,13 @@ public final class Conditioner {
     private final boolean filtered;
     private final double b0, b1, b2, a1, a2;
 
-    private double zeroNm;
+    /**
+     * The zero, held in single precision like the samples it is taken from: its resolution (below
+     * 10⁻⁷ of its value) lies far under any transducer's noise, and two trackers that followed the
+     * same quiet signal from different starts come to hold exactly the same zero within some dozens
+     * of quiet blocks rather than hundreds, which the split replay relies on.
+     */
+    private float zeroNm;
     private boolean zeroSet;
     private long flatSamples;
     private float lastValue = Float.NaN;
@@ -66,7 +72,7 @@ public final class Conditioner {
      * @return the fault bits active after this block
      */
     public int process(float[] in, int offset, int length, float[] out, boolean trackZero) {
-        float zero = (float) zeroNm;
+        float zero = zeroNm;
         // four independent accumulators keep the loop free of long dependency chains
         float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
         float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
@@ -130,7 +136,7 @@ public final class Conditioner {
 
     private float repairNonFinite(float[] out, int length) {
         float sum = 0f;
-        float hold = lastGood - (float) zeroNm;
+        float hold = lastGood - zeroNm;
         for (int i = 0; i < length; i++) {
             float v = out[i];
             if (Float.isFinite(v)) {
@@ -138,7 +144,7 @@ public final class Conditioner {
             } else {
                 out[i] = hold;
             }
-            sum += out[i] + (float) zeroNm;
+            sum += out[i] + zeroNm;
         }
         return sum;
     }
@@ -183,10 +189,10 @@ public final class Conditioner {
             target = zeroNm + k * (mean - zeroNm);
         }
         if (limit > 0 && Math.abs(target) > limit) {
-            zeroNm = Math.copySign(limit, target);
+            zeroNm = (float) Math.copySign(limit, target);
             return now | SignalFaults.ZERO_DRIFT;
         }
-        zeroNm = target;
+        zeroNm = (float) target;
         return now & ~SignalFaults.ZERO_DRIFT;
     }
 
@@ -195,10 +201,23 @@ public final class Conditioner {
         if (settings.zeroLimitNm() > 0 && Math.abs(offsetNm) > settings.zeroLimitNm()) {
             return false;
         }
-        zeroNm = offsetNm;
+        zeroNm = (float) offsetNm;
         zeroSet = true;
         faults &= ~SignalFaults.ZERO_DRIFT;
         return true;
+    }
+
+    /**
+     * Everything this conditioner carries from one block to the next. Two conditioners with the
+     * same settings and equal states turn the same samples into the same output and faults.
+     */
+    public record State(float zeroNm, boolean zeroSet, long flatSamples, float lastValue, float lastGood,
+                        int faults, double z1, double z2) {
+    }
+
+    /** The carried state now; allocates (not for the sample path). */
+    public State state() {
+        return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2);
     }
 
     /** The offset currently subtracted, N·m. */

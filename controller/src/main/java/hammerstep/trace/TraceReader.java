@@ -2,15 +2,10 @@ package hammerstep.trace;
 
 import java.io.BufferedReader;
 import java.io.IOException;
-import java.nio.ByteOrder;
-import java.nio.FloatBuffer;
-import java.nio.MappedByteBuffer;
-import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
@@ -27,7 +22,6 @@ import java.util.Map;
 public final class TraceReader {
 
     public static final String HEADER = "time_s,torque_nm";
-    private static final int MAX_F32_CHUNK = 1 << 28;
 
     private TraceReader() {
     }
@@ -48,30 +42,12 @@ public final class TraceReader {
             throw new TraceException(path + ": a .f32 trace needs --rate HZ (a positive sample rate)");
         }
         double periodNs = 1e9 / rateHz;
-        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
-            long size = ch.size();
-            if (size % 4 != 0) {
-                throw new TraceException(path + ": size " + size + " bytes is not a whole number of float32 samples");
-            }
-            long sample = 0;
-            long pos = 0;
-            int n = block.length;
-            while (pos < size) {
-                long len = Math.min(size - pos, MAX_F32_CHUNK);
-                MappedByteBuffer map = ch.map(FileChannel.MapMode.READ_ONLY, pos, len);
-                FloatBuffer fb = map.order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
-                while (fb.hasRemaining()) {
-                    int k = Math.min(n, fb.remaining());
-                    fb.get(block, 0, k);
-                    sink.onSamples(block, 0, k, (long) (sample * periodNs));
-                    sample += k;
-                }
-                pos += len;
-            }
-        } catch (NoSuchFileException e) {
-            throw new TraceException(path + ": no such file");
-        } catch (IOException e) {
-            throw new TraceException(path + ": cannot read: " + e.getMessage());
+        F32Trace trace = F32Trace.open(path);
+        long samples = trace.samples();
+        for (long sample = 0; sample < samples; sample += block.length) {
+            int k = (int) Math.min(block.length, samples - sample);
+            trace.read(sample, block, k);
+            sink.onSamples(block, 0, k, (long) (sample * periodNs));
         }
         return new Info(rateHz, Map.of());
     }

@@ -1,14 +1,12 @@
 package hammerstep.app;
 
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeEach;
+import hammerstep.testing.StandardStreams;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
 
-import java.io.ByteArrayOutputStream;
 import java.io.IOException;
-import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -31,24 +29,8 @@ class BrokenConfigurationTest {
             Path.of("src/test/resources/broken/patterns"),
             Path.of("src/test/resources/broken/stations"));
 
-    private final ByteArrayOutputStream out = new ByteArrayOutputStream();
-    private final ByteArrayOutputStream err = new ByteArrayOutputStream();
-    private PrintStream oldOut;
-    private PrintStream oldErr;
-
-    @BeforeEach
-    void capture() {
-        oldOut = System.out;
-        oldErr = System.err;
-        System.setOut(new PrintStream(out, true, StandardCharsets.UTF_8));
-        System.setErr(new PrintStream(err, true, StandardCharsets.UTF_8));
-    }
-
-    @AfterEach
-    void restore() {
-        System.setOut(oldOut);
-        System.setErr(oldErr);
-    }
+    @RegisterExtension
+    final StandardStreams streams = new StandardStreams();
 
     static Stream<Path> brokenFiles() throws IOException {
         List<Path> files = new ArrayList<>();
@@ -74,19 +56,19 @@ class BrokenConfigurationTest {
 
         int exit = Main.run("check", file.toString());
 
-        String printed = err.toString(StandardCharsets.UTF_8);
+        String printed = streams.err();
         assertThat(exit).isEqualTo(2);
         assertThat(printed.lines()).anySatisfy(l -> assertThat(l).startsWith(expected));
         assertThat(printed.lines()).allSatisfy(l -> assertThat(l).matches("[^:]+:\\d+:\\d+: .+"));
         assertThat(printed).doesNotContain("Exception").doesNotContain("\tat ").doesNotContain("java.");
-        assertThat(out.toString(StandardCharsets.UTF_8)).isEmpty();
+        assertThat(streams.out()).isEmpty();
     }
 
     @Test
     void aDirectoryOfBrokenFilesReportsEveryOneAndExitsTwo() {
         int exit = Main.run("check", "src/test/resources/broken/stations");
         assertThat(exit).isEqualTo(2);
-        assertThat(err.toString(StandardCharsets.UTF_8).lines().map(l -> l.substring(0, l.indexOf(".yaml:")))
+        assertThat(streams.err().lines().map(l -> l.substring(0, l.indexOf(".yaml:")))
                 .distinct()).hasSizeGreaterThanOrEqualTo(20);
     }
 
@@ -95,7 +77,7 @@ class BrokenConfigurationTest {
         // found by this catalogue: the out-of-range pin's stand-in value (2) used to clash with the trigger's pin 2
         int exit = Main.run("check", "src/test/resources/broken/stations/hardware-pin-out-of-range.yaml");
         assertThat(exit).isEqualTo(2);
-        assertThat(err.toString(StandardCharsets.UTF_8).lines()).singleElement()
+        assertThat(streams.err().lines()).singleElement()
                 .satisfies(l -> assertThat(l).contains("tool_enable.pin' is 99"));
     }
 

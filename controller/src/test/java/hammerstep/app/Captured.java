@@ -22,7 +22,7 @@ record Captured(int exit, String out, String err) {
         StringWriter err = new StringWriter();
         try (PrintStream capture = new PrintStream(bytes, true, StandardCharsets.UTF_8)) {
             System.setOut(capture);
-            CommandLine cl = Cli.commandLine(new Main());
+            CommandLine cl = Main.commandLine(args);
             cl.setErr(new PrintWriter(err, true));
             cl.setOut(new PrintWriter(capture, true));
             int exit = cl.execute(args);

@@ -3,15 +3,12 @@ package hammerstep.app;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.signal.PulseTrain;
+import hammerstep.testing.StandardStreams;
 import hammerstep.trace.TraceWriter;
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 
-import java.io.ByteArrayOutputStream;
-import java.io.PrintStream;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -28,32 +25,8 @@ class CommandLineTest {
     @TempDir
     Path dir;
 
-    private final ByteArrayOutputStream out = new ByteArrayOutputStream();
-    private final ByteArrayOutputStream err = new ByteArrayOutputStream();
-    private PrintStream oldOut;
-    private PrintStream oldErr;
-
-    @BeforeEach
-    void capture() {
-        oldOut = System.out;
-        oldErr = System.err;
-        System.setOut(new PrintStream(out, true, StandardCharsets.UTF_8));
-        System.setErr(new PrintStream(err, true, StandardCharsets.UTF_8));
-    }
-
-    @AfterEach
-    void restore() {
-        System.setOut(oldOut);
-        System.setErr(oldErr);
-    }
-
-    private String out() {
-        return out.toString(StandardCharsets.UTF_8);
-    }
-
-    private String err() {
-        return err.toString(StandardCharsets.UTF_8);
-    }
+    @RegisterExtension
+    final StandardStreams streams = new StandardStreams();
 
     private Path twoRundowns() throws Exception {
         List<PulseTrain.Strike> s = new ArrayList<>();
@@ -75,7 +48,7 @@ class CommandLineTest {
     void replayPrintsOneJsonLinePerRundownWithTheSharedFields() throws Exception {
         int code = Main.run("replay", twoRundowns().toString(), "--program", GOOD.toString());
         assertThat(code).isZero();
-        String[] lines = out().strip().split("\n");
+        String[] lines = streams.out().strip().split("\n");
         assertThat(lines).hasSize(2);
         ObjectMapper json = new ObjectMapper();
         JsonNode first = json.readTree(lines[0]);
@@ -94,20 +67,20 @@ class CommandLineTest {
     @Test
     void summaryPrintsATable() throws Exception {
         assertThat(Main.run("replay", twoRundowns().toString(), "--program", GOOD.toString(), "--summary")).isZero();
-        assertThat(out()).contains("2 rundowns, 1 GO, 1 NO_GO");
+        assertThat(streams.out()).contains("2 rundowns, 1 GO, 1 NO_GO");
     }
 
     @Test
     void checkOfABrokenFileExitsTwoWithItsLocation() {
         Path bad = Path.of("src/test/resources/programs/broken/not-a-number.yaml");
         assertThat(Main.run("check", bad.toString(), GOOD.toString())).isEqualTo(2);
-        assertThat(err().strip()).isEqualTo(bad + ":3:16: 'torque.min': expected a number, got \"lots\"");
+        assertThat(streams.err().strip()).isEqualTo(bad + ":3:16: 'torque.min': expected a number, got \"lots\"");
     }
 
     @Test
     void checkOfValidFilesExitsZero() {
         assertThat(Main.run("check", GOOD.toString())).isZero();
-        assertThat(out()).contains("1 file valid");
+        assertThat(streams.out()).contains("1 file valid");
     }
 
     @Test
@@ -115,27 +88,27 @@ class CommandLineTest {
         Path rows = dir.resolve("bad.csv");
         Files.writeString(rows, "# rate_hz=1000\ntime_s,torque_nm\n0.0,1\n0.001,x\n");
         assertThat(Main.run("replay", rows.toString(), "--program", GOOD.toString())).isEqualTo(2);
-        assertThat(err().strip()).isEqualTo(rows + ":4: torque_nm 'x' is not a finite number");
+        assertThat(streams.err().strip()).isEqualTo(rows + ":4: torque_nm 'x' is not a finite number");
 
-        err.reset();
+        streams.clearErr();
         assertThat(Main.run("replay", dir.resolve("none.csv").toString(), "--program", GOOD.toString())).isEqualTo(2);
-        assertThat(err().strip()).isEqualTo(dir.resolve("none.csv") + ": no such file");
+        assertThat(streams.err().strip()).isEqualTo(dir.resolve("none.csv") + ": no such file");
 
-        err.reset();
+        streams.clearErr();
         assertThat(Main.run("replay", rows.toString(), "--program", "missing.yaml")).isEqualTo(2);
-        assertThat(err().strip()).isEqualTo("missing.yaml:0:0: no such file");
+        assertThat(streams.err().strip()).isEqualTo("missing.yaml:0:0: no such file");
 
-        err.reset();
+        streams.clearErr();
         Path f32 = dir.resolve("x.f32");
         Files.write(f32, new byte[8]);
         assertThat(Main.run("replay", f32.toString(), "--program", GOOD.toString())).isEqualTo(2);
-        assertThat(err().strip()).isEqualTo(f32 + ": a .f32 trace needs --rate HZ");
-        assertThat(err()).doesNotContain("Exception").doesNotContain("\tat ");
+        assertThat(streams.err().strip()).isEqualTo(f32 + ": a .f32 trace needs --rate HZ");
+        assertThat(streams.err()).doesNotContain("Exception").doesNotContain("\tat ");
     }
 
     @Test
     void unknownOptionIsAUsageError() {
         assertThat(Main.run("replay", "t.csv", "--program", "p.yaml", "--bogus")).isEqualTo(2);
-        assertThat(err()).contains("Unknown option: '--bogus'");
+        assertThat(streams.err()).contains("Unknown option: '--bogus'");
     }
 }

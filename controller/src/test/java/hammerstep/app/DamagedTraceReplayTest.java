@@ -3,14 +3,12 @@ package hammerstep.app;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.signal.PulseTrain;
+import hammerstep.testing.StandardStreams;
 import hammerstep.trace.TraceWriter;
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 
-import java.io.ByteArrayOutputStream;
-import java.io.PrintStream;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
@@ -38,24 +36,8 @@ class DamagedTraceReplayTest {
     @TempDir
     Path dir;
 
-    private final ByteArrayOutputStream out = new ByteArrayOutputStream();
-    private final ByteArrayOutputStream err = new ByteArrayOutputStream();
-    private PrintStream oldOut;
-    private PrintStream oldErr;
-
-    @BeforeEach
-    void capture() {
-        oldOut = System.out;
-        oldErr = System.err;
-        System.setOut(new PrintStream(out, true, StandardCharsets.UTF_8));
-        System.setErr(new PrintStream(err, true, StandardCharsets.UTF_8));
-    }
-
-    @AfterEach
-    void restore() {
-        System.setOut(oldOut);
-        System.setErr(oldErr);
-    }
+    @RegisterExtension
+    final StandardStreams streams = new StandardStreams();
 
     private static float[] rundown() {
         List<PulseTrain.Strike> s = new ArrayList<>();
@@ -88,7 +70,7 @@ class DamagedTraceReplayTest {
         List<String> args = new ArrayList<>(List.of("replay", trace.toString(), "--program", PROGRAM));
         args.addAll(Arrays.asList(replayArgs));
         int exit = Main.run(args.toArray(String[]::new));
-        String e = err.toString(StandardCharsets.UTF_8);
+        String e = streams.err();
         assertThat(exit).isEqualTo(2);
         assertThat(e.lines()).singleElement().satisfies(l -> assertThat(l).contains(trace.toString()));
         assertThat(e).doesNotContain("Exception").doesNotContain("\tat ");
@@ -101,7 +83,7 @@ class DamagedTraceReplayTest {
         Path p = write("cut.csv", whole.substring(0, cut));
         refusedWithOneLine(p);
         long lines = whole.substring(0, cut).lines().count();
-        assertThat(err.toString(StandardCharsets.UTF_8)).startsWith(p + ":" + lines + ":");
+        assertThat(streams.err()).startsWith(p + ":" + lines + ":");
     }
 
     @Test
@@ -117,7 +99,7 @@ class DamagedTraceReplayTest {
         String half = whole.substring(0, whole.indexOf('\n', whole.length() / 2) + 1);
         int exit = Main.run("replay", write("half.csv", half).toString(), "--program", PROGRAM);
         assertThat(exit).isZero();
-        assertThat(out.toString(StandardCharsets.UTF_8).lines()).hasSize(1);
+        assertThat(streams.out().lines()).hasSize(1);
     }
 
     @Test
@@ -125,13 +107,13 @@ class DamagedTraceReplayTest {
         String whole = csv();
         String[] rows = whole.split("\n");
         for (String bad : List.of("NaN", "Infinity", "-inf", "1e999")) {
-            err.reset();
+            streams.clearErr();
             String[] copy = rows.clone();
             String[] cols = copy[40].split(",");
             copy[40] = cols[0] + "," + bad;
             Path p = write("bad-" + bad + ".csv", String.join("\n", copy) + "\n");
             refusedWithOneLine(p);
-            assertThat(err.toString(StandardCharsets.UTF_8)).startsWith(p + ":41:");
+            assertThat(streams.err()).startsWith(p + ":41:");
         }
     }
 
@@ -141,7 +123,7 @@ class DamagedTraceReplayTest {
         String[] still = rows.clone();
         still[50] = rows[49].split(",")[0] + "," + rows[50].split(",")[1];
         refusedWithOneLine(write("still.csv", String.join("\n", still) + "\n"));
-        err.reset();
+        streams.clearErr();
         String[] back = rows.clone();
         back[60] = "0.000000," + rows[60].split(",")[1];
         refusedWithOneLine(write("back.csv", String.join("\n", back) + "\n"));
@@ -150,13 +132,12 @@ class DamagedTraceReplayTest {
     @Test
     void emptyAndBinaryFilesAreRefusedAndAHeaderAloneHasNoRundowns() throws Exception {
         refusedWithOneLine(write("empty.csv", new byte[0]));
-        err.reset();
-        err.reset();
+        streams.clearErr();
         // a header and no rows is a trace of nothing: it says so and is not an error
         int exit = Main.run("replay", write("header.csv", "# rate_hz=20000\ntime_s,torque_nm\n").toString(),
                 "--program", PROGRAM, "--summary");
         assertThat(exit).isZero();
-        assertThat(out.toString(StandardCharsets.UTF_8)).contains("0 rundowns");
+        assertThat(streams.out()).contains("0 rundowns");
         byte[] junk = new byte[4096];
         new Random(8).nextBytes(junk);
         refusedWithOneLine(write("junk.csv", junk));
@@ -172,7 +153,7 @@ class DamagedTraceReplayTest {
         byte[] cut = Arrays.copyOf(b.array(), x.length * 4 - 3);
         Path p = write("cut.f32", cut);
         refusedWithOneLine(p, "--rate", "20000");
-        assertThat(err.toString(StandardCharsets.UTF_8)).contains("not a whole number of float32 samples");
+        assertThat(streams.err()).contains("not a whole number of float32 samples");
     }
 
     @Test
@@ -187,7 +168,7 @@ class DamagedTraceReplayTest {
         Path p = write("nan.f32", b.array());
         int exit = Main.run("replay", p.toString(), "--rate", "20000", "--program", PROGRAM);
         assertThat(exit).isZero();
-        List<String> lines = out.toString(StandardCharsets.UTF_8).lines().toList();
+        List<String> lines = streams.out().lines().toList();
         assertThat(lines).isNotEmpty().allSatisfy(l -> {
             JsonNode j = new ObjectMapper().readTree(l);
             assertThat(j.get("verdict").asText()).isEqualTo("NO_GO");

@@ -2,6 +2,8 @@ package hammerstep.mqtt;
 
 import ch.qos.logback.classic.Level;
 import ch.qos.logback.classic.Logger;
+import ch.qos.logback.classic.spi.ILoggingEvent;
+import ch.qos.logback.core.read.ListAppender;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.results.MemoryOutbox;
@@ -41,14 +43,17 @@ class CommandFuzzTest {
     private final List<FakeLink> links = new ArrayList<>();
     private final CountingStation station = new CountingStation();
     private ResultPublisher publisher;
-    private Level savedLevel;
+    private final ListAppender<ILoggingEvent> logged = new ListAppender<>();
+    private boolean savedAdditive;
     private Random rnd;
 
     @BeforeEach
     void setUp() {
         Logger log = (Logger) LoggerFactory.getLogger(ResultPublisher.class);
-        savedLevel = log.getLevel();
-        log.setLevel(Level.ERROR); // one warning per refused command would be 100 000 lines
+        savedAdditive = log.isAdditive();
+        log.setAdditive(false); // kept here, not printed
+        logged.start();
+        log.addAppender(logged);
         Clock wall = Clock.fixed(Samples.T0, ZoneOffset.UTC);
         publisher = new ResultPublisher(new MemoryOutbox(), Samples.STATION, () -> {
             FakeLink l = new FakeLink();
@@ -59,7 +64,9 @@ class CommandFuzzTest {
 
     @AfterEach
     void restore() {
-        ((Logger) LoggerFactory.getLogger(ResultPublisher.class)).setLevel(savedLevel);
+        Logger log = (Logger) LoggerFactory.getLogger(ResultPublisher.class);
+        log.detachAppender(logged);
+        log.setAdditive(savedAdditive);
     }
 
     @ParameterizedTest(name = "seed {0}")
@@ -101,6 +108,9 @@ class CommandFuzzTest {
             }
         }
         assertThat(publisher.figures().commandsRefused()).isEqualTo(PER_SEED);
+        assertThat(logged.list.stream().filter(e -> e.getLevel() == Level.WARN))
+                .as("the flood does not reach the log: 10 warnings a minute at most").hasSize(10)
+                .allSatisfy(e -> assertThat(e.getFormattedMessage()).startsWith("refused command "));
     }
 
     private String randomName() {

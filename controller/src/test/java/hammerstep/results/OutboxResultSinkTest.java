@@ -88,6 +88,10 @@ class OutboxResultSinkTest {
             return inner.nextSeq(kind);
         }
 
+        public java.util.List<Entry> unfinishedPartJoints() {
+            return inner.unfinishedPartJoints();
+        }
+
         public long append(MessageKind kind, long seq, String id, byte[] payload) throws ResultStoreException {
             return inner.append(kind, seq, id, payload);
         }

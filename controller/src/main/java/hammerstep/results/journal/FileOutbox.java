@@ -11,7 +11,6 @@ import java.nio.ByteBuffer;
 import java.nio.channels.FileChannel;
 import java.nio.channels.FileLock;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.DirectoryStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
@@ -29,7 +28,8 @@ import java.util.zip.CRC32C;
  * scans every segment: a torn record at the end of the newest segment is cut off, damage elsewhere
  * is skipped to the next intact record, and both are reported in {@link #recovery()}. A segment is
  * deleted only when it and every older segment are fully delivered and the delivered segments
- * exceed the retention limit, or storage runs LOW. A lock file keeps a second process out.
+ * exceed the retention limit, or storage runs LOW. A lock file keeps a second process out. This
+ * class keeps the books (counters, the index of undelivered results, room); {@link SegmentFile} does the files.
  */
 public final class FileOutbox implements Outbox {
 
@@ -39,35 +39,22 @@ public final class FileOutbox implements Outbox {
         long bytes() throws IOException;
     }
 
-    private static final class Segment {
-        final long number;
-        final Path path;
-        final FileChannel channel;
-        long size;
-        int pending;
-
-        Segment(long number, Path path, FileChannel channel, long size) {
-            this.number = number;
-            this.path = path;
-            this.channel = channel;
-            this.size = size;
-        }
-    }
-
-    private record Loc(Segment segment, long payloadAt, int length, MessageKind kind, long seq, String id) { }
+    private record Loc(SegmentFile segment, long payloadAt, int length, MessageKind kind, long seq, String id) { }
 
     private final StorageSettings settings;
     private final FreeSpace free;
     private final FileChannel lockChannel;
     private final FileLock lock;
-    private final List<Segment> segments = new ArrayList<>();
+    private final List<SegmentFile> segments = new ArrayList<>();
     private final TreeMap<Long, Loc> pending = new TreeMap<>();
+    private final TreeMap<Long, Loc> jointsAfterLastPart = new TreeMap<>();
+    private List<Entry> unfinishedPartJoints = List.of();
     private final long[] nextSeq = new long[MessageKind.values().length];
     private final CRC32C crc = new CRC32C();
     private ByteBuffer out = ByteBuffer.allocate(64 * 1024);
     private long nextPosition = 1;
     private long totalBytes;
-    private Segment active;
+    private SegmentFile active;
     private Storage storage = Storage.OK;
     private Recovery recovery;
     private boolean closed;
@@ -100,43 +87,31 @@ public final class FileOutbox implements Outbox {
             box.recover();
             return box;
         } catch (IOException | RuntimeException e) {
-            closeQuietly(lockChannel);
+            SegmentFile.closeQuietly(lockChannel);
             throw new ResultStoreException("cannot open outbox " + dir + ": " + e.getMessage(), e);
         } catch (ResultStoreException e) {
-            closeQuietly(lockChannel);
+            SegmentFile.closeQuietly(lockChannel);
             throw e;
         }
     }
 
     // ---- recovery --------------------------------------------------------------------------------
 
-    private void recover() throws IOException {
-        List<Long> numbers = new ArrayList<>();
-        try (DirectoryStream<Path> files = Files.newDirectoryStream(settings.dir(), "seg-*.hsj")) {
-            for (Path p : files) {
-                String name = p.getFileName().toString();
-                try {
-                    numbers.add(Long.parseLong(name.substring(4, name.length() - 4)));
-                } catch (NumberFormatException e) {
-                    // not one of ours; leave it alone
-                }
-            }
-        }
-        numbers.sort(null);
+    private void recover() throws IOException, ResultStoreException {
+        List<Long> numbers = SegmentFile.numbersIn(settings.dir());
         List<String> notes = new ArrayList<>();
+        Index index = new Index();
         long records = 0;
         long torn = 0;
         for (int i = 0; i < numbers.size(); i++) {
             boolean newest = i == numbers.size() - 1;
-            Path path = segmentPath(numbers.get(i));
-            FileChannel ch = FileChannel.open(path, StandardOpenOption.READ, StandardOpenOption.WRITE);
-            Segment seg = new Segment(numbers.get(i), path, ch, ch.size());
+            SegmentFile seg = SegmentFile.openExisting(settings.dir(), numbers.get(i));
             segments.add(seg);
-            long[] counts = scan(seg, newest, notes);
+            long[] counts = seg.scan(newest, notes, crc, nextSeq.length, index);
             records += counts[0];
             torn += counts[1];
         }
-        for (Segment s : segments) {
+        for (SegmentFile s : segments) {
             totalBytes += s.size;
         }
         if (segments.isEmpty()) {
@@ -149,75 +124,42 @@ public final class FileOutbox implements Outbox {
         }
         refreshStorage();
         recovery = new Recovery(numbers.size(), records, pending.size(), torn, notes);
+        List<Entry> unfinished = new ArrayList<>(jointsAfterLastPart.size());
+        for (Map.Entry<Long, Loc> e : jointsAfterLastPart.entrySet()) {
+            unfinished.add(read(e.getKey(), e.getValue()));
+        }
+        unfinishedPartJoints = List.copyOf(unfinished);
+        jointsAfterLastPart.clear();
     }
 
-    /** Reads one segment into the index; returns {records, torn bytes cut}. */
-    private long[] scan(Segment seg, boolean newest, List<String> notes) throws IOException {
-        if (seg.size > Integer.MAX_VALUE - 16) {
-            throw new IOException(seg.path + " is too large to be a journal segment");
-        }
-        int end = (int) seg.size;
-        ByteBuffer buf = ByteBuffer.allocate(end);
-        while (buf.hasRemaining() && seg.channel.read(buf, buf.position()) >= 0) {
-            // read the whole file
-        }
-        long records = 0;
-        int at = 0;
-        while (at < end) {
-            int length = JournalFormat.validAt(buf, at, end, crc);
-            if (length < 0) {
-                int next = JournalFormat.nextValid(buf, at + 1, end, crc);
-                if (next < 0) {
-                    break;
-                }
-                notes.add(seg.path.getFileName() + ": skipped " + (next - at) + " damaged bytes at offset " + at);
-                at = next;
-                continue;
-            }
-            apply(seg, buf, at + JournalFormat.FRAME, length);
-            records++;
-            at += JournalFormat.FRAME + length;
-        }
-        long torn = 0;
-        if (at < end) {
-            if (newest) {
-                torn = end - at;
-                notes.add(seg.path.getFileName() + ": cut a torn tail of " + torn + " bytes at offset " + at);
-                seg.channel.truncate(at);
-                seg.channel.force(true);
-                seg.size = at;
-            } else {
-                notes.add(seg.path.getFileName() + ": " + (end - at) + " damaged bytes at the end, offset " + at);
-            }
-        }
-        return new long[] {records, torn};
-    }
-
-    private void apply(Segment seg, ByteBuffer buf, int body, int length) {
-        byte type = buf.get(body);
-        if (type == JournalFormat.START && length >= 17 + 8 * nextSeq.length) {
-            nextPosition = Math.max(nextPosition, buf.getLong(body + 9));
+    /** Rebuilds the counters and the index of undelivered results from the records a scan finds. */
+    private final class Index implements SegmentFile.Records {
+        @Override
+        public void start(long position, long[] seqs) {
+            nextPosition = Math.max(nextPosition, position);
             for (int k = 0; k < nextSeq.length; k++) {
-                nextSeq[k] = Math.max(nextSeq[k], buf.getLong(body + 17 + 8 * k));
+                nextSeq[k] = Math.max(nextSeq[k], seqs[k]);
             }
-        } else if (type == JournalFormat.RESULT && length >= JournalFormat.RESULT_FIXED) {
-            long position = buf.getLong(body + 1);
-            MessageKind kind = MessageKind.ofCode(buf.get(body + 9));
-            long seq = buf.getLong(body + 10);
-            int idLength = Short.toUnsignedInt(buf.getShort(body + 18));
-            int payloadAt = body + JournalFormat.RESULT_FIXED + idLength;
-            if (kind == null || payloadAt > body + length) {
-                return;
+        }
+
+        @Override
+        public void result(SegmentFile seg, long position, MessageKind kind, long seq, String id, int payloadAt,
+                           int payloadLength) {
+            Loc loc = new Loc(seg, payloadAt, payloadLength, kind, seq, id);
+            pending.put(position, loc);
+            if (kind == MessageKind.PART) {
+                jointsAfterLastPart.clear();
+            } else if (kind == MessageKind.JOINT) {
+                jointsAfterLastPart.put(position, loc);
             }
-            byte[] id = new byte[idLength];
-            buf.get(body + JournalFormat.RESULT_FIXED, id);
-            pending.put(position, new Loc(seg, payloadAt, body + length - payloadAt, kind, seq,
-                    new String(id, StandardCharsets.UTF_8)));
             seg.pending++;
             nextPosition = Math.max(nextPosition, position + 1);
             nextSeq[kind.ordinal()] = Math.max(nextSeq[kind.ordinal()], seq + 1);
-        } else if (type == JournalFormat.DELIVERED && length >= JournalFormat.DELIVERED_BODY) {
-            Loc loc = pending.remove(buf.getLong(body + 1));
+        }
+
+        @Override
+        public void delivered(long position) {
+            Loc loc = pending.remove(position);
             if (loc != null) {
                 loc.segment.pending--;
             }
@@ -298,31 +240,12 @@ public final class FileOutbox implements Outbox {
 
     /** Writes a sealed record at the end of the active segment; on failure cuts any partial write. */
     private void write(ByteBuffer rec, boolean force) throws IOException {
-        long at = active.size;
-        int length = rec.remaining();
-        try {
-            long p = at;
-            while (rec.hasRemaining()) {
-                p += active.channel.write(rec, p);
-            }
-            if (force) {
-                active.channel.force(false);
-            }
-        } catch (IOException e) {
-            try {
-                active.channel.truncate(at);
-            } catch (IOException ignored) {
-                // the torn record is cut at the next start
-            }
-            throw e;
-        }
-        active.size += length;
-        totalBytes += length;
+        totalBytes += active.append(rec, force);
     }
 
     private void rotateIfFull(int recordLength) throws IOException {
         if (active.size + recordLength > settings.segmentBytes() && active.size > startLength()) {
-            active.channel.force(false);
+            active.force();
             startSegment(active.number + 1);
             applyRetention();
         }
@@ -333,18 +256,15 @@ public final class FileOutbox implements Outbox {
     }
 
     private void startSegment(long number) throws IOException {
-        Path path = segmentPath(number);
-        FileChannel ch = FileChannel.open(path, StandardOpenOption.CREATE_NEW, StandardOpenOption.READ,
-                StandardOpenOption.WRITE);
-        Segment seg = new Segment(number, path, ch, 0);
+        SegmentFile seg = SegmentFile.create(settings.dir(), number);
         segments.add(seg);
         active = seg;
         writeStart(seg);
-        syncDirectory(settings.dir());
+        SegmentFile.syncDirectory(settings.dir());
     }
 
     /** The first record of a segment: the counters, so they survive the deletion of older segments. */
-    private void writeStart(Segment seg) throws IOException {
+    private void writeStart(SegmentFile seg) throws IOException {
         ByteBuffer rec = body(startLength());
         rec.put(JournalFormat.START).putLong(seg.number).putLong(nextPosition);
         for (long s : nextSeq) {
@@ -364,22 +284,20 @@ public final class FileOutbox implements Outbox {
             if (list.size() == max) {
                 break;
             }
-            Loc loc = e.getValue();
-            byte[] payload = new byte[loc.length];
-            ByteBuffer dst = ByteBuffer.wrap(payload);
-            try {
-                while (dst.hasRemaining()) {
-                    if (loc.segment.channel.read(dst, loc.payloadAt + dst.position()) < 0) {
-                        throw new IOException("unexpected end of " + loc.segment.path);
-                    }
-                }
-            } catch (IOException ex) {
-                throw new ResultStoreException("cannot read " + loc.kind.topic() + " " + loc.seq + ": "
-                        + ex.getMessage(), ex);
-            }
-            list.add(new Entry(e.getKey(), loc.kind, loc.seq, loc.id, payload));
+            list.add(read(e.getKey(), e.getValue()));
         }
         return list;
+    }
+
+    private static Entry read(long position, Loc loc) throws ResultStoreException {
+        byte[] payload = new byte[loc.length];
+        try {
+            loc.segment.read(loc.payloadAt, ByteBuffer.wrap(payload));
+        } catch (IOException ex) {
+            throw new ResultStoreException("cannot read " + loc.kind.topic() + " " + loc.seq + ": "
+                    + ex.getMessage(), ex);
+        }
+        return new Entry(position, loc.kind, loc.seq, loc.id, payload);
     }
 
     @Override
@@ -395,6 +313,11 @@ public final class FileOutbox implements Outbox {
     @Override
     public synchronized Recovery recovery() {
         return recovery;
+    }
+
+    @Override
+    public synchronized List<Entry> unfinishedPartJoints() {
+        return unfinishedPartJoints;
     }
 
     /** Bytes the journal's segment files take now. */
@@ -436,7 +359,7 @@ public final class FileOutbox implements Outbox {
 
     private long deliveredBytes() {
         long sum = 0;
-        for (Segment s : segments) {
+        for (SegmentFile s : segments) {
             if (s != active && s.pending == 0) {
                 sum += s.size;
             }
@@ -450,13 +373,12 @@ public final class FileOutbox implements Outbox {
         long delivered = deliveredBytes();
         boolean deleted = false;
         while (segments.size() > 1) {
-            Segment oldest = segments.get(0);
+            SegmentFile oldest = segments.get(0);
             if (oldest == active || oldest.pending != 0 || (!pressure && delivered <= settings.retainBytes())) {
                 break;
             }
             try {
-                oldest.channel.close();
-                Files.deleteIfExists(oldest.path);
+                oldest.delete();
             } catch (IOException e) {
                 break;
             }
@@ -477,46 +399,24 @@ public final class FileOutbox implements Outbox {
         }
         closed = true;
         try {
-            active.channel.force(false);
+            active.force();
         } catch (IOException ignored) {
             // marks not forced are sent again: at least once
         }
-        for (Segment s : segments) {
-            closeQuietly(s.channel);
+        for (SegmentFile s : segments) {
+            s.closeQuietly();
         }
         try {
             lock.release();
         } catch (IOException ignored) {
             // the channel's close below releases it too
         }
-        closeQuietly(lockChannel);
+        SegmentFile.closeQuietly(lockChannel);
     }
 
     private void checkOpen() throws ResultStoreException {
         if (closed) {
             throw new ResultStoreException("outbox " + settings.dir() + " is closed");
-        }
-    }
-
-    private Path segmentPath(long number) {
-        return settings.dir().resolve(String.format("seg-%010d.hsj", number));
-    }
-
-    private static void syncDirectory(Path dir) {
-        try (FileChannel ch = FileChannel.open(dir, StandardOpenOption.READ)) {
-            ch.force(true);
-        } catch (IOException ignored) {
-            // some file systems cannot sync a directory; the segment's own data is forced
-        }
-    }
-
-    private static void closeQuietly(FileChannel ch) {
-        if (ch != null) {
-            try {
-                ch.close();
-            } catch (IOException ignored) {
-                // closing
-            }
         }
     }
 }

@@ -10,6 +10,7 @@ import hammerstep.results.JointOutcome;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StationEvent;
 import hammerstep.results.ResultStoreException;
+import hammerstep.results.UnfinishedPart;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
 import hammerstep.sequence.Store;
@@ -103,6 +104,12 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         this.current = watch;
         this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
         ports.tool().set(false);
+        UnfinishedPart unfinished = sink.unfinishedPart();
+        if (unfinished != null) {
+            LOG.warn("part {} was in work when the station stopped ({} joints stored): supervisor key closes it"
+                    + " as INTERRUPTED", unfinished.partSerial(), unfinished.jointIds().size());
+            sequence.partInterrupted(unfinished, clock.nanoTime());
+        }
     }
 
     @Override

@@ -118,4 +118,14 @@ final class Fakes {
             return queue.poll();
         }
     }
+
+    /** A tool output that keeps only its state (the recording fake would grow by every command). */
+    static final class Relay implements ToolEnable {
+        boolean enabled;
+
+        @Override
+        public void set(boolean on) {
+            enabled = on;
+        }
+    }
 }

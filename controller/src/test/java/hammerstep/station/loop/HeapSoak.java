@@ -1,8 +1,6 @@
 package hammerstep.station.loop;
 
-import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointMonitor;
-import hammerstep.joint.JointProgram;
 import hammerstep.joint.Verdict;
 import hammerstep.results.JointOutcome;
 import hammerstep.results.MemoryOutbox;
@@ -10,11 +8,6 @@ import hammerstep.results.Outbox;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.ResultSink;
 import hammerstep.results.ResultStoreException;
-import hammerstep.results.StationId;
-import hammerstep.sequence.Acknowledge;
-import hammerstep.sequence.AfterNoGo;
-import hammerstep.sequence.Order;
-import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.SampleRing;
@@ -31,6 +24,12 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 
+import static hammerstep.station.loop.StationFixture.BLOCK;
+import static hammerstep.station.loop.StationFixture.BLOCK_NS;
+import static hammerstep.station.loop.StationFixture.FINAL;
+import static hammerstep.station.loop.StationFixture.ID;
+import static hammerstep.station.loop.StationFixture.PATTERN;
+import static hammerstep.station.loop.StationFixture.RATE;
 import static org.assertj.core.api.Assertions.assertThat;
 
 /**
@@ -44,12 +43,6 @@ class HeapSoak {
 
     private static final int JOINTS = 100_000;
     private static final int SAMPLE_EVERY = 10_000;
-    private static final double RATE = 20_000;
-    private static final int BLOCK = 64;
-    private static final long BLOCK_NS = (long) (BLOCK * 1e9 / RATE);
-    private static final JointProgram FINAL = new JointProgram("final", "", new JointProgram.Torque(180, 200, 230),
-            FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 2, 40, 7.5),
-            new JointProgram.Rundown(10, 60, 4000), 200, 0);
     /** One 2 ms half-sine blow of unit peak at 20 kHz. */
     private static final float[] BLOW = new float[40];
 
@@ -62,7 +55,7 @@ class HeapSoak {
     private final VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
     private final SampleRing ring = new SampleRing(RATE, BLOCK, 16);
     private final Fakes.RecordingLamps lamps = new Fakes.RecordingLamps(4);
-    private final Relay tool = new Relay();
+    private final Fakes.Relay tool = new Fakes.Relay();
     private final Fakes.Inputs inputs = new Fakes.Inputs();
     private final Fakes.Scanner scanner = new Fakes.Scanner();
     private final float[] block = new float[BLOCK];
@@ -79,12 +72,10 @@ class HeapSoak {
     @Test
     void heapThreadsAndFileHandlesStayFlatOver100000Joints() throws Exception {
         Outbox outbox = new MemoryOutbox();
-        ResultSink sink = new OutboxResultSink(outbox, new StationId("s", "l", "st"), () -> "id-" + (++ids),
+        ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + (++ids),
                 Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
-        Pattern pattern = new Pattern("p2", "", List.of("L", "R"), List.of(
-                new Pattern.Pass("final", FINAL, Order.cross(2), 2, Acknowledge.OPERATOR, AfterNoGo.REJECT)));
         StationAgent agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", pattern),
+                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
                 JointMonitor.replayConditioning(FINAL), 1_000_000_000L, new StationListener() {
                     @Override
                     public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
@@ -156,16 +147,6 @@ class HeapSoak {
         trigger = false;
         for (int k = 0; k < 40 && joints == before; k++) {
             cycle(agent);
-        }
-    }
-
-    /** A tool output that keeps only its state (the recording fake would grow by every command). */
-    private static final class Relay implements hammerstep.station.ToolEnable {
-        boolean enabled;
-
-        @Override
-        public void set(boolean on) {
-            enabled = on;
         }
     }
 

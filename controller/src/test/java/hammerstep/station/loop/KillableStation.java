@@ -1,42 +1,34 @@
 package hammerstep.station.loop;
 
-import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointMonitor;
-import hammerstep.joint.JointProgram;
 import hammerstep.results.OutboxResultSink;
-import hammerstep.results.StationId;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
-import hammerstep.sequence.Acknowledge;
-import hammerstep.sequence.AfterNoGo;
-import hammerstep.sequence.Order;
-import hammerstep.sequence.Pattern;
+import hammerstep.sequence.Phase;
 import hammerstep.sequence.Sequence;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.SampleRing;
-import hammerstep.station.ToolEnable;
 import hammerstep.station.VirtualClock;
 
 import java.nio.file.Path;
 import java.time.Instant;
-import java.util.List;
 import java.util.Map;
 import java.util.UUID;
+
+import static hammerstep.station.loop.StationFixture.BLOCK;
+import static hammerstep.station.loop.StationFixture.BLOCK_NS;
+import static hammerstep.station.loop.StationFixture.FINAL;
+import static hammerstep.station.loop.StationFixture.ID;
+import static hammerstep.station.loop.StationFixture.PATTERN;
+import static hammerstep.station.loop.StationFixture.RATE;
 
 /**
  * A station that works part after part in virtual time on a file outbox in the folder given as
  * the first argument, forcing every result to disk, until it is killed. {@link StationKillIT} runs
- * it in a child JVM and kills it with SIGKILL at random moments. Prints {@code started} once the
- * outbox is open.
+ * it in a child JVM and kills it with SIGKILL at random moments. A part found interrupted at start
+ * is closed with the supervisor key first. Prints {@code started} once that is stored.
  */
 public final class KillableStation {
-
-    private static final double RATE = 20_000;
-    private static final int BLOCK = 64;
-    private static final long BLOCK_NS = (long) (BLOCK * 1e9 / RATE);
-    private static final JointProgram FINAL = new JointProgram("final", "", new JointProgram.Torque(180, 200, 230),
-            FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 2, 40, 7.5),
-            new JointProgram.Rundown(10, 60, 4000), 200, 0);
 
     private KillableStation() {
     }
@@ -45,19 +37,28 @@ public final class KillableStation {
         Path dir = Path.of(args[0]);
         FileOutbox outbox = FileOutbox.open(new StorageSettings(dir, 1 << 20, 64L << 20, 1L << 30, 0, 0),
                 () -> Long.MAX_VALUE);
-        Relay tool = new Relay();
+        Fakes.Relay tool = new Fakes.Relay();
         Fakes.Scanner scanner = new Fakes.Scanner();
+        Fakes.Inputs inputs = new Fakes.Inputs();
         SampleRing ring = new SampleRing(RATE, BLOCK, 16);
         VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
-        Pattern pattern = new Pattern("p2", "", List.of("L", "R"), List.of(
-                new Pattern.Pass("final", FINAL, Order.cross(2), 2, Acknowledge.OPERATOR, AfterNoGo.REJECT)));
         StationAgent agent = new StationAgent(clock, new StationPorts(ring, new Fakes.RecordingLamps(4), tool,
-                new Fakes.Inputs(), scanner), new OutboxResultSink(outbox, new StationId("s", "l", "st")),
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", pattern),
+                inputs, scanner), new OutboxResultSink(outbox, ID),
+                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
                 JointMonitor.replayConditioning(FINAL), 1_000_000_000L, StationListener.NONE, t -> {
                     t.printStackTrace();
                     System.exit(3);
                 });
+        if (agent.sequence().phase() == Phase.REJECTED) {
+            // a part was in work at the last kill: the supervisor checks it and turns the key
+            agent.doWork();
+            inputs.key = true;
+            clock.advanceNs(BLOCK_NS);
+            agent.doWork();
+            inputs.key = false;
+            clock.advanceNs(BLOCK_NS);
+            agent.doWork();
+        }
         System.out.println("started");
         System.out.flush();
         float[] block = new float[BLOCK];
@@ -92,15 +93,6 @@ public final class KillableStation {
                 clock.advanceNs(BLOCK_NS);
                 agent.doWork();
             }
-        }
-    }
-
-    private static final class Relay implements ToolEnable {
-        boolean enabled;
-
-        @Override
-        public void set(boolean on) {
-            enabled = on;
         }
     }
 }

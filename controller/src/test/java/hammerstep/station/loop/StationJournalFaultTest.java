@@ -1,44 +1,24 @@
 package hammerstep.station.loop;
 
-import hammerstep.joint.FinalTorque;
-import hammerstep.joint.JointMonitor;
-import hammerstep.joint.JointProgram;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.MessageKind;
 import hammerstep.results.Outbox;
-import hammerstep.results.OutboxResultSink;
 import hammerstep.results.ResultSink;
 import hammerstep.results.ResultStoreException;
-import hammerstep.results.StationEvent;
-import hammerstep.results.StationId;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
-import hammerstep.sequence.Acknowledge;
-import hammerstep.sequence.AfterNoGo;
-import hammerstep.sequence.Order;
-import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Phase;
-import hammerstep.sequence.Sequence;
 import hammerstep.station.LampMode;
 import hammerstep.station.PartIdentity;
-import hammerstep.station.SampleRing;
 import hammerstep.station.TowerLamp;
-import hammerstep.station.VirtualClock;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.io.IOException;
-import java.nio.channels.FileChannel;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
-import java.time.Clock;
-import java.time.Instant;
-import java.time.ZoneOffset;
-import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
-import java.util.Map;
 import java.util.Random;
 import java.util.concurrent.atomic.AtomicLong;
 import java.util.stream.Stream;
@@ -53,98 +33,26 @@ import static org.assertj.core.api.Assertions.assertThat;
  */
 class StationJournalFaultTest {
 
-    private static final double RATE = 20_000;
-    private static final int BLOCK = 64;
-    private static final long BLOCK_NS = (long) (BLOCK * 1e9 / RATE);
-    private static final JointProgram FINAL = new JointProgram("final", "", new JointProgram.Torque(180, 200, 230),
-            FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 2, 40, 7.5),
-            new JointProgram.Rundown(10, 60, 4000), 200, 0);
-    private static final StationId ID = new StationId("s", "l", "st");
-
     @TempDir
     Path dir;
 
     private final AtomicLong freeBytes = new AtomicLong(Long.MAX_VALUE);
-    private final VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
-    private final SampleRing ring = new SampleRing(RATE, BLOCK, 16);
-    private final Fakes.RecordingLamps lamps = new Fakes.RecordingLamps(4);
-    private final Fakes.RecordingTool tool = new Fakes.RecordingTool();
-    private final Fakes.Inputs inputs = new Fakes.Inputs();
-    private final Fakes.Scanner scanner = new Fakes.Scanner();
-    private final AtomicLong ids = new AtomicLong();
-    private final List<StationEvent> events = new ArrayList<>();
-    private final List<String> storeFailures = new ArrayList<>();
-    private final Pattern pattern = new Pattern("p2", "", List.of("L", "R"), List.of(
-            new Pattern.Pass("final", FINAL, Order.cross(2), 2, Acknowledge.OPERATOR, AfterNoGo.REJECT)));
-    private StationAgent agent;
-
-    private boolean trigger;
-    private long blowStartNs = Long.MIN_VALUE;
-    private long nextBlowNs;
-    private int blowNo;
+    private final StationFixture station = new StationFixture();
 
     private FileOutbox openJournal() throws ResultStoreException {
         return FileOutbox.open(new StorageSettings(dir, 1 << 20, 1 << 20, 1L << 30, 1000, 100), freeBytes::get);
     }
 
     private void start(Outbox outbox) {
-        ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
-                Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
-        agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", pattern),
-                JointMonitor.replayConditioning(FINAL), 1_000_000_000L, new StationListener() {
-                    @Override
-                    public void onEvent(StationEvent event, ResultSink.Receipt receipt) {
-                        events.add(event);
-                    }
-
-                    @Override
-                    public void onStoreFailed(String message) {
-                        storeFailures.add(message);
-                    }
-                }, t -> { throw new AssertionError(t); });
-        agent.doWork();
-    }
-
-    private void cycle() {
-        long t0 = clock.nanoTime();
-        float[] block = new float[BLOCK];
-        for (int i = 0; i < BLOCK; i++) {
-            long t = t0 + (long) (i * 1e9 / RATE);
-            if (trigger && tool.enabled && t - nextBlowNs >= 0) {
-                blowStartNs = t;
-                blowNo++;
-                nextBlowNs = t + 20_000_000L;
-            }
-            double dt = (t - blowStartNs) * 1e-9;
-            block[i] = dt >= 0 && dt < 0.002 ? (float) (45 * blowNo * Math.sin(Math.PI * dt / 0.002)) : 0f;
-        }
-        ring.offer(block, 0, BLOCK, t0);
-        clock.advanceNs(BLOCK_NS);
-        agent.doWork();
-    }
-
-    private void tighten() {
-        blowNo = 0;
-        nextBlowNs = clock.nanoTime();
-        trigger = true;
-        for (int k = 0; k < 200 && tool.enabled; k++) {
-            cycle();
-        }
-        trigger = false;
-        for (int k = 0; k < 40; k++) {
-            cycle();
-        }
+        station.start(outbox, StationFixture.replayConditioning(), t -> { throw new AssertionError(t); });
+        station.agent.doWork();
     }
 
     private void onePart(String serial) {
-        scanner.queue.add(new PartIdentity(serial, "M"));
-        cycle();
-        tighten();
-        tighten();
-        for (int k = 0; k < 200; k++) {
-            cycle(); // the green hold ends
-        }
+        station.scanPart(serial);
+        station.tighten();
+        station.tighten();
+        station.cycles(200); // the green hold ends
     }
 
     private static List<String> payloads(Outbox box) throws ResultStoreException {
@@ -227,28 +135,28 @@ class StationJournalFaultTest {
         try (FileOutbox box = openJournal()) {
             start(box);
             onePart("SN-10");
-            scanner.queue.add(new PartIdentity("SN-11", "M"));
-            cycle();
-            tighten();
+            station.scanner.queue.add(new PartIdentity("SN-11", "M"));
+            station.cycle();
+            station.tighten();
             freeBytes.set(50); // the volume fills while the part is in work: its results are still stored
-            tighten();
+            station.tighten();
             for (int k = 0; k < 200; k++) {
-                cycle();
+                station.cycle();
             }
-            assertThat(agent.sequence().phase()).isEqualTo(Phase.WAITING);
+            assertThat(station.agent.sequence().phase()).isEqualTo(Phase.WAITING);
             before = payloads(box);
             assertThat(before).anySatisfy(p -> assertThat(p).contains("\"STORAGE_FULL\"").contains("ALARM"));
             assertThat(before.stream().filter(p -> p.contains(" PART ")).count()).isEqualTo(2);
 
-            scanner.queue.add(new PartIdentity("SN-12", "M"));
+            station.scanner.queue.add(new PartIdentity("SN-12", "M"));
             for (int k = 0; k < 20; k++) {
-                cycle();
+                station.cycle();
             }
-            assertThat(agent.sequence().phase()).as("no part starts on a full store").isEqualTo(Phase.WAITING);
-            assertThat(agent.sequence().part()).isNull();
-            assertThat(tool.enabled).isFalse();
-            assertThat(agent.sequence().tower(TowerLamp.WHITE)).isEqualTo(LampMode.OFF);
-            assertThat(agent.sequence().tower(TowerLamp.YELLOW)).isEqualTo(LampMode.BLINKING);
+            assertThat(station.agent.sequence().phase()).as("no part starts on a full store").isEqualTo(Phase.WAITING);
+            assertThat(station.agent.sequence().part()).isNull();
+            assertThat(station.tool.enabled).isFalse();
+            assertThat(station.agent.sequence().tower(TowerLamp.WHITE)).isEqualTo(LampMode.OFF);
+            assertThat(station.agent.sequence().tower(TowerLamp.YELLOW)).isEqualTo(LampMode.BLINKING);
             assertThat(payloads(box)).containsExactlyElementsOf(before);
         }
         try (FileOutbox box = openJournal()) {
@@ -260,30 +168,69 @@ class StationJournalFaultTest {
     void aStoreThatFailsStopsTheToolKeepsTheVerdictBackAndStoresItOnTheKey() throws Exception {
         FailingOutbox box = new FailingOutbox();
         start(box);
-        scanner.queue.add(new PartIdentity("SN-20", "M"));
-        cycle();
+        station.scanner.queue.add(new PartIdentity("SN-20", "M"));
+        station.cycle();
         box.failing = true; // e.g. the medium went read-only
-        tighten();
-        assertThat(agent.sequence().phase()).isEqualTo(Phase.FAULT);
-        assertThat(storeFailures).isNotEmpty();
-        assertThat(tool.enabled).isFalse();
-        assertThat(agent.sequence().tower(TowerLamp.RED)).isEqualTo(LampMode.BLINKING);
-        assertThat(agent.sequence().tower(TowerLamp.GREEN)).as("no verdict shown before it is stored")
+        station.tighten();
+        assertThat(station.agent.sequence().phase()).isEqualTo(Phase.FAULT);
+        assertThat(station.storeFailures).isNotEmpty();
+        assertThat(station.tool.enabled).isFalse();
+        assertThat(station.agent.sequence().tower(TowerLamp.RED)).isEqualTo(LampMode.BLINKING);
+        assertThat(station.agent.sequence().tower(TowerLamp.GREEN)).as("no verdict shown before it is stored")
                 .isEqualTo(LampMode.OFF);
         assertThat(box.backlog()).isZero();
         box.failing = false;
-        inputs.key = true;
-        cycle();
-        inputs.key = false;
-        cycle();
-        assertThat(agent.sequence().phase()).isEqualTo(Phase.PROMPT);
+        station.inputs.key = true;
+        station.cycle();
+        station.inputs.key = false;
+        station.cycle();
+        assertThat(station.agent.sequence().phase()).isEqualTo(Phase.PROMPT);
         assertThat(box.pending(0, 10)).anySatisfy(e -> assertThat(e.kind()).isEqualTo(MessageKind.JOINT));
-        tighten();
+        station.tighten();
         for (int k = 0; k < 5; k++) {
-            cycle();
+            station.cycle();
         }
         assertThat(box.pending(0, 100).stream().filter(e -> e.kind() == MessageKind.JOINT)).hasSize(2);
         assertThat(box.pending(0, 100).stream().filter(e -> e.kind() == MessageKind.PART)).hasSize(1);
+    }
+
+    @Test
+    void aPartInWorkWhenTheStationStoppedIsMarkedInterruptedAndNeedsTheSupervisorBeforeTheNextPart() throws Exception {
+        try (FileOutbox box = openJournal()) {
+            start(box);
+            station.scanner.queue.add(new PartIdentity("SN-30", "M"));
+            station.cycle();
+            station.tighten(); // one of two positions done, then the power goes
+            assertThat(box.pending(0, 100)).extracting(Outbox.Entry::kind).containsExactly(MessageKind.JOINT);
+        }
+        try (FileOutbox box = openJournal()) {
+            start(box);
+            assertThat(station.tool.enabled).isFalse();
+            assertThat(station.agent.sequence().tower(TowerLamp.RED)).isEqualTo(LampMode.BLINKING);
+            assertThat(station.agent.sequence().tower(TowerLamp.WHITE)).isEqualTo(LampMode.OFF);
+            station.scanner.queue.add(new PartIdentity("SN-31", "M"));
+            station.cycle();
+            assertThat(station.agent.sequence().part().serial()).as("no new part before the key").isEqualTo("SN-30");
+            station.inputs.key = true;
+            station.cycle();
+            station.inputs.key = false;
+            station.cycle();
+            List<Outbox.Entry> all = box.pending(0, 100);
+            assertThat(all).extracting(Outbox.Entry::kind).containsExactly(MessageKind.JOINT, MessageKind.EVENT,
+                    MessageKind.EVENT, MessageKind.PART);
+            for (Outbox.Entry e : all) {
+                hammerstep.results.MessageSchemas.assertValid(e.payload());
+            }
+            String part = new String(all.get(3).payload(), java.nio.charset.StandardCharsets.UTF_8);
+            assertThat(part).contains("\"part_serial\":\"SN-30\"", "\"verdict\":\"NO_GO\"",
+                    "\"ended\":\"INTERRUPTED\"", "\"joints\":[\"" + all.get(0).id() + "\"]");
+            assertThat(station.events).extracting(hammerstep.results.StationEvent::code).contains("PART_INTERRUPTED", "IDENTITY_IGNORED");
+            onePart("SN-32");
+            assertThat(box.pending(0, 100).stream().filter(e -> e.kind() == MessageKind.PART)).hasSize(2);
+        }
+        try (FileOutbox box = openJournal()) {
+            assertThat(box.unfinishedPartJoints()).as("closed: nothing to mark at the next start").isEmpty();
+        }
     }
 
     /** An in-memory outbox whose appends can be made to fail. */
@@ -320,6 +267,11 @@ class StationJournalFaultTest {
 
         public Recovery recovery() {
             return inner.recovery();
+        }
+
+        @Override
+        public List<Entry> unfinishedPartJoints() {
+            return inner.unfinishedPartJoints();
         }
 
         public void close() {

@@ -73,7 +73,7 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--battery-v", paramLabel = "V", description = "battery open-circuit voltage (default: the tool's nominal)")
     Double batteryV;
 
-    @Option(names = "--out", required = true, paramLabel = "FILE", description = "trace to write (CSV: time_s,torque_nm)")
+    @Option(names = "--out", required = true, paramLabel = "FILE", description = "trace to write: CSV (time_s,torque_nm), or raw float32 N·m if FILE ends in .f32")
     Path out;
 
     @Option(names = "--truth", required = true, paramLabel = "FILE", description = "ground truth to write (JSON)")

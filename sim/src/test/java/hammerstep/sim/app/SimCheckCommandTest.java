@@ -1,13 +1,10 @@
 package hammerstep.sim.app;
 
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeEach;
+import hammerstep.testing.StandardStreams;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 
-import java.io.ByteArrayOutputStream;
-import java.io.PrintStream;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 
@@ -18,24 +15,13 @@ class SimCheckCommandTest {
     @TempDir
     Path dir;
 
-    private final ByteArrayOutputStream err = new ByteArrayOutputStream();
-    private PrintStream oldErr;
-
-    @BeforeEach
-    void capture() {
-        oldErr = System.err;
-        System.setErr(new PrintStream(err, true, StandardCharsets.UTF_8));
-    }
-
-    @AfterEach
-    void restore() {
-        System.setErr(oldErr);
-    }
+    @RegisterExtension
+    final StandardStreams streams = new StandardStreams();
 
     @Test
     void theWholeConfigTreeIsValid() {
         assertThat(SimMain.run("check", "--quiet", "../config")).isZero();
-        assertThat(err.toString(StandardCharsets.UTF_8)).isEmpty();
+        assertThat(streams.err()).isEmpty();
     }
 
     @Test
@@ -45,6 +31,6 @@ class SimCheckCommandTest {
         Files.writeString(bad, Files.readString(Path.of("../config/sim/tools/cordless-two-dog.yaml"))
                 .replace("name: cordless-two-dog", "name: cordless-two-dog\nflavour: strong"));
         assertThat(SimMain.run("check", bad.toString())).isEqualTo(2);
-        assertThat(err.toString(StandardCharsets.UTF_8)).startsWith(bad + ":").contains("unknown key 'flavour'");
+        assertThat(streams.err()).startsWith(bad + ":").contains("unknown key 'flavour'");
     }
 }

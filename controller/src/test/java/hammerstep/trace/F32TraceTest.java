@@ -1,0 +1,70 @@
+package hammerstep.trace;
+
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.io.IOException;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.file.Files;
+import java.nio.file.Path;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+class F32TraceTest {
+
+    @TempDir
+    Path dir;
+
+    private Path write(int samples) throws IOException {
+        ByteBuffer b = ByteBuffer.allocate(samples * 4).order(ByteOrder.LITTLE_ENDIAN);
+        for (int i = 0; i < samples; i++) {
+            b.putFloat(i * 0.5f);
+        }
+        return Files.write(dir.resolve("t.f32"), b.array());
+    }
+
+    @Test
+    void readsAcrossMappedPieces() throws Exception {
+        F32Trace t = F32Trace.open(write(10_007), 1000);
+        assertThat(t.samples()).isEqualTo(10_007);
+        float[] into = new float[2500];
+        for (long from : new long[] {0, 999, 1000, 2999, 7507}) {
+            t.read(from, into, 2500);
+            for (int i = 0; i < 2500; i++) {
+                assertThat(into[i]).as("sample %d", from + i).isEqualTo((from + i) * 0.5f);
+            }
+        }
+    }
+
+    @Test
+    void traceWriterWritesWhatF32TraceReads() throws Exception {
+        Path p = dir.resolve("w.f32");
+        float[] x = new float[10_000];
+        for (int i = 0; i < x.length; i++) {
+            x[i] = (float) Math.sin(i * 0.01) * 300f;
+        }
+        try (TraceWriter w = new TraceWriter(p, 50_000, java.util.Map.of("ignored", "in .f32"))) {
+            w.write(x, 0, 7000);
+            w.write(x, 7000, 3000);
+        }
+        F32Trace t = F32Trace.open(p);
+        float[] back = new float[x.length];
+        t.read(0, back, back.length);
+        assertThat(back).containsExactly(x);
+    }
+
+    @Test
+    void refusesReadsPastTheEnd() throws Exception {
+        F32Trace t = F32Trace.open(write(100), 64);
+        assertThatThrownBy(() -> t.read(90, new float[20], 20)).isInstanceOf(IndexOutOfBoundsException.class);
+    }
+
+    @Test
+    void refusesATornFile() throws Exception {
+        Path p = Files.write(dir.resolve("torn.f32"), new byte[10]);
+        assertThatThrownBy(() -> F32Trace.open(p)).isInstanceOf(TraceException.class)
+                .hasMessageContaining("not a whole number of float32 samples");
+    }
+}
