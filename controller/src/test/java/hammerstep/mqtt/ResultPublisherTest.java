@@ -14,8 +14,6 @@ import java.time.Clock;
 import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.CompletionStage;
 import java.util.concurrent.atomic.AtomicInteger;
 
 import static org.assertj.core.api.Assertions.assertThat;
@@ -235,27 +233,5 @@ class ResultPublisherTest {
         assertThat(l.disconnected).isTrue();
         byte[] last = l.on("/status").get(l.on("/status").size() - 1).payload();
         assertThat(json(last).get("state").asText()).isEqualTo("offline");
-    }
-
-    /** A station that accepts every part and records it. */
-    private static final class RecordingStation implements StationCommands {
-        final List<String> started = new ArrayList<>();
-
-        public CompletionStage<Reply> startPart(String serial, String model) {
-            started.add(serial + "/" + model);
-            return CompletableFuture.completedFuture(Reply.accepted("part " + serial + " started"));
-        }
-
-        public CompletionStage<Reply> endPart(String reason) {
-            return CompletableFuture.completedFuture(Reply.refused("NO_PART", "no part in progress"));
-        }
-
-        public CompletionStage<Reply> reloadPrograms() {
-            return CompletableFuture.completedFuture(Reply.accepted("reloaded"));
-        }
-
-        public Activity activity() {
-            return new Activity("READY", null, null, null);
-        }
     }
 }

@@ -83,37 +83,17 @@ class OutboxResultSinkTest {
     }
 
     /** An outbox that reports a given recovery. */
-    private record DelegatingOutbox(Outbox inner, Recovery recovery) implements Outbox {
-        public long nextSeq(MessageKind kind) {
-            return inner.nextSeq(kind);
+    private static final class DelegatingOutbox extends ForwardingOutbox {
+        private final Recovery recovery;
+
+        DelegatingOutbox(Outbox inner, Recovery recovery) {
+            super(inner);
+            this.recovery = recovery;
         }
 
-        public java.util.List<Entry> unfinishedPartJoints() {
-            return inner.unfinishedPartJoints();
-        }
-
-        public long append(MessageKind kind, long seq, String id, byte[] payload) throws ResultStoreException {
-            return inner.append(kind, seq, id, payload);
-        }
-
-        public List<Entry> pending(long afterPosition, int max) throws ResultStoreException {
-            return inner.pending(afterPosition, max);
-        }
-
-        public void markDelivered(long position) throws ResultStoreException {
-            inner.markDelivered(position);
-        }
-
-        public long backlog() {
-            return inner.backlog();
-        }
-
-        public ResultSink.Storage storage() {
-            return inner.storage();
-        }
-
-        public void close() {
-            inner.close();
+        @Override
+        public Recovery recovery() {
+            return recovery;
         }
     }
 }

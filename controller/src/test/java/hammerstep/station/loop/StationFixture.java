@@ -33,7 +33,7 @@ import java.util.function.DoubleUnaryOperator;
 /**
  * The station loop on the test's thread in virtual time: the fake ports of {@link Fakes}, part
  * model {@code M} with the two-position {@link #PATTERN}, a result sink on the outbox the test
- * chooses, a listener that records what the loop reports, and a synthetic tool. The tool strikes a
+ * chooses, a {@link RecordingListener}, and a synthetic tool. The tool strikes a
  * 2 ms half-sine blow every {@link #intervalNs} while the trigger is held and the tool enabled; the
  * n-th blow of a pull peaks at {@link #stepNm} × n, and every sample passes through {@link #fault}
  * on its way to the ring. One {@link #cycle()} is one block of samples, then one {@code doWork()}.
@@ -58,10 +58,11 @@ final class StationFixture {
     final Fakes.RecordingTool tool = new Fakes.RecordingTool();
     final Fakes.Inputs inputs = new Fakes.Inputs();
     final Fakes.Scanner scanner = new Fakes.Scanner();
-    final List<JointOutcome> joints = new ArrayList<>();
-    final List<PartOutcome> parts = new ArrayList<>();
-    final List<StationEvent> events = new ArrayList<>();
-    final List<String> storeFailures = new ArrayList<>();
+    final RecordingListener reports = new RecordingListener();
+    final List<JointOutcome> joints = reports.joints;
+    final List<PartOutcome> parts = reports.parts;
+    final List<StationEvent> events = reports.events;
+    final List<String> storeFailures = reports.storeFailures;
     final List<Throwable> errors = new ArrayList<>();
     private final AtomicLong ids = new AtomicLong();
     StationAgent agent;
@@ -89,7 +90,7 @@ final class StationFixture {
                 Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
                 new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
-                conditioning, 1_000_000_000L, new Recorder(), errorHandler);
+                conditioning, 1_000_000_000L, reports, errorHandler);
         return agent;
     }
 
@@ -158,28 +159,5 @@ final class StationFixture {
     void scanPart(String serial) {
         scanner.queue.add(new PartIdentity(serial, "M"));
         cycle();
-    }
-
-    /** Records what the loop reports. */
-    private final class Recorder implements StationListener {
-        @Override
-        public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
-            joints.add(joint);
-        }
-
-        @Override
-        public void onPart(PartOutcome part, ResultSink.Receipt receipt) {
-            parts.add(part);
-        }
-
-        @Override
-        public void onEvent(StationEvent event, ResultSink.Receipt receipt) {
-            events.add(event);
-        }
-
-        @Override
-        public void onStoreFailed(String message) {
-            storeFailures.add(message);
-        }
     }
 }

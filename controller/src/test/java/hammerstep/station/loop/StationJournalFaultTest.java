@@ -1,9 +1,9 @@
 package hammerstep.station.loop;
 
+import hammerstep.results.ForwardingOutbox;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.MessageKind;
 import hammerstep.results.Outbox;
-import hammerstep.results.ResultSink;
 import hammerstep.results.ResultStoreException;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
@@ -234,48 +234,19 @@ class StationJournalFaultTest {
     }
 
     /** An in-memory outbox whose appends can be made to fail. */
-    private static final class FailingOutbox implements Outbox {
-        private final MemoryOutbox inner = new MemoryOutbox();
+    private static final class FailingOutbox extends ForwardingOutbox {
         boolean failing;
 
-        public long nextSeq(MessageKind kind) {
-            return inner.nextSeq(kind);
+        FailingOutbox() {
+            super(new MemoryOutbox());
         }
 
+        @Override
         public long append(MessageKind kind, long seq, String id, byte[] payload) throws ResultStoreException {
             if (failing) {
                 throw new ResultStoreException("write failed: read-only file system");
             }
-            return inner.append(kind, seq, id, payload);
-        }
-
-        public List<Entry> pending(long afterPosition, int max) throws ResultStoreException {
-            return inner.pending(afterPosition, max);
-        }
-
-        public void markDelivered(long position) throws ResultStoreException {
-            inner.markDelivered(position);
-        }
-
-        public long backlog() {
-            return inner.backlog();
-        }
-
-        public ResultSink.Storage storage() {
-            return inner.storage();
-        }
-
-        public Recovery recovery() {
-            return inner.recovery();
-        }
-
-        @Override
-        public List<Entry> unfinishedPartJoints() {
-            return inner.unfinishedPartJoints();
-        }
-
-        public void close() {
-            inner.close();
+            return super.append(kind, seq, id, payload);
         }
     }
 }

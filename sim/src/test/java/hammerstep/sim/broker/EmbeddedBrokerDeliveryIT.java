@@ -1,5 +1,6 @@
 package hammerstep.sim.broker;
 
+import hammerstep.mqtt.RecordingStation;
 import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.paho.QualityClient;
 import hammerstep.results.MessageSchemas;
@@ -16,9 +17,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.CompletionStage;
-import java.util.concurrent.CopyOnWriteArrayList;
 import java.util.stream.Collectors;
 import java.util.stream.LongStream;
 
@@ -222,27 +220,5 @@ class EmbeddedBrokerDeliveryIT {
                 .map(Thread::getName)
                 .filter(n -> n.startsWith("MQTT") || n.startsWith("mqtt-hub-fit-1") || n.startsWith("results-delivery"))
                 .collect(Collectors.toSet());
-    }
-
-    /** Accepts every part and records it. */
-    static final class RecordingStation implements StationCommands {
-        final List<String> started = new CopyOnWriteArrayList<>();
-
-        public CompletionStage<Reply> startPart(String serial, String model) {
-            started.add(serial + "/" + model);
-            return CompletableFuture.completedFuture(Reply.accepted("part " + serial + " started"));
-        }
-
-        public CompletionStage<Reply> endPart(String reason) {
-            return CompletableFuture.completedFuture(Reply.refused("NO_PART", "no part in progress"));
-        }
-
-        public CompletionStage<Reply> reloadPrograms() {
-            return CompletableFuture.completedFuture(Reply.accepted("reloaded"));
-        }
-
-        public Activity activity() {
-            return new Activity("READY", null, null, null);
-        }
     }
 }

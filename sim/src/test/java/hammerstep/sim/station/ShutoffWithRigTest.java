@@ -8,7 +8,6 @@ import hammerstep.results.JointOutcome;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.PartOutcome;
-import hammerstep.results.ResultSink;
 import hammerstep.results.StationId;
 import hammerstep.sequence.Acknowledge;
 import hammerstep.sequence.AfterNoGo;
@@ -18,7 +17,7 @@ import hammerstep.sequence.Sequence;
 import hammerstep.sim.physics.Presets;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.VirtualClock;
-import hammerstep.station.loop.StationListener;
+import hammerstep.station.loop.RecordingListener;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
@@ -62,8 +61,9 @@ class ShutoffWithRigTest {
         VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
         VirtualStation hw = new VirtualStation(tool, new VirtualStation.Fixture(4, true, true, 0), RATE, BLOCK, 64,
                 1_200_000_000L);
-        List<JointOutcome> joints = new ArrayList<>();
-        List<PartOutcome> parts = new ArrayList<>();
+        RecordingListener reports = new RecordingListener();
+        List<JointOutcome> joints = reports.joints;
+        List<PartOutcome> parts = reports.parts;
         List<Throwable> errors = new ArrayList<>();
         long[] ids = {0};
         SimulatedStation s = new SimulatedStation(clock, hw,
@@ -72,17 +72,7 @@ class ShutoffWithRigTest {
                 Map.of("R", pattern), new Sequence.Settings("TQ", null, 500),
                 JointMonitor.replayConditioning(fin), 1_000_000_000L, Habits.careful(),
                 List.of(new PartIdentity("R-1", "R"), new PartIdentity("R-2", "R")), 3,
-                new StationListener() {
-                    @Override
-                    public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
-                        joints.add(joint);
-                    }
-
-                    @Override
-                    public void onPart(PartOutcome part, ResultSink.Receipt receipt) {
-                        parts.add(part);
-                    }
-                }, errors::add);
+                reports, errors::add);
         while (!s.finished() && s.nowNs() < 300_000_000_000L) {
             s.step();
         }

@@ -17,7 +17,7 @@ import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.VirtualClock;
-import hammerstep.station.loop.StationListener;
+import hammerstep.station.loop.RecordingListener;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
@@ -46,8 +46,9 @@ class SimulatedStationTest {
             new Pattern.Pass("final", program("final", 150, 165, 190, 160, 1), Order.cross(5), 2,
                     Acknowledge.OPERATOR, AfterNoGo.REJECT)));
 
-    private final List<JointOutcome> joints = new ArrayList<>();
-    private final List<PartOutcome> parts = new ArrayList<>();
+    private final RecordingListener reports = new RecordingListener();
+    private final List<JointOutcome> joints = reports.joints;
+    private final List<PartOutcome> parts = reports.parts;
     private final List<Throwable> errors = new ArrayList<>();
 
     private SimulatedStation build(Habits habits, long seed, boolean confirm, int count) {
@@ -63,17 +64,7 @@ class SimulatedStationTest {
         }
         return new SimulatedStation(clock, hw, sink, Map.of("HX", HUB), new Sequence.Settings("TQ-SIM", null, 1500),
                 JointMonitor.replayConditioning(HUB.passes().get(0).program()), 1_000_000_000L, habits, list, seed,
-                new StationListener() {
-                    @Override
-                    public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
-                        joints.add(joint);
-                    }
-
-                    @Override
-                    public void onPart(PartOutcome part, ResultSink.Receipt receipt) {
-                        parts.add(part);
-                    }
-                }, errors::add);
+                reports, errors::add);
     }
 
     private void run(SimulatedStation s) {
