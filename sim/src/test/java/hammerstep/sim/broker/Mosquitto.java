@@ -57,6 +57,17 @@ final class Mosquitto implements AutoCloseable {
         return "tcp://127.0.0.1:" + port;
     }
 
+    /** The listener's url with a TLS listener (the extra lines set cafile, certfile, keyfile). */
+    String sslUrl() {
+        return "ssl://127.0.0.1:" + port;
+    }
+
+    /** What the broker logged so far. */
+    String log() throws IOException {
+        Path log = conf.resolveSibling("mosquitto.log");
+        return Files.exists(log) ? Files.readString(log) : "";
+    }
+
     void start() throws IOException, InterruptedException {
         process = new ProcessBuilder(binary().toString(), "-c", conf.toString())
                 .redirectErrorStream(true).redirectOutput(conf.resolveSibling("mosquitto.log").toFile()).start();
