@@ -2,7 +2,6 @@ package hammerstep.joint;
 
 import com.code_intelligence.jazzer.junit.FuzzTest;
 import hammerstep.config.ConfigException;
-import hammerstep.config.Problem;
 import hammerstep.config.YamlDocument;
 import org.junit.jupiter.api.Tag;
 
@@ -14,7 +13,8 @@ import static org.assertj.core.api.Assertions.assertThat;
  * {@code src/test/resources/hammerstep/joint/ProgramFileFuzzTestInputs/} (tag {@code jazzer}: a JVM
  * of its own); {@code JAZZER_FUZZ=1 mvn -o -pl controller test-compile surefire:test@jazzer
  * -Dtest=ProgramFileFuzzTest} fuzzes for real. Whatever the bytes, the loader gives a program or
- * a {@link ConfigException} whose problems each carry a message, never another exception.
+ * a {@link ConfigException} whose problems each carry a place and a message, never another
+ * exception. (What the messages say is checked on the catalogue of broken files.)
  */
 @Tag("jazzer")
 class ProgramFileFuzzTest {
@@ -29,9 +29,6 @@ class ProgramFileFuzzTest {
                 assertThat(pr.message()).isNotBlank();
                 assertThat(pr.file()).isEqualTo("fuzz.yaml");
             });
-            for (Problem pr : e.problems()) {
-                assertThat(pr.toString()).doesNotContain("Exception");
-            }
         }
     }
 }
