@@ -16,6 +16,8 @@ import java.nio.file.Path;
  *   username: hub-fit-1                   # optional
  *   password_file: /etc/hammerstep/mqtt.pass   # read at connect; must not be readable by others
  *   ca_file: /etc/hammerstep/plant-ca.pem      # ssl only: trust these CAs instead of the JVM's
+ *   cert_file: /etc/hammerstep/station.pem     # ssl only, optional: client certificate (PEM, chain allowed)
+ *   key_file: /etc/hammerstep/station.key      # its private key: PEM, unencrypted PKCS#8; chmod 600
  *   keep_alive_s: 30
  *   connect_timeout_s: 5
  *   reconnect: { min_ms: 500, max_ms: 30000 }
@@ -25,7 +27,9 @@ import java.nio.file.Path;
  *   inflight: 32             # results published and not yet acknowledged, at most
  * </pre>
  *
- * {@link #toString()} never shows the password (it is not held here at all).
+ * {@link #toString()} never shows the password (it is not held here at all). The files are
+ * checked when the section is read (they exist; the password and key files are not open to every
+ * user) and read at each connect.
  */
 public record BrokerSettings(
         String url,
@@ -33,6 +37,8 @@ public record BrokerSettings(
         String username,
         Path passwordFile,
         Path caFile,
+        Path certFile,
+        Path keyFile,
         int keepAliveS,
         int connectTimeoutS,
         long reconnectMinMs,
@@ -44,7 +50,7 @@ public record BrokerSettings(
 
     /** Settings for a plain connection to {@code url} with the given client id. */
     public static BrokerSettings plain(String url, String clientId) {
-        return new BrokerSettings(url, clientId, null, null, null, 30, 5, 500, 30_000, 3600, 300, 60, 32);
+        return new BrokerSettings(url, clientId, null, null, null, null, null, 30, 5, 500, 30_000, 3600, 300, 60, 32);
     }
 
     public boolean tls() {
@@ -53,13 +59,15 @@ public record BrokerSettings(
 
     /** A copy with another url (the demo's {@code --broker}). */
     public BrokerSettings withUrl(String newUrl) {
-        return new BrokerSettings(newUrl, clientId, username, passwordFile, caFile, keepAliveS, connectTimeoutS,
+        return new BrokerSettings(newUrl, clientId, username, passwordFile, caFile, certFile, keyFile, keepAliveS,
+                connectTimeoutS,
                 reconnectMinMs, reconnectMaxMs, sessionExpiryS, commandMaxExpiryS, statusIntervalS, inflight);
     }
 
     /** A copy with another client id. */
     public BrokerSettings withClientId(String id) {
-        return new BrokerSettings(url, id, username, passwordFile, caFile, keepAliveS, connectTimeoutS,
+        return new BrokerSettings(url, id, username, passwordFile, caFile, certFile, keyFile, keepAliveS,
+                connectTimeoutS,
                 reconnectMinMs, reconnectMaxMs, sessionExpiryS, commandMaxExpiryS, statusIntervalS, inflight);
     }
 
@@ -75,6 +83,8 @@ public record BrokerSettings(
         String username = r.has("username") ? r.string("username") : null;
         String passwordFile = r.has("password_file") ? r.string("password_file") : null;
         String caFile = r.has("ca_file") ? r.string("ca_file") : null;
+        String certFile = r.has("cert_file") ? r.string("cert_file") : null;
+        String keyFile = r.has("key_file") ? r.string("key_file") : null;
         int keepAlive = r.integer("keep_alive_s", 30, 5, 3600);
         int connectTimeout = r.integer("connect_timeout_s", 5, 1, 120);
         long minMs = 500;
@@ -102,8 +112,27 @@ public record BrokerSettings(
         if (passwordFile != null && username == null) {
             r.problem("password_file", "'" + r.path("password_file") + "' needs 'username' beside it");
         }
-        if (caFile != null && !url.startsWith("ssl://")) {
-            r.problem("ca_file", "'" + r.path("ca_file") + "' is for ssl:// brokers; the url is " + url);
+        for (String key : new String[] {"ca_file", "cert_file", "key_file"}) {
+            if (r.has(key) && !url.startsWith("ssl://")) {
+                r.problem(key, "'" + r.path(key) + "' is for ssl:// brokers; the url is " + url);
+            }
+        }
+        if ((certFile == null) != (keyFile == null)) {
+            String has = certFile != null ? "cert_file" : "key_file";
+            r.problem(has, "'" + r.path(has) + "' needs '" + (certFile != null ? "key_file" : "cert_file")
+                    + "' beside it: a client certificate and its private key go together");
+        }
+        if (caFile != null && !java.nio.file.Files.isRegularFile(base.resolve(caFile))) {
+            r.problem("ca_file", "'" + r.path("ca_file") + "': no such file " + base.resolve(caFile).normalize());
+        }
+        if (certFile != null && !java.nio.file.Files.isRegularFile(base.resolve(certFile))) {
+            r.problem("cert_file", "'" + r.path("cert_file") + "': no such file " + base.resolve(certFile).normalize());
+        }
+        if (keyFile != null) {
+            String why = PasswordFile.problem(base.resolve(keyFile).normalize());
+            if (why != null) {
+                r.problem("key_file", "'" + r.path("key_file") + "': " + why);
+            }
         }
         if (passwordFile != null) {
             String why = PasswordFile.problem(base.resolve(passwordFile));
@@ -114,6 +143,8 @@ public record BrokerSettings(
         return new BrokerSettings(url, clientId, username,
                 passwordFile == null ? null : base.resolve(passwordFile).normalize(),
                 caFile == null ? null : base.resolve(caFile).normalize(),
+                certFile == null ? null : base.resolve(certFile).normalize(),
+                keyFile == null ? null : base.resolve(keyFile).normalize(),
                 keepAlive, connectTimeout, minMs, maxMs, sessionExpiry, commandMaxExpiry, statusInterval, inflight);
     }
 

@@ -37,7 +37,7 @@ public final class PahoLink implements Link {
 
     public PahoLink(BrokerSettings settings) {
         this.settings = settings;
-        this.tls = settings.tls() ? new Tls(settings.caFile()) : null;
+        this.tls = settings.tls() ? new Tls(settings.caFile(), settings.certFile(), settings.keyFile()) : null;
     }
 
     @Override
@@ -69,6 +69,7 @@ public final class PahoLink implements Link {
             }
             if (tls != null) {
                 o.setSocketFactory(tls.socketFactory());
+                o.setHttpsHostnameVerificationEnabled(true);
             }
             client.setCallback(callback(events));
             IMqttToken token = client.connect(o);

@@ -36,16 +36,18 @@ public final class QualityClient implements AutoCloseable {
     private final String url;
     private final String clientId;
     private final Handler handler;
+    private final hammerstep.mqtt.BrokerSettings credentials;
     private final List<String> filters = new CopyOnWriteArrayList<>();
     private final ScheduledExecutorService watchdog;
     private volatile MqttAsyncClient client;
     private volatile ClientThreads threads;
     private volatile boolean closed;
 
-    private QualityClient(String url, String clientId, Handler handler) {
+    private QualityClient(String url, String clientId, Handler handler, hammerstep.mqtt.BrokerSettings credentials) {
         this.url = url;
         this.clientId = clientId;
         this.handler = handler;
+        this.credentials = credentials;
         this.watchdog = Executors.newSingleThreadScheduledExecutor(r -> {
             Thread t = new Thread(r, "mqtt-quality-watchdog-" + clientId);
             t.setDaemon(true);
@@ -60,7 +62,18 @@ public final class QualityClient implements AutoCloseable {
      * session, so nothing published meanwhile is lost.
      */
     public static QualityClient connect(String url, String clientId, Handler handler) throws IOException {
-        QualityClient q = new QualityClient(url, clientId, handler);
+        return connect(new QualityClient(url, clientId, handler, null));
+    }
+
+    /**
+     * As {@link #connect(String, String, Handler)}, with the url, client id, user name, password file
+     * and TLS files of {@code settings} (a plant's quality system account, or a test's).
+     */
+    public static QualityClient connect(hammerstep.mqtt.BrokerSettings settings, Handler handler) throws IOException {
+        return connect(new QualityClient(settings.url(), settings.clientId(), handler, settings));
+    }
+
+    private static QualityClient connect(QualityClient q) throws IOException {
         try {
             q.open();
         } catch (IOException e) {
@@ -114,6 +127,21 @@ public final class QualityClient implements AutoCloseable {
             o.setKeepAliveInterval(10);
             o.setConnectionTimeout(10);
             o.setTopicAliasMaximum(0);
+            if (credentials != null) {
+                if (credentials.username() != null) {
+                    o.setUserName(credentials.username());
+                }
+                if (credentials.passwordFile() != null) {
+                    byte[] pw = hammerstep.mqtt.PasswordFile.read(credentials.passwordFile());
+                    o.setPassword(pw.clone());
+                    java.util.Arrays.fill(pw, (byte) 0);
+                }
+                if (credentials.tls()) {
+                    o.setSocketFactory(new Tls(credentials.caFile(), credentials.certFile(), credentials.keyFile())
+                            .socketFactory());
+                    o.setHttpsHostnameVerificationEnabled(true);
+                }
+            }
             threads = t;
             client = c;
             c.connect(o).waitForCompletion(10_000);
@@ -123,6 +151,9 @@ public final class QualityClient implements AutoCloseable {
         } catch (MqttException e) {
             release();
             throw new IOException("cannot connect to " + url + ": " + PahoLink.describe(e), e);
+        } catch (IOException | RuntimeException e) {
+            release();
+            throw e;
         }
     }
 

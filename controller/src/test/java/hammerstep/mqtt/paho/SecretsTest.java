@@ -88,7 +88,7 @@ class SecretsTest {
         }
         Path pw = passwordFile("rw-------");
         BrokerSettings settings = new BrokerSettings("tcp://127.0.0.1:" + closedPort, "hub-fit-1", "hub-fit-1", pw,
-                null, 10, 2, 100, 500, 60, 300, 60, 8);
+                null, null, null, 10, 2, 100, 500, 60, 300, 60, 8);
         assertThat(settings.toString()).doesNotContain(SECRET);
         PahoLink link = new PahoLink(settings);
         Throwable t;

@@ -75,8 +75,10 @@ final class DemoDelivery implements AutoCloseable {
      * @param storage the station file's {@code storage:} section, or null; its folder is replaced by
      *                {@code --state} or a temporary folder
      * @param brokerSection the station file's {@code broker:} section, or null; used with {@code --broker}
+     * @param commands      where the plant's commands go: the demo station's desk
      */
-    static DemoDelivery open(DemoOptions o, StationId station, StorageSettings storage, BrokerSettings brokerSection) {
+    static DemoDelivery open(DemoOptions o, StationId station, StorageSettings storage, BrokerSettings brokerSection,
+                             StationCommands commands) {
         Path state = o.stateDir();
         boolean temporary = state == null;
         FileOutbox outbox = null;
@@ -113,7 +115,7 @@ final class DemoDelivery implements AutoCloseable {
             Topics topics = new Topics(station);
             BrokerSettings fixed = settings;
             ResultPublisher publisher = new ResultPublisher(outbox, station, () -> new PahoLink(fixed),
-                    StationCommands.NONE, fixed, new SystemNanoClock(), Clock.systemUTC(), o.seed(),
+                    commands, fixed, new SystemNanoClock(), Clock.systemUTC(), o.seed(),
                     "hammerstep-sim demo");
             DemoDelivery d = new DemoDelivery(station, state, temporary, outbox, broker, url, subscriber, out);
             self[0] = d;

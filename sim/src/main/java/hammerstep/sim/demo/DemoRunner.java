@@ -23,6 +23,7 @@ import hammerstep.sim.station.SimulatedStation;
 import hammerstep.sim.station.VirtualStation;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.VirtualClock;
+import hammerstep.station.loop.CommandDesk;
 import hammerstep.station.loop.StationListener;
 import hammerstep.station.setup.IdentitySection;
 import hammerstep.station.setup.PartsSection;
@@ -90,11 +91,15 @@ public final class DemoRunner {
         }
         VirtualStation hardware = new VirtualStation(tool, sim.fixture(), sim.rateHz(), sim.blockSamples(), 64,
                 timing.blinkPeriodNs() + timing.blinkPeriodNs() / 5);
+        // the plant's commands over MQTT: the same desk as on a board; reload reads the station file again
+        CommandDesk desk = new CommandDesk(() -> StationFile.load(options.station(), sections)
+                .get(PartsSection.INSTANCE).byModel());
         DemoDelivery delivery = options.delivery()
-                ? DemoDelivery.open(options, id, config.get(StationSections.STORAGE), config.get(StationSections.BROKER))
+                ? DemoDelivery.open(options, id, config.get(StationSections.STORAGE), config.get(StationSections.BROKER),
+                desk)
                 : null;
         try {
-            return run(config, sim, id, patterns, timing, parts, clock, tool, hardware, delivery);
+            return run(config, sim, id, patterns, timing, parts, clock, tool, hardware, delivery, desk);
         } finally {
             if (delivery != null) {
                 delivery.close();
@@ -104,7 +109,7 @@ public final class DemoRunner {
 
     private int run(StationConfig config, SimulationSection.Simulation sim, StationId id, Map<String, Pattern> patterns,
                     TimingSection.Timing timing, List<PartIdentity> parts, VirtualClock clock, RigToolModel tool,
-                    VirtualStation hardware, DemoDelivery delivery) throws InterruptedException {
+                    VirtualStation hardware, DemoDelivery delivery, CommandDesk desk) throws InterruptedException {
         long[] ids = {0};
         ResultSink sink = delivery != null ? delivery.sink(Clock.fixed(EPOCH, ZoneOffset.UTC))
                 : new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
@@ -120,6 +125,7 @@ public final class DemoRunner {
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener(tally, view, clock), errors::add);
         StationExtras.attach(station.agent(), config, sim.rateHz());
+        station.agent().takeCommands(desk);
         if (options.tracesDir() != null) {
             try {
                 station.agent().keepTraces(TraceKeeper.open(new TracesSection.Traces(options.tracesDir(), 100_000,
@@ -149,6 +155,7 @@ public final class DemoRunner {
             }
         }
         view.end(station, tally);
+        station.agent().onClose(); // the station has stopped: a command from now on is answered UNAVAILABLE
         boolean finished = station.finished();
         new DemoSummary(tally, station, tool, parts.size(), System.nanoTime() - wallStart, finished).print(out);
         for (Throwable t : errors) {

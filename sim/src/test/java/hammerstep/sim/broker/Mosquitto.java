@@ -30,19 +30,42 @@ final class Mosquitto implements AutoCloseable {
      * @param extra further configuration lines (e.g. a password file)
      */
     Mosquitto(Path dir, String extra) throws IOException {
+        this(dir, extra, true);
+    }
+
+    /**
+     * @param extra       further configuration lines (e.g. a password file)
+     * @param persistence whether the broker keeps sessions and queued messages across a restart
+     */
+    Mosquitto(Path dir, String extra, boolean persistence) throws IOException {
         try (ServerSocket s = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
             port = s.getLocalPort();
         }
         Path data = Files.createDirectories(dir.resolve("data"));
         conf = dir.resolve("mosquitto.conf");
         String user = "root".equals(System.getProperty("user.name")) ? "user root\n" : "";
-        Files.writeString(conf, "listener " + port + " 127.0.0.1\n" + "persistence true\n"
+        Files.writeString(conf, "listener " + port + " 127.0.0.1\n" + "persistence " + persistence + "\n"
                 + "persistence_location " + data + "/\n" + "autosave_interval 1\n" + user
                 + "log_dest stdout\n" + (extra.contains("allow_anonymous") ? "" : "allow_anonymous true\n") + extra);
     }
 
+    int port() {
+        return port;
+    }
+
     String url() {
         return "tcp://127.0.0.1:" + port;
+    }
+
+    /** The listener's url with a TLS listener (the extra lines set cafile, certfile, keyfile). */
+    String sslUrl() {
+        return "ssl://127.0.0.1:" + port;
+    }
+
+    /** What the broker logged so far. */
+    String log() throws IOException {
+        Path log = conf.resolveSibling("mosquitto.log");
+        return Files.exists(log) ? Files.readString(log) : "";
     }
 
     void start() throws IOException, InterruptedException {

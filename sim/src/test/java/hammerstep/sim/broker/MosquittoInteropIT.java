@@ -98,7 +98,7 @@ class MosquittoInteropIT {
 
     /** Stores one joint on a station with that password and returns the backlog after a few seconds. */
     private static long deliver(String url, Path passwordFile, Path state) throws Exception {
-        BrokerSettings s = new BrokerSettings(url, "hub-fit-1", "hub-fit-1", passwordFile, null, 10, 5, 100, 500,
+        BrokerSettings s = new BrokerSettings(url, "hub-fit-1", "hub-fit-1", passwordFile, null, null, null, 10, 5, 100, 500,
                 600, 300, 60, 32);
         try (FileOutbox outbox = FileOutbox.open(new StorageSettings(state, 1 << 20, 1 << 20, 1L << 30, 0, 0))) {
             OutboxResultSink sink = new OutboxResultSink(outbox, TestResults.STATION);

@@ -25,7 +25,7 @@ final class StationHarness implements AutoCloseable {
     StationHarness(String url, Path state, StationCommands commands) throws Exception {
         outbox = FileOutbox.open(new StorageSettings(state, 1 << 20, 1 << 20, 1L << 30, 0, 0));
         sink = new OutboxResultSink(outbox, TestResults.STATION);
-        BrokerSettings s = new BrokerSettings(url, "hub-fit-1", null, null, null, 10, 5, 100, 1000, 600, 300, 60, 32);
+        BrokerSettings s = new BrokerSettings(url, "hub-fit-1", null, null, null, null, null, 10, 5, 100, 1000, 600, 300, 60, 32);
         publisher = new ResultPublisher(outbox, TestResults.STATION, () -> new PahoLink(s), commands, s,
                 new SystemNanoClock(), Clock.systemUTC(), 1, "test");
         runner = ResultPublisher.start(publisher);

@@ -1,0 +1,275 @@
+package hammerstep.sim.broker;
+
+import ch.qos.logback.classic.Logger;
+import ch.qos.logback.classic.spi.ILoggingEvent;
+import ch.qos.logback.core.read.ListAppender;
+import hammerstep.mqtt.BrokerSettings;
+import hammerstep.mqtt.ResultPublisher;
+import hammerstep.mqtt.StationCommands;
+import hammerstep.mqtt.paho.PahoLink;
+import hammerstep.mqtt.paho.QualityClient;
+import hammerstep.results.MessageSchemas;
+import hammerstep.results.OutboxResultSink;
+import hammerstep.results.StationId;
+import hammerstep.results.StorageSettings;
+import hammerstep.results.journal.FileOutbox;
+import org.agrona.concurrent.AgentRunner;
+import org.agrona.concurrent.SystemNanoClock;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.slf4j.LoggerFactory;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.attribute.PosixFilePermissions;
+import java.time.Clock;
+import java.time.Duration;
+import java.util.List;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
+
+/**
+ * The plant setup of docs/security.md against Mosquitto: a TLS listener that wants a client
+ * certificate, user names with passwords, and the ACL copied from the document itself. Certificates
+ * (a test CA, the broker's with 127.0.0.1 in its subject alternative names, one per client) are
+ * made by openssl at test time. Skipped when mosquitto, mosquitto_passwd or openssl is missing.
+ */
+class MosquittoTlsIT {
+
+    private static final Duration WAIT = Duration.ofSeconds(30);
+    /** The site and line of the documented ACL; the station's user name is its station name (%u). */
+    private static final StationId STATION = new StationId("harrow-bend", "skid-1", "flange-2");
+    private static final String PREFIX = "hammerstep/v1/harrow-bend/skid-1/flange-2/";
+    private static final String STATION_PW = "Fl2-station-Pw-5521";
+    private static final String QS_PW = "qs-Pw-7730";
+    private static final String INTRUDER_PW = "intruder-Pw-0815";
+    private static final String WRONG_PW = "not-the-Pw-9999";
+
+    @TempDir
+    Path dir;
+
+    private Path pki;
+    private Mosquitto broker;
+    private final ListAppender<ILoggingEvent> logged = new ListAppender<>();
+    private Logger root;
+
+    @BeforeEach
+    void brokerWithTlsPasswordsAndTheDocumentedAcl() throws Exception {
+        assumeTrue(Mosquitto.binary() != null, "mosquitto is not installed");
+        assumeTrue(Files.isExecutable(Path.of("/usr/bin/openssl")), "openssl is not installed");
+        pki = Files.createDirectories(dir.resolve("pki"));
+        sh("openssl", "req", "-x509", "-newkey", "ec", "-pkeyopt", "ec_paramgen_curve:prime256v1", "-nodes",
+                "-keyout", "ca.key", "-out", "ca.pem", "-days", "2", "-subj", "/CN=hammerstep test plant CA");
+        Files.writeString(pki.resolve("broker.ext"), "subjectAltName=IP:127.0.0.1,DNS:localhost\n");
+        issue("broker", "localhost", "broker.ext");
+        for (String client : List.of("flange-2", "qs", "intruder")) {
+            issue(client, client, null);
+        }
+        Path brokerDir = Files.createDirectories(dir.resolve("broker"));
+        Path passwd = brokerDir.resolve("passwd");
+        assumeTrue(run("mosquitto_passwd", "-b", "-c", passwd.toString(), "flange-2", STATION_PW) == 0,
+                "mosquitto_passwd is not available");
+        sh("mosquitto_passwd", "-b", passwd.toString(), "qs", QS_PW);
+        sh("mosquitto_passwd", "-b", passwd.toString(), "intruder", INTRUDER_PW);
+        Path acl = brokerDir.resolve("hammerstep.acl");
+        Files.writeString(acl, documentedAcl());
+        broker = new Mosquitto(brokerDir, "cafile " + pki.resolve("ca.pem") + "\ncertfile " + pki.resolve("broker.pem")
+                + "\nkeyfile " + pki.resolve("broker.key") + "\nrequire_certificate true\ntls_version tlsv1.2\n"
+                + "allow_anonymous false\npassword_file " + passwd + "\nacl_file " + acl + "\n");
+        broker.start();
+        root = (Logger) LoggerFactory.getLogger(org.slf4j.Logger.ROOT_LOGGER_NAME);
+        logged.start();
+        root.addAppender(logged);
+    }
+
+    @AfterEach
+    void stop() throws Exception {
+        if (root != null) {
+            root.detachAppender(logged);
+        }
+        if (broker != null) {
+            broker.close();
+        }
+    }
+
+    /** The ACL block of docs/security.md, as a plant would copy it. */
+    static String documentedAcl() throws IOException {
+        String doc = Files.readString(Path.of("../docs/security.md"));
+        int at = doc.indexOf("# /etc/mosquitto/hammerstep.acl");
+        assertThat(at).as("docs/security.md shows the ACL file").isPositive();
+        int end = doc.indexOf("```", at);
+        return doc.substring(doc.indexOf('\n', at) + 1, end);
+    }
+
+    private void issue(String name, String cn, String ext) throws Exception {
+        sh("openssl", "req", "-newkey", "ec", "-pkeyopt", "ec_paramgen_curve:prime256v1", "-nodes",
+                "-keyout", name + ".key", "-out", name + ".csr", "-subj", "/CN=" + cn);
+        if (ext == null) {
+            sh("openssl", "x509", "-req", "-in", name + ".csr", "-CA", "ca.pem", "-CAkey", "ca.key",
+                    "-CAcreateserial", "-out", name + ".pem", "-days", "2");
+        } else {
+            sh("openssl", "x509", "-req", "-in", name + ".csr", "-CA", "ca.pem", "-CAkey", "ca.key",
+                    "-CAcreateserial", "-out", name + ".pem", "-days", "2", "-extfile", ext);
+        }
+        Files.setPosixFilePermissions(pki.resolve(name + ".key"), PosixFilePermissions.fromString("rw-------"));
+    }
+
+    private int run(String... cmd) throws Exception {
+        Process p = new ProcessBuilder(cmd).directory(pki.toFile()).redirectErrorStream(true)
+                .redirectOutput(pki.resolve("commands.log").toFile()).start();
+        return p.waitFor();
+    }
+
+    private void sh(String... cmd) throws Exception {
+        if (run(cmd) != 0) {
+            throw new IOException(String.join(" ", cmd) + " failed: " + Files.readString(pki.resolve("commands.log")));
+        }
+    }
+
+    private Path secret(String name, String text) throws IOException {
+        Path p = dir.resolve(name + ".pass");
+        Files.writeString(p, text + "\n");
+        Files.setPosixFilePermissions(p, PosixFilePermissions.fromString("rw-------"));
+        return p;
+    }
+
+    /** TLS settings for {@code user} with its own client certificate; {@code ca} is the trusted CA file. */
+    private BrokerSettings account(String clientId, String user, String password, Path ca) throws IOException {
+        return new BrokerSettings(broker.sslUrl(), clientId, user, secret(clientId, password), ca,
+                pki.resolve(user + ".pem"), pki.resolve(user + ".key"), 10, 5, 100, 500, 600, 300, 60, 32);
+    }
+
+    /** A station delivering to the broker: file outbox, sink, publisher on its own thread. */
+    private final class Station implements AutoCloseable {
+        final FileOutbox outbox;
+        final OutboxResultSink sink;
+        final ResultPublisher publisher;
+        final AgentRunner runner;
+
+        Station(BrokerSettings s, StationCommands commands) throws Exception {
+            outbox = FileOutbox.open(new StorageSettings(dir.resolve("state-" + System.nanoTime()), 1 << 20, 1 << 20,
+                    1L << 30, 0, 0));
+            sink = new OutboxResultSink(outbox, STATION);
+            publisher = new ResultPublisher(outbox, STATION, () -> new PahoLink(s), commands, s, new SystemNanoClock(),
+                    Clock.systemUTC(), 1, "test");
+            runner = ResultPublisher.start(publisher);
+        }
+
+        @Override
+        public void close() {
+            runner.close();
+            outbox.close();
+        }
+    }
+
+    private String logText() {
+        StringBuilder b = new StringBuilder();
+        for (ILoggingEvent e : logged.list) {
+            b.append(e.getFormattedMessage()).append('\n');
+            if (e.getThrowableProxy() != null) {
+                b.append(e.getThrowableProxy().getMessage()).append('\n');
+            }
+        }
+        return b.toString();
+    }
+
+    @Test
+    void resultsArriveOverTlsWithUserPasswordAndClientCertificate() throws Exception {
+        Received got = new Received();
+        try (QualityClient qs = QualityClient.connect(account("qs-tls", "qs", QS_PW, pki.resolve("ca.pem")), got::add);
+             Station station = new Station(account("flange-2", "flange-2", STATION_PW, pki.resolve("ca.pem")),
+                     StationCommands.NONE)) {
+            qs.subscribe("hammerstep/v1/#");
+            for (int i = 1; i <= 5; i++) {
+                station.sink.joint(TestResults.joint(i));
+            }
+            Received.await("five joints over TLS", WAIT, () -> got.uniqueJoints().size() >= 5);
+            Received.await("backlog drained", WAIT, () -> station.outbox.backlog() == 0);
+            assertThat(got.uniqueJoints().values()).containsExactly(1L, 2L, 3L, 4L, 5L);
+            assertThat(got.on(PREFIX + "status")).isNotEmpty();
+            for (Received.Message m : got.all) {
+                MessageSchemas.assertValid(m.payload());
+            }
+        }
+    }
+
+    @Test
+    void aWrongPasswordOrAnUntrustedBrokerIsRefusedAndNoPasswordReachesTheLog() throws Exception {
+        try (Station wrong = new Station(account("flange-2", "flange-2", WRONG_PW, pki.resolve("ca.pem")),
+                StationCommands.NONE)) {
+            wrong.sink.joint(TestResults.joint(1));
+            Received.await("a refused connect logged", WAIT, () -> logText().contains("cannot reach broker"));
+            assertThat(wrong.publisher.figures().connected()).isFalse();
+            assertThat(wrong.outbox.backlog()).as("the result is kept").isEqualTo(1);
+        }
+        // a CA that did not sign the broker's certificate: the station does not talk to that broker
+        Files.createDirectories(dir.resolve("other"));
+        Process p = new ProcessBuilder("openssl", "req", "-x509", "-newkey", "ec", "-pkeyopt",
+                "ec_paramgen_curve:prime256v1", "-nodes", "-keyout", "other.key", "-out", "other-ca.pem", "-days", "2",
+                "-subj", "/CN=some other CA").directory(dir.resolve("other").toFile()).redirectErrorStream(true).start();
+        p.getInputStream().readAllBytes();
+        assertThat(p.waitFor()).isZero();
+        logged.list.clear();
+        try (Station untrusting = new Station(account("flange-2", "flange-2", STATION_PW,
+                dir.resolve("other/other-ca.pem")), StationCommands.NONE)) {
+            untrusting.sink.joint(TestResults.joint(1));
+            Received.await("a refused TLS handshake logged", WAIT, () -> logText().contains("cannot reach broker"));
+            assertThat(untrusting.publisher.figures().connected()).isFalse();
+        }
+        String everything = logText() + broker.log();
+        assertThat(everything).doesNotContain(WRONG_PW).doesNotContain(STATION_PW);
+    }
+
+    @Test
+    void theDocumentedAclLetsTheStationAndTheQualitySystemWorkAndKeepsOthersOffTheirTopics() throws Exception {
+        hammerstep.mqtt.RecordingStation commands = new hammerstep.mqtt.RecordingStation();
+        Received got = new Received();
+        Path ca = pki.resolve("ca.pem");
+        try (QualityClient qs = QualityClient.connect(account("qs-acl", "qs", QS_PW, ca), got::add);
+             Station station = new Station(account("flange-2", "flange-2", STATION_PW, ca), commands);
+             QualityClient intruder = QualityClient.connect(account("intruder-1", "intruder", INTRUDER_PW, ca),
+                     (t, pl, r, c) -> { });
+             QualityClient sameUser = QualityClient.connect(account("flange-2-probe", "flange-2", STATION_PW, ca),
+                     (t, pl, r, c) -> { })) {
+            qs.subscribe("hammerstep/v1/#");
+            qs.subscribe("qs/replies/#");
+            Received.await("station connected", WAIT, () -> station.publisher.figures().connected());
+
+            publishQuietly(intruder, PREFIX + "cmd/part", "{\"serial\":\"EVIL-1\",\"model\":\"PS-40D\"}", "qs/replies/evil");
+            publishQuietly(intruder, PREFIX + "joint", "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"forged\"}", null);
+            publishQuietly(sameUser, "hammerstep/v1/harrow-bend/skid-1/flange-3/cmd/part",
+                    "{\"serial\":\"EVIL-2\",\"model\":\"PS-40D\"}", "qs/replies/evil2");
+            publishQuietly(sameUser, "hammerstep/v1/harrow-bend/skid-1/flange-3/joint",
+                    "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"forged-2\"}", null);
+            qs.publish(PREFIX + "cmd/part", "{\"serial\":\"PS40D-1\",\"model\":\"PS-40D\"}".getBytes(StandardCharsets.UTF_8),
+                    30L, "qs/replies/ok", "c".getBytes(StandardCharsets.UTF_8));
+            station.sink.joint(TestResults.joint(1));
+
+            Received.await("the quality system's command answered", WAIT, () -> !got.on("/replies/ok").isEmpty());
+            Received.await("the station's joint", WAIT, () -> !got.on(PREFIX + "joint").isEmpty());
+            assertThat(got.on("/replies/ok").get(0).json().get("ok").asBoolean()).isTrue();
+            // the forged messages were published before the ones that arrived; give stragglers a moment anyway
+            Thread.sleep(500);
+            assertThat(commands.started).containsExactly("PS40D-1/PS-40D");
+            assertThat(got.all).noneSatisfy(m -> assertThat(new String(m.payload(), StandardCharsets.UTF_8))
+                    .containsAnyOf("forged", "EVIL"));
+            assertThat(got.on("/replies/evil")).isEmpty();
+            assertThat(got.on("/replies/evil2")).isEmpty();
+        }
+    }
+
+    /** Publishes at QoS 1; a refusal by the broker (not authorized) may surface as an error here or not at all. */
+    private static void publishQuietly(QualityClient c, String topic, String payload, String responseTopic) {
+        try {
+            c.publish(topic, payload.getBytes(StandardCharsets.UTF_8), 30L, responseTopic,
+                    "x".getBytes(StandardCharsets.UTF_8));
+        } catch (IOException e) {
+            // refused: what the test wants
+        }
+    }
+}
