@@ -227,7 +227,7 @@ class MosquittoTlsIT {
 
     @Test
     void theDocumentedAclLetsTheStationAndTheQualitySystemWorkAndKeepsOthersOffTheirTopics() throws Exception {
-        EmbeddedBrokerDeliveryIT.RecordingStation commands = new EmbeddedBrokerDeliveryIT.RecordingStation();
+        hammerstep.mqtt.RecordingStation commands = new hammerstep.mqtt.RecordingStation();
         Received got = new Received();
         Path ca = pki.resolve("ca.pem");
         try (QualityClient qs = QualityClient.connect(account("qs-acl", "qs", QS_PW, ca), got::add);
