@@ -88,6 +88,7 @@ public final class ReplayCommand implements Callable<Integer> {
                 print(result, out);
             }
         };
+        ReplayPreload.stop();
         if (TraceReader.isF32(trace)) {
             // random access: a long trace is replayed on every core, with the single monitor's results
             F32Trace samples = F32Trace.open(trace);

@@ -10,20 +10,27 @@ import hammerstep.results.JsonLines;
 
 /**
  * Start-up of {@code replay} on a second core: while the main thread has picocli read the
- * command line, this thread runs a tiny replay of a built-in strike, which loads and links the
- * YAML reader, the content hash, the signal chain and the JSON writer. On two cores this takes
- * that class loading off the main thread's path; the real run repeats none of its work.
+ * command line and load the program, this thread replays a built-in shift of rundowns, which
+ * loads and links the YAML reader, the content hash, the signal chain and the JSON writer, and
+ * runs the chain's loops often enough for the JIT to compile them before the real trace arrives.
+ * It stops as soon as the real replay begins ({@link #stop()}) or after a few seconds of signal.
  *
- * <p>It is an optimisation only: any failure here is left for the real run to meet and report.
+ * <p>It is an optimisation only: its results are thrown away, and any failure here is left for
+ * the real run to meet and report.
  */
 final class ReplayPreload implements Runnable {
 
     private static final String PROGRAM = """
             id: preload
-            torque: { min: 1.0, target: 2.0, max: 3.0 }
-            blows: { count_above: 1.0, min: 1, max: 2 }
-            rundown: { start_above: 0.5, end_after_ms: 1, max_ms: 100 }
+            torque: { min: 180.0, target: 200.0, max: 230.0 }
+            blows: { count_above: 40.0, min: 4, max: 30 }
+            rundown: { start_above: 10.0, end_after_ms: 200, max_ms: 5000 }
             """;
+    private static final double RATE_HZ = 50_000;
+    /** The most signal warmed on: 2000 blocks, 160 s at 50 kHz. */
+    private static final int MAX_BLOCKS = 2000;
+
+    private static volatile boolean stopped;
 
     private ReplayPreload() {
     }
@@ -35,21 +42,42 @@ final class ReplayPreload implements Runnable {
         t.start();
     }
 
+    /** The real replay begins: give the core back. */
+    static void stop() {
+        stopped = true;
+    }
+
     @Override
     public void run() {
         try {
             JointProgram program = ProgramFile.read(YamlDocument.parse("preload", PROGRAM));
-            double rateHz = 10_000;
-            float[] samples = new float[ReplayCommand.BLOCK];
-            for (int i = 0; i < 20; i++) { // one 2 ms half-sine strike of 2 N·m at 10 ms
-                samples[100 + i] = (float) (2.0 * Math.sin(Math.PI * i / 20));
+            float[] shift = shift();
+            JointMonitor monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), RATE_HZ,
+                    ReplayCommand.BLOCK, result -> JsonLines.of(JointFields.of(result)));
+            int blocks = shift.length / ReplayCommand.BLOCK;
+            for (int b = 0; b < MAX_BLOCKS && !stopped; b++) {
+                int at = (b % blocks) * ReplayCommand.BLOCK;
+                monitor.onSamples(shift, at, ReplayCommand.BLOCK, (long) (b * (ReplayCommand.BLOCK * 1e9 / RATE_HZ)));
             }
-            JointMonitor monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), rateHz,
-                    samples.length, result -> JsonLines.of(JointFields.of(result)));
-            monitor.onSamples(samples, 0, samples.length, 0);
             monitor.finish();
         } catch (ConfigException | RuntimeException e) {
             // nothing to do: the real run loads the same classes and reports what fails there
         }
+    }
+
+    /** Two seconds: 0.4 s quiet, 36 strikes 30 ms apart rising from 50 to 220 N·m, then quiet. */
+    private static float[] shift() {
+        float[] x = new float[25 * ReplayCommand.BLOCK];
+        for (int k = 0; k < 36; k++) {
+            int start = (int) ((0.4 + 0.03 * k) * RATE_HZ);
+            double peak = 50 + 170.0 * k / 35;
+            for (int i = 0; i < 100; i++) { // a 2 ms half-sine
+                x[start + i] = (float) (peak * Math.sin(Math.PI * i / 100));
+            }
+        }
+        for (int i = 0; i < x.length; i++) {
+            x[i] += (float) (0.02 * Math.sin(i * 0.37)); // a little noise so the zero tracks
+        }
+        return x;
     }
 }

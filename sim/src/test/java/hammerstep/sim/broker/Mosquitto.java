@@ -30,15 +30,27 @@ final class Mosquitto implements AutoCloseable {
      * @param extra further configuration lines (e.g. a password file)
      */
     Mosquitto(Path dir, String extra) throws IOException {
+        this(dir, extra, true);
+    }
+
+    /**
+     * @param extra       further configuration lines (e.g. a password file)
+     * @param persistence whether the broker keeps sessions and queued messages across a restart
+     */
+    Mosquitto(Path dir, String extra, boolean persistence) throws IOException {
         try (ServerSocket s = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
             port = s.getLocalPort();
         }
         Path data = Files.createDirectories(dir.resolve("data"));
         conf = dir.resolve("mosquitto.conf");
         String user = "root".equals(System.getProperty("user.name")) ? "user root\n" : "";
-        Files.writeString(conf, "listener " + port + " 127.0.0.1\n" + "persistence true\n"
+        Files.writeString(conf, "listener " + port + " 127.0.0.1\n" + "persistence " + persistence + "\n"
                 + "persistence_location " + data + "/\n" + "autosave_interval 1\n" + user
                 + "log_dest stdout\n" + (extra.contains("allow_anonymous") ? "" : "allow_anonymous true\n") + extra);
+    }
+
+    int port() {
+        return port;
     }
 
     String url() {
