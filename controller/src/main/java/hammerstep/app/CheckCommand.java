@@ -4,6 +4,7 @@ import ch.qos.logback.classic.Level;
 import hammerstep.config.ConfigException;
 import hammerstep.config.Problem;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -24,11 +25,22 @@ import java.util.stream.Stream;
                 "Prints one line per problem as file:line:column: message; exit 0 when all are valid, 2 otherwise."})
 public final class CheckCommand implements Callable<Integer> {
 
-    @Parameters(arity = "1..*", paramLabel = "PATH", description = "files, or directories searched for *.yaml")
-    List<Path> paths;
+    /** What a check command checks and how much it says; the simulator's {@code check} takes the same. */
+    public static final class Targets {
+        @Parameters(arity = "1..*", paramLabel = "PATH", description = "files, or directories searched for *.yaml")
+        List<Path> paths;
 
-    @Option(names = "--quiet", description = "print nothing when all files are valid")
-    boolean quiet;
+        @Option(names = "--quiet", description = "print nothing when all files are valid")
+        boolean quiet;
+
+        /** Checks the files with {@code check}; the exit code as {@link CheckCommand#checkAll(List, FileCheck, boolean)}. */
+        public int checkAll(FileCheck check) throws IOException {
+            return CheckCommand.checkAll(paths, check, quiet);
+        }
+    }
+
+    @Mixin
+    Targets targets;
 
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
@@ -44,7 +56,7 @@ public final class CheckCommand implements Callable<Integer> {
         if (verbose) {
             Logging.configure(true, Level.WARN);
         }
-        return checkAll(paths, ConfigFiles::check, quiet);
+        return targets.checkAll(ConfigFiles::check);
     }
 
     /**

@@ -39,7 +39,6 @@ final class ReplayPreload implements Runnable {
         // a Runnable, not a method reference: the first lambda costs the main thread tens of ms
         Thread t = new Thread(new ReplayPreload(), "replay-preload");
         t.setDaemon(true);
-        t.setPriority(Thread.MIN_PRIORITY);
         t.start();
     }
 

@@ -58,33 +58,18 @@ public final class TraceReader {
      * rate comes from the {@code rate_hz} metadata, else from the first two rows.
      */
     public static Info readCsv(Path path, double rateHz, float[] block, SampleSink sink) throws TraceException {
-        Map<String, String> meta = new LinkedHashMap<>();
-        try (BufferedReader in = Files.newBufferedReader(path, StandardCharsets.UTF_8)) {
-            String line;
-            int lineNo = 0;
-            boolean header = false;
+        return withCsv(path, lines -> {
             double lastTime = Double.NEGATIVE_INFINITY;
             double rate = rateHz;
             int n = 0;
             long blockNs = 0;
             double firstTime = Double.NaN;
-            while ((line = in.readLine()) != null) {
-                lineNo++;
-                if (line.isEmpty()) {
-                    continue;
-                }
-                if (line.charAt(0) == '#') {
-                    readMeta(line, meta);
-                    continue;
-                }
-                if (!header) {
-                    if (!line.strip().equals(HEADER)) {
-                        throw new TraceException(path + ":" + lineNo + ": expected the header '" + HEADER
-                                + "', got '" + abbreviate(line) + "'");
-                    }
-                    header = true;
-                    if (!(rate > 0) && meta.containsKey("rate_hz")) {
-                        rate = parseRate(path, meta.get("rate_hz"));
+            String line;
+            while ((line = lines.next()) != null) {
+                int lineNo = lines.lineNo;
+                if (lines.atHeader) {
+                    if (!(rate > 0) && lines.meta.containsKey("rate_hz")) {
+                        rate = parseRate(path, lines.meta.get("rate_hz"));
                     }
                     continue;
                 }
@@ -117,13 +102,54 @@ public final class TraceReader {
                     n = 0;
                 }
             }
-            if (!header) {
+            if (!lines.header) {
                 throw new TraceException(path + ": no '" + HEADER + "' header: not a torque trace");
             }
             if (n > 0) {
                 sink.onSamples(block, 0, n, blockNs);
             }
-            return new Info(rate, meta);
+            return new Info(rate, lines.meta);
+        });
+    }
+
+    /** Reads only the metadata and rate of a CSV trace (up to its header and first two rows). */
+    public static Info peekCsv(Path path) throws TraceException {
+        return withCsv(path, lines -> {
+            double first = Double.NaN;
+            String line;
+            while ((line = lines.next()) != null) {
+                if (lines.atHeader) {
+                    if (lines.meta.containsKey("rate_hz")) {
+                        return new Info(parseRate(path, lines.meta.get("rate_hz")), lines.meta);
+                    }
+                    continue;
+                }
+                int comma = line.indexOf(',');
+                if (comma < 0) {
+                    throw new TraceException(path + ":" + lines.lineNo + ": expected two values 'time_s,torque_nm'");
+                }
+                double t = parseNumber(path, lines.lineNo, line.substring(0, comma), "time_s");
+                if (Double.isNaN(first)) {
+                    first = t;
+                } else {
+                    if (!(t > first)) {
+                        throw new TraceException(path + ":" + lines.lineNo + ": time " + t + " s does not increase");
+                    }
+                    return new Info(1.0 / (t - first), lines.meta);
+                }
+            }
+            throw new TraceException(path + ": no sample rate: add '# rate_hz=...' or at least two rows");
+        });
+    }
+
+    private interface CsvRead {
+        Info read(CsvLines lines) throws IOException, TraceException;
+    }
+
+    /** Opens a CSV trace for {@code read}; a missing, binary or unreadable file is one TraceException naming it. */
+    private static Info withCsv(Path path, CsvRead read) throws TraceException {
+        try (BufferedReader in = Files.newBufferedReader(path, StandardCharsets.UTF_8)) {
+            return read.read(new CsvLines(path, in));
         } catch (NoSuchFileException e) {
             throw new TraceException(path + ": no such file");
         } catch (java.nio.charset.MalformedInputException e) {
@@ -133,14 +159,26 @@ public final class TraceReader {
         }
     }
 
-    /** Reads only the metadata and rate of a CSV trace (up to its header and first two rows). */
-    public static Info peekCsv(Path path) throws TraceException {
-        Map<String, String> meta = new LinkedHashMap<>();
-        try (BufferedReader in = Files.newBufferedReader(path, StandardCharsets.UTF_8)) {
+    /** The lines of a CSV trace: blank lines skipped, {@code #} lines (anywhere) into {@link #meta}, the header checked. */
+    private static final class CsvLines {
+        private final Path path;
+        private final BufferedReader in;
+        final Map<String, String> meta = new LinkedHashMap<>();
+        int lineNo;
+        /** The header has been read. */
+        boolean header;
+        /** The line {@link #next()} returned last is the header. */
+        boolean atHeader;
+
+        CsvLines(Path path, BufferedReader in) {
+            this.path = path;
+            this.in = in;
+        }
+
+        /** The next line that is neither blank nor metadata, the header first; null at the end. */
+        String next() throws IOException, TraceException {
+            atHeader = false;
             String line;
-            int lineNo = 0;
-            boolean header = false;
-            double first = Double.NaN;
             while ((line = in.readLine()) != null) {
                 lineNo++;
                 if (line.isEmpty()) {
@@ -156,32 +194,11 @@ public final class TraceReader {
                                 + "', got '" + abbreviate(line) + "'");
                     }
                     header = true;
-                    if (meta.containsKey("rate_hz")) {
-                        return new Info(parseRate(path, meta.get("rate_hz")), meta);
-                    }
-                    continue;
+                    atHeader = true;
                 }
-                int comma = line.indexOf(',');
-                if (comma < 0) {
-                    throw new TraceException(path + ":" + lineNo + ": expected two values 'time_s,torque_nm'");
-                }
-                double t = parseNumber(path, lineNo, line.substring(0, comma), "time_s");
-                if (Double.isNaN(first)) {
-                    first = t;
-                } else {
-                    if (!(t > first)) {
-                        throw new TraceException(path + ":" + lineNo + ": time " + t + " s does not increase");
-                    }
-                    return new Info(1.0 / (t - first), meta);
-                }
+                return line;
             }
-            throw new TraceException(path + ": no sample rate: add '# rate_hz=...' or at least two rows");
-        } catch (NoSuchFileException e) {
-            throw new TraceException(path + ": no such file");
-        } catch (java.nio.charset.MalformedInputException e) {
-            throw new TraceException(path + ": not a text file (invalid UTF-8)");
-        } catch (IOException e) {
-            throw new TraceException(path + ": cannot read: " + e.getMessage());
+            return null;
         }
     }
 

@@ -70,6 +70,8 @@ public final class PahoLink implements Link {
             if (tls != null) {
                 o.setSocketFactory(tls.socketFactory());
                 o.setHttpsHostnameVerificationEnabled(true);
+            } else {
+                o.setSocketFactory(NoDelay.plain());
             }
             client.setCallback(callback(events));
             IMqttToken token = client.connect(o);

@@ -127,6 +127,7 @@ public final class QualityClient implements AutoCloseable {
             o.setKeepAliveInterval(10);
             o.setConnectionTimeout(10);
             o.setTopicAliasMaximum(0);
+            o.setSocketFactory(NoDelay.plain());
             if (credentials != null) {
                 if (credentials.username() != null) {
                     o.setUserName(credentials.username());

@@ -48,7 +48,7 @@ final class Tls {
         try {
             SSLContext ctx = SSLContext.getInstance("TLS");
             ctx.init(keyManagers(), trustManagers(), null);
-            return ctx.getSocketFactory();
+            return NoDelay.tls(ctx.getSocketFactory());
         } catch (GeneralSecurityException e) {
             throw new IOException("cannot set up TLS: " + e.getMessage(), e);
         }

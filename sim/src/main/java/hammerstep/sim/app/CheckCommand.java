@@ -4,12 +4,10 @@ import hammerstep.app.ConfigFiles;
 import hammerstep.config.ConfigException;
 import hammerstep.sim.physics.Presets;
 import picocli.CommandLine.Command;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Mixin;
 
 import java.io.IOException;
 import java.nio.file.Path;
-import java.util.List;
 import java.util.concurrent.Callable;
 
 /**
@@ -22,15 +20,12 @@ import java.util.concurrent.Callable;
                 "Prints one line per problem as file:line:column: message; exit 0 when all are valid, 2 otherwise."})
 public final class CheckCommand implements Callable<Integer> {
 
-    @Parameters(arity = "1..*", paramLabel = "PATH", description = "files, or directories searched for *.yaml")
-    List<Path> paths;
-
-    @Option(names = "--quiet", description = "print nothing when all files are valid")
-    boolean quiet;
+    @Mixin
+    hammerstep.app.CheckCommand.Targets targets;
 
     @Override
     public Integer call() throws IOException {
-        return hammerstep.app.CheckCommand.checkAll(paths, CheckCommand::check, quiet);
+        return targets.checkAll(CheckCommand::check);
     }
 
     static void check(Path file) throws ConfigException {

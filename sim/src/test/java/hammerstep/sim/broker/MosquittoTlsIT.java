@@ -263,6 +263,50 @@ class MosquittoTlsIT {
         }
     }
 
+    @Test
+    void theServiceReadsTlsCredentialsAndClientCertificateFromTheStationFile() throws Exception {
+        Path example = Path.of("../config/station.example.yaml").toAbsolutePath().normalize();
+        String text = Files.readString(example)
+                .replace("identity: { site: plant-07, line: axle-2, station: hub-torque-1 }",
+                        "identity: { site: harrow-bend, line: skid-1, station: flange-2 }")
+                .replace("patterns/hub-5.yaml", example.getParent().resolve("patterns/hub-5.yaml").toString())
+                .replace("dir: /var/lib/hammerstep/outbox", "dir: " + dir.resolve("outbox"))
+                .replace("    part_present: { pin: 3, debounce_ms: 50 }\n", "");
+        assertThat(text).contains("station: flange-2").doesNotContain("part_present");
+        Path station = dir.resolve("station.yaml");
+        Files.writeString(station, text + "\nbroker:\n  url: " + broker.sslUrl() + "\n  client_id: flange-2\n"
+                + "  username: flange-2\n  password_file: " + secret("service", STATION_PW) + "\n"
+                + "  ca_file: " + pki.resolve("ca.pem") + "\n  cert_file: " + pki.resolve("flange-2.pem") + "\n"
+                + "  key_file: " + pki.resolve("flange-2.key") + "\n  reconnect: { min_ms: 100, max_ms: 500 }\n");
+        Received got = new Received();
+        int[] exit = {-1};
+        try (QualityClient qs = QualityClient.connect(account("qs-run", "qs", QS_PW, pki.resolve("ca.pem")), got::add)) {
+            qs.subscribe("qs/replies/#");
+            qs.subscribe(PREFIX + "status");
+            Thread service = new Thread(() -> {
+                java.io.InputStream saved = System.in;
+                System.setIn(new java.io.ByteArrayInputStream(new byte[0]));
+                try {
+                    exit[0] = hammerstep.app.Main.run("run", "--config", station.toString(), "--hardware", "mock",
+                            "--exit-after", "5");
+                } finally {
+                    System.setIn(saved);
+                }
+            }, "run-under-test");
+            service.start();
+            Received.await("the service online over TLS", WAIT, () -> got.on(PREFIX + "status").stream()
+                    .anyMatch(m -> m.json().get("state").asText().equals("online")));
+            qs.publish(PREFIX + "cmd/part", "{\"serial\":\"HX-7001\",\"model\":\"HX-220\"}"
+                    .getBytes(StandardCharsets.UTF_8), 30L, "qs/replies/run", "r".getBytes(StandardCharsets.UTF_8));
+            Received.await("the service's answer", WAIT, () -> !got.on("/replies/run").isEmpty());
+            assertThat(got.on("/replies/run").get(0).json().get("message").asText())
+                    .isEqualTo("part HX-7001 started: pattern hub-5");
+            service.join(WAIT.toMillis());
+            assertThat(exit[0]).isZero();
+            assertThat(logText() + broker.log()).doesNotContain(STATION_PW);
+        }
+    }
+
     /** Publishes at QoS 1; a refusal by the broker (not authorized) may surface as an error here or not at all. */
     private static void publishQuietly(QualityClient c, String topic, String payload, String responseTopic) {
         try {
