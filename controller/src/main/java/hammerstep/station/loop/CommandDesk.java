@@ -7,6 +7,7 @@ import hammerstep.sequence.Phase;
 import hammerstep.sequence.Sequence;
 import hammerstep.station.PartIdentity;
 
+import java.util.List;
 import java.util.Map;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.CompletionStage;
@@ -99,6 +100,11 @@ public final class CommandDesk implements StationCommands {
             Map<String, Pattern> loaded;
             try {
                 loaded = Map.copyOf(loader.load());
+            } catch (hammerstep.config.ConfigException e) {
+                // the station file names the broken pattern first; the pattern's own problem follows
+                List<String> first = e.problems().stream().limit(3).map(Object::toString).toList();
+                answer.complete(Reply.refused("RELOAD_FAILED", firstLine(String.join("; ", first))));
+                return;
             } catch (Exception | LinkageError e) {
                 answer.complete(Reply.refused("RELOAD_FAILED", firstLine(e.getMessage())));
                 return;
@@ -141,7 +147,7 @@ public final class CommandDesk implements StationCommands {
         }
         int nl = s.indexOf('\n');
         String one = nl < 0 ? s : s.substring(0, nl);
-        return one.length() > 300 ? one.substring(0, 300) + "..." : one;
+        return one.length() > 600 ? one.substring(0, 600) + "..." : one;
     }
 
     // ---- station thread -----------------------------------------------------------------------
@@ -225,7 +231,8 @@ public final class CommandDesk implements StationCommands {
     private static void apply(StationAgent agent, Reload load) {
         String problem = agent.replacePatterns(load.patterns);
         load.answer().complete(problem != null ? Reply.refused("RELOAD_FAILED", problem)
-                : Reply.accepted("programs reloaded: " + load.patterns.size() + " part models"));
+                : Reply.accepted("programs reloaded: " + load.patterns.size()
+                        + (load.patterns.size() == 1 ? " part model" : " part models")));
     }
 
     /** Keeps the snapshot for status messages; allocates only when the phase or the part changes. */

@@ -95,12 +95,12 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         this.listener = listener;
         this.errorHandler = errorHandler;
         this.conditioning = conditioning;
-        String problem = lampProblem(this.patternsByModel);
+        String problem = PatternMonitors.lampProblem(this.patternsByModel, ports.lamps().positionLamps());
         if (problem != null) {
             throw new IllegalArgumentException(problem);
         }
-        this.monitors = monitorsFor(this.patternsByModel, Map.of());
-        this.watch = monitors.get(firstProgram(this.patternsByModel));
+        this.monitors = PatternMonitors.of(this.patternsByModel, Map.of(), conditioning, ports.torque(), this);
+        this.watch = monitors.get(PatternMonitors.firstProgram(this.patternsByModel));
         this.current = watch;
         this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
         ports.tool().set(false);
@@ -401,44 +401,15 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
      * @return null when done, else why nothing changed
      */
     String replacePatterns(Map<String, Pattern> next) {
-        String problem = lampProblem(next);
+        String problem = PatternMonitors.lampProblem(next, ports.lamps().positionLamps());
         if (problem != null) {
             return problem;
         }
         patternsByModel = new LinkedHashMap<>(next);
-        monitors = monitorsFor(patternsByModel, monitors);
-        watch = monitors.get(firstProgram(patternsByModel));
+        monitors = PatternMonitors.of(patternsByModel, monitors, conditioning, ports.torque(), this);
+        watch = monitors.get(PatternMonitors.firstProgram(patternsByModel));
         current = watch;
         return null;
-    }
-
-    private String lampProblem(Map<String, Pattern> patterns) {
-        for (Pattern pattern : patterns.values()) {
-            if (pattern.size() > ports.lamps().positionLamps()) {
-                return "pattern " + pattern.id() + " has " + pattern.size() + " positions but the station has "
-                        + ports.lamps().positionLamps() + " position lamps";
-            }
-        }
-        return null;
-    }
-
-    private Map<JointProgram, JointMonitor> monitorsFor(Map<String, Pattern> patterns,
-                                                        Map<JointProgram, JointMonitor> before) {
-        double rate = ports.torque().rateHz();
-        int block = ports.torque().maxBlockLength();
-        Map<JointProgram, JointMonitor> next = new HashMap<>();
-        for (Pattern pattern : patterns.values()) {
-            for (Pattern.Pass pass : pattern.passes()) {
-                JointMonitor kept = before.get(pass.program());
-                next.computeIfAbsent(pass.program(),
-                        p -> kept != null ? kept : new JointMonitor(p, conditioning, rate, block, this));
-            }
-        }
-        return next;
-    }
-
-    private static JointProgram firstProgram(Map<String, Pattern> patterns) {
-        return patterns.values().iterator().next().passes().get(0).program();
     }
 
     public Sequence sequence() {

@@ -47,9 +47,19 @@ class RunCommandBrokerIT {
 
     /** The example station file in {@code dir}, journal in {@code dir/outbox}, delivering to the embedded broker. */
     private Path station() throws IOException {
+        return station(false);
+    }
+
+    /** @param ownPattern the pattern file copied beside the station file (a test may change it) */
+    private Path station(boolean ownPattern) throws IOException {
         Path example = Path.of("../config/station.example.yaml").toAbsolutePath().normalize();
+        Path pattern = example.getParent().resolve("patterns/hub-5.yaml");
+        if (ownPattern) {
+            Files.createDirectories(dir.resolve("patterns"));
+            Files.copy(pattern, dir.resolve("patterns/hub-5.yaml"));
+        }
         String text = Files.readString(example)
-                .replace("patterns/hub-5.yaml", example.getParent().resolve("patterns/hub-5.yaml").toString())
+                .replace("patterns/hub-5.yaml", ownPattern ? "patterns/hub-5.yaml" : pattern.toString())
                 .replace("dir: /var/lib/hammerstep/outbox", "dir: outbox")
                 // no part-present sensor: the mock's input reads "no part", and a part named by command would wait
                 .replace("    part_present: { pin: 3, debounce_ms: 50 }\n", "");
@@ -168,6 +178,38 @@ class RunCommandBrokerIT {
             second.join(WAIT.toMillis());
             assertThat(got.on("/expiry/late")).as("the expired command got no answer: it never reached the station")
                     .isEmpty();
+        }
+    }
+    @Test
+    void reloadReadsTheFilesAgainAndABrokenFileChangesNothing() throws Exception {
+        Path station = station(true);
+        Path pattern = dir.resolve("patterns/hub-5.yaml");
+        Received got = new Received();
+        AtomicInteger exit = new AtomicInteger(-1);
+        try (QualityClient qs = QualityClient.connect(broker.url(), "qs-run-reload", got::add)) {
+            qs.subscribe("qs/reload/#");
+            qs.subscribe(PREFIX + "status");
+            Thread service = run(station, 6, exit);
+            Received.await("the station online", WAIT, () -> on(got, "status").stream()
+                    .anyMatch(m -> m.json().get("state").asText().equals("online")));
+
+            Files.writeString(pattern, Files.readString(pattern).replace("target: 300.0", "target: 305.0"));
+            qs.publish(PREFIX + "cmd/reload", utf8("{}"), 30L, "qs/reload/good", utf8("g"));
+            assertThat(reply(got, "/reload/good").json().get("message").asText())
+                    .isEqualTo("programs reloaded: 1 part model");
+
+            Files.writeString(pattern, "id: hub-5\npositions: five\n");
+            qs.publish(PREFIX + "cmd/reload", utf8("{}"), 30L, "qs/reload/bad", utf8("b"));
+            Received.Message bad = reply(got, "/reload/bad");
+            assertThat(bad.json().get("code").asText()).isEqualTo("RELOAD_FAILED");
+            assertThat(bad.json().get("message").asText()).contains("station.yaml:").contains("hub-5.yaml:2:");
+
+            qs.publish(PREFIX + "cmd/part", utf8("{\"serial\":\"HX-0050\",\"model\":\"HX-220\"}"), 30L,
+                    "qs/reload/part", utf8("p"));
+            assertThat(reply(got, "/reload/part").json().get("message").asText())
+                    .as("the programs loaded before still work").isEqualTo("part HX-0050 started: pattern hub-5");
+            service.join(WAIT.toMillis());
+            assertThat(exit.get()).isZero();
         }
     }
 }

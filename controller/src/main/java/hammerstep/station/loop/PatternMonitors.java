@@ -1,0 +1,53 @@
+package hammerstep.station.loop;
+
+import hammerstep.joint.JointEvents;
+import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointProgram;
+import hammerstep.sequence.Pattern;
+import hammerstep.signal.Conditioning;
+import hammerstep.station.TorqueInput;
+
+import java.util.HashMap;
+import java.util.Map;
+
+/** The joint monitors a station needs for its patterns: one per distinct program; used at start and on reload. */
+final class PatternMonitors {
+
+    private PatternMonitors() {
+    }
+
+    /** Why the patterns do not fit the station's position lamps, or null. */
+    static String lampProblem(Map<String, Pattern> patterns, int positionLamps) {
+        for (Pattern pattern : patterns.values()) {
+            if (pattern.size() > positionLamps) {
+                return "pattern " + pattern.id() + " has " + pattern.size() + " positions but the station has "
+                        + positionLamps + " position lamps";
+            }
+        }
+        return null;
+    }
+
+    /**
+     * A monitor for every program of {@code patterns}; a program found in {@code before} (equal
+     * content and revision) keeps its monitor, and so its auto-zero state.
+     */
+    static Map<JointProgram, JointMonitor> of(Map<String, Pattern> patterns, Map<JointProgram, JointMonitor> before,
+                                              Conditioning conditioning, TorqueInput torque, JointEvents events) {
+        double rate = torque.rateHz();
+        int block = torque.maxBlockLength();
+        Map<JointProgram, JointMonitor> next = new HashMap<>();
+        for (Pattern pattern : patterns.values()) {
+            for (Pattern.Pass pass : pattern.passes()) {
+                JointMonitor kept = before.get(pass.program());
+                next.computeIfAbsent(pass.program(),
+                        p -> kept != null ? kept : new JointMonitor(p, conditioning, rate, block, events));
+            }
+        }
+        return next;
+    }
+
+    /** The program of the first pass of the first pattern: the monitor that watches while no part is in work. */
+    static JointProgram firstProgram(Map<String, Pattern> patterns) {
+        return patterns.values().iterator().next().passes().get(0).program();
+    }
+}
