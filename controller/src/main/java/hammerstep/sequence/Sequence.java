@@ -80,8 +80,7 @@ public final class Sequence {
     private int judgedPosition = -1;
     private Verdict judgedVerdict;
     private long completeAtNs;
-    private int sensorLockout;
-    private int sensorFaultsNow;
+    private final SensorLockout lockout = new SensorLockout();
 
     /**
      * @param confirmSensors true when the fixture reports at which position the tool is
@@ -259,11 +258,10 @@ public final class Sequence {
      * again (that turn does nothing else), else releases rework, ends a rejected part, retries a failed store.
      */
     public void supervisorKey(long nowNs) {
-        if (sensorLockout != 0) {
-            if (sensorFaultsNow == 0) {
+        if (lockout.active()) {
+            if (lockout.release()) {
                 event(StationEvent.Severity.NOTICE, "SENSOR_FAULT_CLEARED", "torque signal healthy again;"
                         + " lockout released by the supervisor", part == null ? null : part.serial(), nowNs);
-                sensorLockout = 0;
             }
             return;
         }
@@ -290,26 +288,21 @@ public final class Sequence {
      * signal is healthy ({@link #sensorFaults}) and the supervisor key is turned.
      */
     public void sensorFault(int faults, String names, long nowNs) {
-        if (faults == 0) {
-            return;
-        }
-        if (sensorLockout == 0) {
+        if (lockout.fault(faults)) {
             event(StationEvent.Severity.ALARM, "SENSOR_FAULT", "torque signal fault " + names
                     + ": tool locked out until the fault clears and the supervisor key is turned",
                     part == null ? null : part.serial(), nowNs);
         }
-        sensorLockout |= faults;
-        sensorFaultsNow |= faults;
     }
 
     /** The signal's fault bits as they stand now (0 when healthy); called by the loop every cycle. */
     public void sensorFaults(int faultsNow) {
-        this.sensorFaultsNow = faultsNow;
+        lockout.faultsNow(faultsNow);
     }
 
     /** The fault bits that locked the tool out, or 0 when no sensor lockout stands. */
     public int sensorLockout() {
-        return sensorLockout;
+        return lockout.bits();
     }
 
     /** What the result store reported about its room. */
@@ -358,56 +351,17 @@ public final class Sequence {
 
     public boolean toolEnabled() {
         boolean prompting = phase == Phase.PROMPT || (phase == Phase.RUNDOWN && !shutoffSeen);
-        return prompting && sensorLockout == 0 && !abandonAfterStore && (!confirmSensors || toolAt == prompted);
+        return prompting && !lockout.active() && !abandonAfterStore && (!confirmSensors || toolAt == prompted);
     }
 
+    /** What position lamp {@code index} (0-based) shows. */
     public LampMode positionLamp(int index) {
-        if (part == null || index >= progress.size()) {
-            return LampMode.OFF;
-        }
-        Phase p = phase == Phase.FAULT ? resumeAfterFault : phase;
-        switch (p) {
-            case PROMPT, RUNDOWN, STORING:
-                return progress.workingLamp(index, prompted);
-            case REWORK:
-                return progress.workingLamp(index, reworkPosition);
-            case REJECTED:
-                return progress.rejectedLamp(index);
-            case COMPLETE:
-                return LampMode.STEADY;
-            default:
-                return LampMode.OFF;
-        }
+        return LampPicture.position(index, part != null, effective(), progress, prompted, reworkPosition);
     }
 
+    /** What the tower lamp shows. */
     public LampMode tower(TowerLamp lamp) {
-        switch (lamp) {
-            case WHITE:
-                return phase == Phase.WAITING && storage != ResultSink.Storage.FULL ? LampMode.STEADY : LampMode.OFF;
-            case BLUE:
-                return switch (phase) {
-                    case PROMPT, RUNDOWN, STORING -> LampMode.STEADY;
-                    case REWORK -> LampMode.BLINKING;
-                    default -> LampMode.OFF;
-                };
-            case GREEN:
-                return phase == Phase.COMPLETE || (phase == Phase.PROMPT && lastVerdict == Verdict.GO)
-                        ? LampMode.STEADY : LampMode.OFF;
-            case RED:
-                if (sensorLockout != 0) {
-                    return LampMode.BLINKING;
-                }
-                return switch (phase) {
-                    case REWORK -> LampMode.STEADY;
-                    case REJECTED, FAULT -> LampMode.BLINKING;
-                    default -> LampMode.OFF;
-                };
-            default:
-                if (phase == Phase.FAULT || storage == ResultSink.Storage.FULL || sensorLockout != 0) {
-                    return LampMode.BLINKING;
-                }
-                return warning || storage == ResultSink.Storage.LOW ? LampMode.STEADY : LampMode.OFF;
-        }
+        return LampPicture.tower(lamp, phase, lastVerdict, storage, lockout.active(), warning);
     }
 
     public Phase phase() {
