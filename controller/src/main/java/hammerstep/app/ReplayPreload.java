@@ -3,17 +3,20 @@ package hammerstep.app;
 import hammerstep.config.ConfigException;
 import hammerstep.config.YamlDocument;
 import hammerstep.joint.JointMonitor;
+import hammerstep.joint.JointResult;
+import hammerstep.joint.SplitReplay;
 import hammerstep.joint.JointProgram;
 import hammerstep.joint.ProgramFile;
 import hammerstep.results.JointFields;
 import hammerstep.results.JsonLines;
+import hammerstep.trace.F32Trace;
 
 /**
  * Start-up of {@code replay} on a second core: while the main thread has picocli read the
  * command line and load the program, this thread replays a built-in shift of rundowns, which
  * loads and links the YAML reader, the content hash, the signal chain and the JSON writer, and
  * runs the chain's loops often enough for the JIT to compile them before the real trace arrives.
- * It stops as soon as the real replay begins ({@link #stop()}) or after a few seconds of signal.
+ * It stops as soon as the real replay begins ({@link #stop()}) or after 80 s of signal.
  *
  * <p>It is an optimisation only: its results are thrown away, and any failure here is left for
  * the real run to meet and report.
@@ -27,8 +30,8 @@ final class ReplayPreload implements Runnable {
             rundown: { start_above: 10.0, end_after_ms: 200, max_ms: 5000 }
             """;
     private static final double RATE_HZ = 50_000;
-    /** The most signal warmed on: 2000 blocks, 160 s at 50 kHz. */
-    private static final int MAX_BLOCKS = 2000;
+    /** The most signal warmed on: 40 rounds of the 2 s shift. */
+    private static final int ROUNDS = 40;
 
     private static volatile boolean stopped;
 
@@ -51,17 +54,20 @@ final class ReplayPreload implements Runnable {
     public void run() {
         try {
             JointProgram program = ProgramFile.read(YamlDocument.parse("preload", PROGRAM));
-            float[] shift = shift();
-            JointMonitor monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), RATE_HZ,
-                    ReplayCommand.BLOCK, result -> JsonLines.of(JointFields.of(result)));
-            int blocks = shift.length / ReplayCommand.BLOCK;
-            for (int b = 0; b < MAX_BLOCKS && !stopped; b++) {
-                int at = (b % blocks) * ReplayCommand.BLOCK;
-                monitor.onSamples(shift, at, ReplayCommand.BLOCK, (long) (b * (ReplayCommand.BLOCK * 1e9 / RATE_HZ)));
+            // the same classes the real replay calls through (trace buffer, split replay, its events),
+            // so that what the JIT compiles here is not thrown away there
+            F32Trace trace = F32Trace.of(shift());
+            SplitReplay replay = new SplitReplay(program, JointMonitor.replayConditioning(program), RATE_HZ,
+                    ReplayCommand.BLOCK);
+            for (int round = 0; round < ROUNDS && !stopped; round++) {
+                for (JointResult r : replay.run(trace::read, trace.samples(), 1).results()) {
+                    JsonLines.of(JointFields.of(r));
+                }
             }
-            monitor.finish();
         } catch (ConfigException | RuntimeException e) {
             // nothing to do: the real run loads the same classes and reports what fails there
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
         }
     }
 

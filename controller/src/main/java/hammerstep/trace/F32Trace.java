@@ -1,6 +1,7 @@
 package hammerstep.trace;
 
 import java.io.IOException;
+import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.FloatBuffer;
 import java.nio.channels.FileChannel;
@@ -51,6 +52,16 @@ public final class F32Trace {
         } catch (IOException e) {
             throw new TraceException(path + ": cannot read: " + e.getMessage());
         }
+    }
+
+    /**
+     * A trace held in memory, read through the same kind of buffer as a mapped file (so code warmed
+     * on it is compiled for the real thing).
+     */
+    public static F32Trace of(float[] samples) {
+        FloatBuffer b = ByteBuffer.allocateDirect(samples.length * 4).order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
+        b.put(samples).flip();
+        return new F32Trace(new FloatBuffer[] {b}, samples.length, Math.max(1, samples.length));
     }
 
     /** Number of samples in the file. */

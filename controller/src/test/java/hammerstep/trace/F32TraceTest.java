@@ -56,6 +56,15 @@ class F32TraceTest {
     }
 
     @Test
+    void inMemoryTraceReadsLikeAFile() {
+        F32Trace t = F32Trace.of(new float[] {1f, -2.5f, 3f, 4f});
+        float[] into = new float[2];
+        t.read(1, into, 2);
+        assertThat(t.samples()).isEqualTo(4);
+        assertThat(into).containsExactly(-2.5f, 3f);
+    }
+
+    @Test
     void refusesReadsPastTheEnd() throws Exception {
         F32Trace t = F32Trace.open(write(100), 64);
         assertThatThrownBy(() -> t.read(90, new float[20], 20)).isInstanceOf(IndexOutOfBoundsException.class);
