@@ -4,8 +4,6 @@ import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
 import hammerstep.joint.Reason;
 import hammerstep.joint.Verdict;
-import hammerstep.results.JointOutcome;
-import hammerstep.results.PartOutcome;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StationEvent;
 import hammerstep.results.UnfinishedPart;
@@ -17,9 +15,6 @@ import hammerstep.station.TowerLamp;
 
 import java.time.Instant;
 import java.time.LocalDate;
-import java.util.ArrayDeque;
-import java.util.ArrayList;
-import java.util.List;
 
 /**
  * The station's sequence of work on one part after another: a pure state machine. Events and
@@ -53,7 +48,7 @@ public final class Sequence {
     private final StationClock clock;
     private final Settings settings;
     private final boolean confirmSensors;
-    private final ArrayDeque<Store> toStore = new ArrayDeque<>();
+    private final Records records;
 
     private Phase phase = Phase.WAITING;
     private Phase resumeAfterFault = Phase.WAITING;
@@ -80,8 +75,7 @@ public final class Sequence {
     private int judgedPosition = -1;
     private Verdict judgedVerdict;
     private long completeAtNs;
-    private int sensorLockout;
-    private int sensorFaultsNow;
+    private final SensorLockout lockout = new SensorLockout();
 
     /**
      * @param confirmSensors true when the fixture reports at which position the tool is
@@ -89,6 +83,7 @@ public final class Sequence {
     public Sequence(StationClock clock, Settings settings, boolean confirmSensors) {
         this.clock = clock;
         this.settings = settings;
+        this.records = new Records(clock, settings);
         this.confirmSensors = confirmSensors;
     }
 
@@ -105,7 +100,7 @@ public final class Sequence {
             clearPart();
         }
         if (phase != Phase.WAITING) {
-            event(StationEvent.Severity.WARNING, "IDENTITY_IGNORED", "part " + identity.serial()
+            records.event(StationEvent.Severity.WARNING, "IDENTITY_IGNORED", "part " + identity.serial()
                     + " scanned while " + (part == null ? "the station is faulted" : "part " + part.serial()
                     + " is in work"), identity.serial(), nowNs);
             return false;
@@ -114,7 +109,7 @@ public final class Sequence {
             return false;
         }
         if (pattern == null) {
-            event(StationEvent.Severity.WARNING, "UNKNOWN_MODEL", "no pattern for model " + identity.model(),
+            records.event(StationEvent.Severity.WARNING, "UNKNOWN_MODEL", "no pattern for model " + identity.model(),
                     identity.serial(), nowNs);
             return false;
         }
@@ -154,7 +149,7 @@ public final class Sequence {
         rejectedAs = "INTERRUPTED";
         phase = Phase.REJECTED;
         int n = unfinished.jointIds().size();
-        event(StationEvent.Severity.ALARM, "PART_INTERRUPTED", "part " + part.serial() + " was in work when the"
+        records.event(StationEvent.Severity.ALARM, "PART_INTERRUPTED", "part " + part.serial() + " was in work when the"
                 + " station stopped (" + n + (n == 1 ? " joint" : " joints") + " stored, no part record): check it,"
                 + " then turn the supervisor key to close it as INTERRUPTED", part.serial(), nowNs);
     }
@@ -187,10 +182,10 @@ public final class Sequence {
         if (part == null || phase == Phase.COMPLETE || abandonAfterStore) {
             return "NO_PART";
         }
-        event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: " + reason,
-                part.serial(), nowNs);
+        records.event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: "
+                + reason, part.serial(), nowNs);
         if (phase == Phase.REJECTED) {
-            toStore.add(new Store.Part(partOutcome("NO_GO", rejectedAs, nowNs)));
+            partRecord("NO_GO", rejectedAs, nowNs);
             clearPart();
         } else {
             partRemoved(nowNs);
@@ -221,7 +216,7 @@ public final class Sequence {
     public void jointJudged(JointResult result, long nowNs) {
         if (effective() != Phase.RUNDOWN) {
             if (unexpectedRundown) {
-                event(StationEvent.Severity.ALARM, "UNEXPECTED_RUNDOWN", "a rundown of " + result.blows()
+                records.event(StationEvent.Severity.ALARM, "UNEXPECTED_RUNDOWN", "a rundown of " + result.blows()
                         + " blows to " + Math.round(result.finalTorqueNm()) + " N·m while no position was prompted",
                         part == null ? null : part.serial(), nowNs);
             }
@@ -232,16 +227,14 @@ public final class Sequence {
         JointResult r = result;
         if (pos != prompted) {
             boolean rehit = progress.done(pos);
-            r = withReason(result, rehit ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
-            event(StationEvent.Severity.ALARM, rehit ? "REHIT" : "OUT_OF_SEQUENCE",
+            r = Records.withReason(result, rehit ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
+            records.event(StationEvent.Severity.ALARM, rehit ? "REHIT" : "OUT_OF_SEQUENCE",
                     "rundown on position " + label(pos) + " while " + label(prompted) + " was prompted",
                     part.serial(), nowNs);
         }
         int attempt = progress.countAttempt(pos);
         Pattern.Pass pass = pass();
-        toStore.add(new Store.Joint(new JointOutcome(part.serial(), part.model(), pattern.id(),
-                pattern.positions().get(pos), pos + 1, pass.name(), attempt, r,
-                settings.transducerSerial(), settings.calibrationDue(), clock.instantOf(nowNs), null)));
+        records.joint(part, pattern, pos, pass.name(), attempt, r, nowNs);
         judgedPosition = pos;
         judgedVerdict = r.verdict();
         go(Phase.STORING);
@@ -259,18 +252,17 @@ public final class Sequence {
      * again (that turn does nothing else), else releases rework, ends a rejected part, retries a failed store.
      */
     public void supervisorKey(long nowNs) {
-        if (sensorLockout != 0) {
-            if (sensorFaultsNow == 0) {
-                event(StationEvent.Severity.NOTICE, "SENSOR_FAULT_CLEARED", "torque signal healthy again;"
+        if (lockout.active()) {
+            if (lockout.release()) {
+                records.event(StationEvent.Severity.NOTICE, "SENSOR_FAULT_CLEARED", "torque signal healthy again;"
                         + " lockout released by the supervisor", part == null ? null : part.serial(), nowNs);
-                sensorLockout = 0;
             }
             return;
         }
         switch (phase) {
             case REWORK -> releaseRework("supervisor", nowNs);
             case REJECTED -> {
-                toStore.add(new Store.Part(partOutcome("NO_GO", rejectedAs, nowNs)));
+                partRecord("NO_GO", rejectedAs, nowNs);
                 clearPart();
             }
             case FAULT -> phase = resumeAfterFault;
@@ -290,26 +282,21 @@ public final class Sequence {
      * signal is healthy ({@link #sensorFaults}) and the supervisor key is turned.
      */
     public void sensorFault(int faults, String names, long nowNs) {
-        if (faults == 0) {
-            return;
-        }
-        if (sensorLockout == 0) {
-            event(StationEvent.Severity.ALARM, "SENSOR_FAULT", "torque signal fault " + names
+        if (lockout.fault(faults)) {
+            records.event(StationEvent.Severity.ALARM, "SENSOR_FAULT", "torque signal fault " + names
                     + ": tool locked out until the fault clears and the supervisor key is turned",
                     part == null ? null : part.serial(), nowNs);
         }
-        sensorLockout |= faults;
-        sensorFaultsNow |= faults;
     }
 
     /** The signal's fault bits as they stand now (0 when healthy); called by the loop every cycle. */
     public void sensorFaults(int faultsNow) {
-        this.sensorFaultsNow = faultsNow;
+        lockout.faultsNow(faultsNow);
     }
 
     /** The fault bits that locked the tool out, or 0 when no sensor lockout stands. */
     public int sensorLockout() {
-        return sensorLockout;
+        return lockout.bits();
     }
 
     /** What the result store reported about its room. */
@@ -332,12 +319,12 @@ public final class Sequence {
 
     /** The oldest record waiting to be stored, or null; none is handed out while a store fault stands. */
     public Store nextToStore() {
-        return phase == Phase.FAULT ? null : toStore.peek();
+        return phase == Phase.FAULT ? null : records.peek();
     }
 
     /** The record from {@link #nextToStore()} was stored; a joint's verdict shows now. */
     public void stored(ResultSink.Receipt receipt, long nowNs) {
-        Store done = toStore.poll();
+        Store done = records.poll();
         if (done instanceof Store.Joint) {
             progress.jointStored(receipt.id());
             if (phase == Phase.STORING) {
@@ -358,56 +345,17 @@ public final class Sequence {
 
     public boolean toolEnabled() {
         boolean prompting = phase == Phase.PROMPT || (phase == Phase.RUNDOWN && !shutoffSeen);
-        return prompting && sensorLockout == 0 && !abandonAfterStore && (!confirmSensors || toolAt == prompted);
+        return prompting && !lockout.active() && !abandonAfterStore && (!confirmSensors || toolAt == prompted);
     }
 
+    /** What position lamp {@code index} (0-based) shows. */
     public LampMode positionLamp(int index) {
-        if (part == null || index >= progress.size()) {
-            return LampMode.OFF;
-        }
-        Phase p = phase == Phase.FAULT ? resumeAfterFault : phase;
-        switch (p) {
-            case PROMPT, RUNDOWN, STORING:
-                return progress.workingLamp(index, prompted);
-            case REWORK:
-                return progress.workingLamp(index, reworkPosition);
-            case REJECTED:
-                return progress.rejectedLamp(index);
-            case COMPLETE:
-                return LampMode.STEADY;
-            default:
-                return LampMode.OFF;
-        }
+        return LampPicture.position(index, part != null, effective(), progress, prompted, reworkPosition);
     }
 
+    /** What the tower lamp shows. */
     public LampMode tower(TowerLamp lamp) {
-        switch (lamp) {
-            case WHITE:
-                return phase == Phase.WAITING && storage != ResultSink.Storage.FULL ? LampMode.STEADY : LampMode.OFF;
-            case BLUE:
-                return switch (phase) {
-                    case PROMPT, RUNDOWN, STORING -> LampMode.STEADY;
-                    case REWORK -> LampMode.BLINKING;
-                    default -> LampMode.OFF;
-                };
-            case GREEN:
-                return phase == Phase.COMPLETE || (phase == Phase.PROMPT && lastVerdict == Verdict.GO)
-                        ? LampMode.STEADY : LampMode.OFF;
-            case RED:
-                if (sensorLockout != 0) {
-                    return LampMode.BLINKING;
-                }
-                return switch (phase) {
-                    case REWORK -> LampMode.STEADY;
-                    case REJECTED, FAULT -> LampMode.BLINKING;
-                    default -> LampMode.OFF;
-                };
-            default:
-                if (phase == Phase.FAULT || storage == ResultSink.Storage.FULL || sensorLockout != 0) {
-                    return LampMode.BLINKING;
-                }
-                return warning || storage == ResultSink.Storage.LOW ? LampMode.STEADY : LampMode.OFF;
-        }
+        return LampPicture.tower(lamp, phase, lastVerdict, storage, lockout.active(), warning);
     }
 
     public Phase phase() {
@@ -500,7 +448,7 @@ public final class Sequence {
             phase = Phase.REJECTED;
             return;
         }
-        toStore.add(new Store.Part(partOutcome("GO", "COMPLETE", nowNs)));
+        partRecord("GO", "COMPLETE", nowNs);
         phase = Phase.COMPLETE;
         completeAtNs = nowNs;
     }
@@ -526,7 +474,7 @@ public final class Sequence {
         } else {
             progress.failed(pos, pass.afterNoGo() == AfterNoGo.SKIP_POSITION);
             reworkRetry = false;
-            event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO-GO after "
+            records.event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO-GO after "
                     + tried + (tried == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
                     part.serial(), nowNs);
             if (pass.afterNoGo() == AfterNoGo.REJECT) {
@@ -544,7 +492,7 @@ public final class Sequence {
     }
 
     private void releaseRework(String by, long nowNs) {
-        event(StationEvent.Severity.NOTICE, "REWORK_ACKNOWLEDGED", "NO-GO on position " + label(reworkPosition)
+        records.event(StationEvent.Severity.NOTICE, "REWORK_ACKNOWLEDGED", "NO-GO on position " + label(reworkPosition)
                 + " acknowledged by the " + by, part.serial(), nowNs);
         if (reworkRetry) {
             prompted = reworkPosition;
@@ -556,7 +504,7 @@ public final class Sequence {
     }
 
     private void abandon(long nowNs) {
-        toStore.add(new Store.Part(partOutcome("NO_GO", "ABANDONED", nowNs)));
+        partRecord("NO_GO", "ABANDONED", nowNs);
         clearPart();
     }
 
@@ -571,24 +519,11 @@ public final class Sequence {
         phase = Phase.WAITING;
     }
 
-    private PartOutcome partOutcome(String verdict, String ended, long nowNs) {
-        return new PartOutcome(part.serial(), part.model(), patternId, verdict, ended, progress.jointIds(),
-                partStarted, clock.instantOf(nowNs));
-    }
-
-    private void event(StationEvent.Severity severity, String code, String message, String serial, long nowNs) {
-        toStore.add(new Store.Event(new StationEvent(severity, code, message, serial, clock.instantOf(nowNs))));
+    private void partRecord(String verdict, String ended, long nowNs) {
+        records.part(part, patternId, verdict, ended, progress.jointIds(), partStarted, nowNs);
     }
 
     private String label(int pos) {
         return pos < 0 ? "-" : (pos + 1) + " (" + pattern.positions().get(pos) + ")";
-    }
-
-    private static JointResult withReason(JointResult r, Reason reason) {
-        List<Reason> reasons = new ArrayList<>(r.reasons());
-        reasons.add(reason);
-        return new JointResult(r.program(), r.startNs(), r.endNs(), r.blows(), r.peaksNm(), r.peakTimesNs(),
-                r.widthsMs(), r.impulsesNms(), r.finalTorqueNm(), r.durationMs(), r.shutoffAtNs(),
-                r.blowsAfterShutoff(), r.faults(), Verdict.NO_GO, List.copyOf(reasons));
     }
 }
