@@ -92,11 +92,7 @@ public final class SplitReplay {
         for (int w = 0; w < n; w++) {
             long from = w == 0 ? 0 : Math.max(cut[w - 1], cut[w] - primeSamples);
             long noted = w == 0 ? 0 : Math.min(windowSamples, cut[w + 1] - cut[w]) / block;
-            crew.add(new Worker(source, from, cut[w], cut[w + 1], (int) noted));
-        }
-        for (int w = 0; w + 1 < n; w++) {
-            crew.get(w).crew = crew;
-            crew.get(w).index = w;
+            crew.add(new Worker(source, crew, w, from, cut[w], cut[w + 1], samples, (int) noted));
         }
         runAll(crew);
         return join(crew);
@@ -181,15 +177,20 @@ public final class SplitReplay {
         volatile int published;
         volatile boolean done;
 
-        List<Worker> crew;
-        int index;
+        final List<Worker> crew;
+        final int index;
+        final long traceEnd;
         long stoppedAt;
         Worker next;
         int nextIndex;
         int resultsAtHandover;
 
-        Worker(Samples source, long from, long segmentStart, long segmentEnd, int noted) {
+        Worker(Samples source, List<Worker> crew, int index, long from, long segmentStart, long segmentEnd,
+               long traceEnd, int noted) {
             this.source = source;
+            this.crew = crew;
+            this.index = index;
+            this.traceEnd = traceEnd;
             this.monitor = new JointMonitor(program, conditioning, rateHz, block, results::add);
             this.from = from;
             this.segmentStart = segmentStart;
@@ -201,8 +202,7 @@ public final class SplitReplay {
         @Override
         public void run() {
             try {
-                long end = crew == null ? segmentEnd : crew.get(crew.size() - 1).segmentEnd;
-                for (long s = from; s < end; s += block) {
+                for (long s = from; s < traceEnd; s += block) {
                     if (s >= segmentEnd && meets(s)) {
                         stoppedAt = s;
                         return;
@@ -210,11 +210,11 @@ public final class SplitReplay {
                     if (s >= segmentStart) {
                         note(s);
                     }
-                    int k = (int) Math.min(block, end - s);
+                    int k = (int) Math.min(block, traceEnd - s);
                     source.read(s, samples, k);
                     monitor.onSamples(samples, 0, k, (long) (s * periodNs));
                 }
-                stoppedAt = end;
+                stoppedAt = traceEnd;
                 monitor.finish();
             } finally {
                 done = true;

@@ -4,9 +4,8 @@ import hammerstep.mqtt.paho.QualityClient;
 import hammerstep.results.MessageSchemas;
 import hammerstep.sim.demo.DemoOptions;
 import hammerstep.sim.demo.DemoRunner;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.io.ByteArrayOutputStream;
@@ -29,25 +28,16 @@ class DemoCommandsIT {
     private static final Duration WAIT = Duration.ofSeconds(30);
     private static final Path STATION = Path.of("../config/demo/station.yaml");
     private static final String PREFIX = "hammerstep/v1/harrow-bend/skid-1/flange-2/";
-    private static EmbeddedBroker broker;
+    @RegisterExtension
+    static final LoopbackBroker BROKER = new LoopbackBroker();
 
     @TempDir
     Path dir;
 
-    @BeforeAll
-    static void startBroker() throws Exception {
-        broker = EmbeddedBroker.start(0);
-    }
-
-    @AfterAll
-    static void stopBroker() {
-        broker.close();
-    }
-
     private Thread demo(int parts, long seed, Path results, AtomicInteger exit) {
         Thread t = new Thread(() -> {
             try {
-                exit.set(new DemoRunner(new DemoOptions(STATION, parts, seed, true, true, 0, null, true, broker.url(),
+                exit.set(new DemoRunner(new DemoOptions(STATION, parts, seed, true, true, 0, null, true, BROKER.url(),
                         results, null, dir.resolve("state")), new PrintStream(new ByteArrayOutputStream(), true,
                         StandardCharsets.UTF_8)).run());
             } catch (Exception e) {
@@ -73,7 +63,7 @@ class DemoCommandsIT {
     void theRunningDemoStationAnswersRequestsWithTheirCorrelationData() throws Exception {
         Received got = new Received();
         AtomicInteger exit = new AtomicInteger(-1);
-        try (QualityClient qs = QualityClient.connect(broker.url(), "qs-demo", got::add)) {
+        try (QualityClient qs = QualityClient.connect(BROKER.url(), "qs-demo", got::add)) {
             qs.subscribe("qs/demo/#");
             qs.subscribe(PREFIX + "status");
             Thread demo = demo(3, 5, dir.resolve("r.jsonl"), exit);
@@ -103,7 +93,7 @@ class DemoCommandsIT {
     void aCommandThatExpiredBeforeTheDemoRanNeverActs() throws Exception {
         AtomicInteger exit = new AtomicInteger(-1);
         Received got = new Received();
-        try (QualityClient qs = QualityClient.connect(broker.url(), "qs-demo-expiry", got::add)) {
+        try (QualityClient qs = QualityClient.connect(BROKER.url(), "qs-demo-expiry", got::add)) {
             qs.subscribe("qs/late/#");
             // a first run leaves the station's session, and so its command subscription, with the broker
             Thread first = demo(1, 3, null, exit);

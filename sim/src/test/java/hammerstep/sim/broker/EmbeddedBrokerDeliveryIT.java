@@ -5,9 +5,8 @@ import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.paho.QualityClient;
 import hammerstep.results.MessageSchemas;
 import hammerstep.results.ResultSink;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.nio.charset.StandardCharsets;
@@ -26,23 +25,14 @@ import static org.assertj.core.api.Assertions.assertThat;
 class EmbeddedBrokerDeliveryIT {
 
     private static final Duration WAIT = Duration.ofSeconds(20);
-    private static EmbeddedBroker broker;
+    @RegisterExtension
+    static final LoopbackBroker BROKER = new LoopbackBroker();
 
     @TempDir
     Path state;
 
-    @BeforeAll
-    static void startBroker() throws Exception {
-        broker = EmbeddedBroker.start(0);
-    }
-
-    @AfterAll
-    static void stopBroker() {
-        broker.close();
-    }
-
     private static QualityClient subscriber(Received got, String name) throws Exception {
-        QualityClient q = QualityClient.connect(broker.url(), name, got::add);
+        QualityClient q = QualityClient.connect(BROKER.url(), name, got::add);
         q.subscribe("hammerstep/v1/+/+/+/#");
         return q;
     }
@@ -51,7 +41,7 @@ class EmbeddedBrokerDeliveryIT {
     void deliversEveryResultInSeqOrderValidAgainstItsSchemaAndMarksItDelivered() throws Exception {
         Received got = new Received();
         try (QualityClient q = subscriber(got, "qs-order");
-             StationHarness station = new StationHarness(broker.url(), state.resolve("a"), StationCommands.NONE)) {
+             StationHarness station = new StationHarness(BROKER.url(), state.resolve("a"), StationCommands.NONE)) {
             List<String> ids = new ArrayList<>();
             for (int i = 1; i <= 40; i++) {
                 ids.add(station.joint(i).id());
@@ -81,7 +71,7 @@ class EmbeddedBrokerDeliveryIT {
     @Test
     void aNetworkOutageLosesNothingAndTheBacklogDrainsOnReconnect() throws Exception {
         Received got = new Received();
-        try (LoopbackProxy proxy = new LoopbackProxy(broker.port());
+        try (LoopbackProxy proxy = new LoopbackProxy(BROKER.port());
              QualityClient q = subscriber(got, "qs-outage");
              StationHarness station = new StationHarness(proxy.url(), state.resolve("b"), StationCommands.NONE)) {
             for (int i = 1; i <= 10; i++) {
@@ -112,7 +102,7 @@ class EmbeddedBrokerDeliveryIT {
     @Test
     void drainsABacklogStoredWhileTheBrokerWasUnreachable() throws Exception {
         Received got = new Received();
-        try (LoopbackProxy proxy = new LoopbackProxy(broker.port());
+        try (LoopbackProxy proxy = new LoopbackProxy(BROKER.port());
              QualityClient q = subscriber(got, "qs-drain");
              StationHarness station = new StationHarness(proxy.url(), state.resolve("g"), StationCommands.NONE)) {
             proxy.cut();
@@ -129,11 +119,11 @@ class EmbeddedBrokerDeliveryIT {
 
     @Test
     void aLateSubscriberFindsTheRetainedStatus() throws Exception {
-        try (StationHarness station = new StationHarness(broker.url(), state.resolve("c"), StationCommands.NONE)) {
+        try (StationHarness station = new StationHarness(BROKER.url(), state.resolve("c"), StationCommands.NONE)) {
             station.joint(1);
             Received.await("delivered", WAIT, () -> station.outbox.backlog() == 0);
             Received late = new Received();
-            try (QualityClient q = QualityClient.connect(broker.url(), "qs-late", late::add)) {
+            try (QualityClient q = QualityClient.connect(BROKER.url(), "qs-late", late::add)) {
                 q.subscribe("hammerstep/v1/plant-north/axle-2/hub-fit-1/status");
                 Received.await("retained status", WAIT, () -> !late.on("/status").isEmpty());
                 Received.Message s = late.on("/status").get(0);
@@ -149,8 +139,8 @@ class EmbeddedBrokerDeliveryIT {
         RecordingStation commands = new RecordingStation();
         Received got = new Received();
         String cmd = "hammerstep/v1/plant-north/axle-2/hub-fit-1/cmd/";
-        try (StationHarness station = new StationHarness(broker.url(), state.resolve("d"), commands);
-             QualityClient q = QualityClient.connect(broker.url(), "qs-cmd", got::add)) {
+        try (StationHarness station = new StationHarness(BROKER.url(), state.resolve("d"), commands);
+             QualityClient q = QualityClient.connect(BROKER.url(), "qs-cmd", got::add)) {
             q.subscribe("qs/replies/#");
             Received.await("station connected", WAIT, () -> station.publisher.figures().connected());
             q.publish(cmd + "part", "{\"serial\":\"WH-2001\",\"model\":\"hub-5\"}".getBytes(StandardCharsets.UTF_8),
@@ -178,9 +168,9 @@ class EmbeddedBrokerDeliveryIT {
     void aCommandThatExpiredWhileTheStationWasOfflineNeverActs() throws Exception {
         RecordingStation commands = new RecordingStation();
         String cmd = "hammerstep/v1/plant-north/axle-2/hub-fit-1/cmd/";
-        try (LoopbackProxy proxy = new LoopbackProxy(broker.port());
+        try (LoopbackProxy proxy = new LoopbackProxy(BROKER.port());
              StationHarness station = new StationHarness(proxy.url(), state.resolve("e"), commands);
-             QualityClient q = QualityClient.connect(broker.url(), "qs-expiry", (t, p, r, c) -> { })) {
+             QualityClient q = QualityClient.connect(BROKER.url(), "qs-expiry", (t, p, r, c) -> { })) {
             Received.await("station connected", WAIT, () -> station.publisher.figures().connected());
             proxy.cut();
             Received.await("station offline", WAIT, () -> !station.publisher.figures().connected());
@@ -198,7 +188,7 @@ class EmbeddedBrokerDeliveryIT {
 
     @Test
     void leavesNoClientThreadBehind() throws Exception {
-        try (StationHarness station = new StationHarness(broker.url(), state.resolve("f"), StationCommands.NONE)) {
+        try (StationHarness station = new StationHarness(BROKER.url(), state.resolve("f"), StationCommands.NONE)) {
             station.joint(1);
             Received.await("delivered", WAIT, () -> station.outbox.backlog() == 0);
         }

@@ -3,9 +3,8 @@ package hammerstep.sim.broker;
 import hammerstep.app.Main;
 import hammerstep.mqtt.paho.QualityClient;
 import hammerstep.results.MessageSchemas;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.io.ByteArrayInputStream;
@@ -30,20 +29,11 @@ class RunCommandBrokerIT {
 
     private static final Duration WAIT = Duration.ofSeconds(20);
     private static final String PREFIX = "hammerstep/v1/plant-07/axle-2/hub-torque-1/";
-    private static EmbeddedBroker broker;
+    @RegisterExtension
+    static final LoopbackBroker BROKER = new LoopbackBroker();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void startBroker() throws Exception {
-        broker = EmbeddedBroker.start(0);
-    }
-
-    @AfterAll
-    static void stopBroker() {
-        broker.close();
-    }
 
     /** The example station file in {@code dir}, journal in {@code dir/outbox}, delivering to the embedded broker. */
     private Path station() throws IOException {
@@ -65,7 +55,7 @@ class RunCommandBrokerIT {
                 .replace("    part_present: { pin: 3, debounce_ms: 50 }\n", "");
         assertThat(text).doesNotContain("part_present");
         Path file = dir.resolve("station.yaml");
-        Files.writeString(file, text + "\nbroker:\n  url: " + broker.url() + "\n  reconnect: { min_ms: 50, max_ms: 500 }\n");
+        Files.writeString(file, text + "\nbroker:\n  url: " + BROKER.url() + "\n  reconnect: { min_ms: 50, max_ms: 500 }\n");
         return file;
     }
 
@@ -105,7 +95,7 @@ class RunCommandBrokerIT {
     void answersThePlantsCommandsAndDeliversThePartTheyEnded() throws Exception {
         Received got = new Received();
         AtomicInteger exit = new AtomicInteger(-1);
-        try (QualityClient qs = QualityClient.connect(broker.url(), "qs-run", got::add)) {
+        try (QualityClient qs = QualityClient.connect(BROKER.url(), "qs-run", got::add)) {
             qs.subscribe(PREFIX + "#");
             qs.subscribe("qs/replies/#");
             Thread service = run(station(), 6, exit);
@@ -154,7 +144,7 @@ class RunCommandBrokerIT {
         Path station = station();
         AtomicInteger exit = new AtomicInteger(-1);
         Received got = new Received();
-        try (QualityClient qs = QualityClient.connect(broker.url(), "qs-run-expiry", got::add)) {
+        try (QualityClient qs = QualityClient.connect(BROKER.url(), "qs-run-expiry", got::add)) {
             qs.subscribe("qs/expiry/#");
             qs.subscribe(PREFIX + "status");
             // a first run leaves its session (and so its command subscription) with the broker
@@ -186,7 +176,7 @@ class RunCommandBrokerIT {
         Path pattern = dir.resolve("patterns/hub-5.yaml");
         Received got = new Received();
         AtomicInteger exit = new AtomicInteger(-1);
-        try (QualityClient qs = QualityClient.connect(broker.url(), "qs-run-reload", got::add)) {
+        try (QualityClient qs = QualityClient.connect(BROKER.url(), "qs-run-reload", got::add)) {
             qs.subscribe("qs/reload/#");
             qs.subscribe(PREFIX + "status");
             Thread service = run(station, 6, exit);
