@@ -123,10 +123,7 @@ public class CommandBenchmark {
     public long commandToAnswer(Wiring w) throws Exception {
         long before = w.answers.get();
         w.plant.publish(w.topic, w.body, 30L, "qs/bench/answer", w.body);
-        while (w.answers.get() == before) {
-            Thread.onSpinWait();
-        }
-        return w.answers.get();
+        return awaitAnswer(w, before);
     }
 
     /** Control: {@code cmd/status} is answered by the publisher itself, without the station loop. */
@@ -138,10 +135,7 @@ public class CommandBenchmark {
     public long statusToAnswer(Wiring w) throws Exception {
         long before = w.answers.get();
         w.plant.publish(w.statusTopic, new byte[0], null, "qs/bench/status", w.body);
-        while (w.answers.get() == before) {
-            Thread.onSpinWait();
-        }
-        return w.answers.get();
+        return awaitAnswer(w, before);
     }
 
     /** Control: only the plant's publish, until the broker's PUBACK (no answer awaited). */
@@ -163,6 +157,11 @@ public class CommandBenchmark {
     public long brokerEcho(Wiring w) throws Exception {
         long before = w.answers.get();
         w.plant.publish("qs/bench/echo", w.body, 30L, null, w.body);
+        return awaitAnswer(w, before);
+    }
+
+    /** Spins until an answer beyond {@code before} has arrived; returns the new count. */
+    private static long awaitAnswer(Wiring w, long before) {
         while (w.answers.get() == before) {
             Thread.onSpinWait();
         }
