@@ -91,22 +91,16 @@ public final class ReplayCommand implements Callable<Integer> {
         ReplayPreload.stop();
         if (TraceReader.isF32(trace)) {
             // random access: a long trace is replayed on every core, with the single monitor's results
-            F32Trace samples = F32Trace.open(trace);
-            SplitReplay split = new SplitReplay(program, conditioning, rate, BLOCK);
-            int workers = split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
-            try {
-                SplitReplay.Outcome outcome = split.run(samples::read, samples.samples(), workers);
-                if (verbose) {
-                    // looked up only here: a logger would otherwise start logging for every replay
-                    org.slf4j.LoggerFactory.getLogger(ReplayCommand.class).debug(
-                            "{} samples on {} workers: {} handovers, {} samples run past segment ends",
-                            samples.samples(), outcome.workers(), outcome.handovers(), outcome.samplesPastSegments());
-                }
-                outcome.results().forEach(events::onRundown);
+            List<JointResult> judged;
+            try (F32Trace samples = F32Trace.open(trace)) {
+                judged = replaySplit(samples, program, conditioning, rate);
+            } catch (UncheckedIOException e) {
+                throw new TraceException(e.getMessage());
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
                 return 1;
             }
+            judged.forEach(events::onRundown);
         } else {
             JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
             TraceFiles.read(trace, rate, new float[BLOCK], monitor::onSamples);
@@ -117,6 +111,21 @@ public final class ReplayCommand implements Callable<Integer> {
         }
         out.flush();
         return 0;
+    }
+
+    /** Replays a random-access trace on every core; the results are those of one monitor. */
+    private List<JointResult> replaySplit(F32Trace samples, JointProgram program, Conditioning conditioning,
+                                          double rate) throws InterruptedException {
+        SplitReplay split = new SplitReplay(program, conditioning, rate, BLOCK);
+        int workers = split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
+        SplitReplay.Outcome outcome = split.run(samples::read, samples.samples(), workers);
+        if (verbose) {
+            // looked up only here: a logger would otherwise start logging for every replay
+            org.slf4j.LoggerFactory.getLogger(ReplayCommand.class).debug(
+                    "{} samples on {} workers: {} handovers, {} samples run past segment ends",
+                    samples.samples(), outcome.workers(), outcome.handovers(), outcome.samplesPastSegments());
+        }
+        return outcome.results();
     }
 
     private static void print(JointResult result, BufferedWriter out) {

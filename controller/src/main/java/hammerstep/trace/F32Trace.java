@@ -1,6 +1,7 @@
 package hammerstep.trace;
 
 import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.FloatBuffer;
@@ -10,78 +11,145 @@ import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 
 /**
- * A raw float32 trace (little-endian N·m) mapped into memory, read from any position by any
- * number of threads at once. The file is mapped in pieces of {@value #CHUNK_SAMPLES} samples, a
- * multiple of every block length the chain uses, so a block never needs more than two copies.
+ * A raw float32 trace (little-endian N·m), read from any position by any number of threads at
+ * once. Each reading thread gets a window of its own ({@value #WINDOW_SAMPLES} samples) that it
+ * fills with positional reads of the file; a thread walking the trace forward in blocks thus
+ * costs one read call per window.
+ *
+ * <p>The file is read rather than mapped: mapping pays a page fault for every page touched, and
+ * on the machines measured (a virtual machine among them) that costs about four times what
+ * copying the same bytes through {@code read} does (see docs/design.md, "Replay speed").
  */
-public final class F32Trace {
+public final class F32Trace implements AutoCloseable {
 
-    static final int CHUNK_SAMPLES = 1 << 26;
+    static final int WINDOW_SAMPLES = 1 << 18;
 
-    private final FloatBuffer[] chunks;
+    private final String name;
+    private final FileChannel channel;
+    private final FloatBuffer memory;
     private final long samples;
-    private final int chunkSamples;
+    private final int windowSamples;
+    private final ThreadLocal<Window> windows = new ThreadLocal<>() {
+        @Override
+        protected Window initialValue() {
+            return new Window();
+        }
+    };
 
-    private F32Trace(FloatBuffer[] chunks, long samples, int chunkSamples) {
-        this.chunks = chunks;
+    private F32Trace(String name, FileChannel channel, FloatBuffer memory, long samples, int windowSamples) {
+        this.name = name;
+        this.channel = channel;
+        this.memory = memory;
         this.samples = samples;
-        this.chunkSamples = chunkSamples;
+        this.windowSamples = windowSamples;
     }
 
     public static F32Trace open(Path path) throws TraceException {
-        return open(path, CHUNK_SAMPLES);
+        return open(path, WINDOW_SAMPLES);
     }
 
-    static F32Trace open(Path path, int chunkSamples) throws TraceException {
-        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
+    static F32Trace open(Path path, int windowSamples) throws TraceException {
+        FileChannel ch = null;
+        try {
+            ch = FileChannel.open(path, StandardOpenOption.READ);
             long size = ch.size();
             if (size % 4 != 0) {
                 throw new TraceException(path + ": size " + size + " bytes is not a whole number of float32 samples");
             }
-            long samples = size / 4;
-            FloatBuffer[] chunks = new FloatBuffer[(int) ((samples + chunkSamples - 1) / chunkSamples)];
-            for (int c = 0; c < chunks.length; c++) {
-                long from = (long) c * chunkSamples;
-                long n = Math.min(chunkSamples, samples - from);
-                chunks[c] = ch.map(FileChannel.MapMode.READ_ONLY, from * 4, n * 4)
-                        .order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
-            }
-            return new F32Trace(chunks, samples, chunkSamples);
+            F32Trace trace = new F32Trace(path.toString(), ch, null, size / 4, windowSamples);
+            ch = null;
+            return trace;
         } catch (NoSuchFileException e) {
             throw new TraceException(path + ": no such file");
         } catch (IOException e) {
             throw new TraceException(path + ": cannot read: " + e.getMessage());
+        } finally {
+            closeQuietly(ch);
         }
     }
 
     /**
-     * A trace held in memory, read through the same kind of buffer as a mapped file (so code warmed
-     * on it is compiled for the real thing).
+     * A trace held in memory, read through the same kind of buffer as a file's window (so code
+     * warmed on it is compiled for the real thing).
      */
     public static F32Trace of(float[] samples) {
         FloatBuffer b = ByteBuffer.allocateDirect(samples.length * 4).order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
         b.put(samples).flip();
-        return new F32Trace(new FloatBuffer[] {b}, samples.length, Math.max(1, samples.length));
+        return new F32Trace("memory", null, b, samples.length, Math.max(1, samples.length));
     }
 
-    /** Number of samples in the file. */
+    /** Number of samples in the trace. */
     public long samples() {
         return samples;
     }
 
-    /** Copies samples {@code [from, from+length)} into {@code into[0, length)}. */
+    /**
+     * Copies samples {@code [from, from+length)} into {@code into[0, length)}.
+     *
+     * @throws UncheckedIOException when the file cannot be read or has shrunk since it was opened
+     */
     public void read(long from, float[] into, int length) {
         if (from < 0 || length < 0 || from + length > samples) {
             throw new IndexOutOfBoundsException("samples [" + from + ", " + (from + length) + ") of " + samples);
         }
+        if (channel == null) {
+            memory.get((int) from, into, 0, length);
+            return;
+        }
+        Window w = windows.get();
         int done = 0;
         while (done < length) {
             long s = from + done;
-            FloatBuffer chunk = chunks[(int) (s / chunkSamples)];
-            int at = (int) (s % chunkSamples);
-            int k = Math.min(length - done, chunk.limit() - at);
-            chunk.get(at, into, done, k);
+            if (s < w.first || s >= w.first + w.length) {
+                w.fill(s);
+            }
+            int k = (int) Math.min(length - done, w.first + w.length - s);
+            w.floats.get((int) (s - w.first), into, done, k);
             done += k;
+        }
+    }
+
+    /** Closes the file; reads after this fail. */
+    @Override
+    public void close() {
+        closeQuietly(channel);
+    }
+
+    private static void closeQuietly(FileChannel ch) {
+        if (ch != null) {
+            try {
+                ch.close();
+            } catch (IOException e) {
+                // read-only: nothing was left unwritten
+            }
+        }
+    }
+
+    /** One thread's copy of a stretch of the file. */
+    private final class Window {
+        final ByteBuffer bytes = ByteBuffer.allocateDirect(windowSamples * 4).order(ByteOrder.LITTLE_ENDIAN);
+        final FloatBuffer floats = bytes.asFloatBuffer();
+        long first;
+        int length;
+
+        /** Reads up to a window's worth of samples from sample {@code from} on. */
+        void fill(long from) {
+            int want = (int) Math.min(windowSamples, samples - from);
+            bytes.clear().limit(want * 4);
+            long position = from * 4;
+            try {
+                while (bytes.hasRemaining()) {
+                    if (channel.read(bytes, position + bytes.position()) < 0) {
+                        String m = name + ": the file ended at byte " + (position + bytes.position())
+                                + ", shorter than when it was opened";
+                        throw new UncheckedIOException(m, new IOException(m));
+                    }
+                }
+            } catch (IOException e) {
+                throw new UncheckedIOException(name + ": cannot read: " + e.getMessage(), e);
+            }
+            first = from;
+            length = want;
         }
     }
 }

@@ -2,6 +2,7 @@ package hammerstep.trace;
 
 import java.io.BufferedReader;
 import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
@@ -42,12 +43,15 @@ public final class TraceReader {
             throw new TraceException(path + ": a .f32 trace needs --rate HZ (a positive sample rate)");
         }
         double periodNs = 1e9 / rateHz;
-        F32Trace trace = F32Trace.open(path);
-        long samples = trace.samples();
-        for (long sample = 0; sample < samples; sample += block.length) {
-            int k = (int) Math.min(block.length, samples - sample);
-            trace.read(sample, block, k);
-            sink.onSamples(block, 0, k, (long) (sample * periodNs));
+        try (F32Trace trace = F32Trace.open(path)) {
+            long samples = trace.samples();
+            for (long sample = 0; sample < samples; sample += block.length) {
+                int k = (int) Math.min(block.length, samples - sample);
+                trace.read(sample, block, k);
+                sink.onSamples(block, 0, k, (long) (sample * periodNs));
+            }
+        } catch (UncheckedIOException e) {
+            throw new TraceException(e.getMessage());
         }
         return new Info(rateHz, Map.of());
     }

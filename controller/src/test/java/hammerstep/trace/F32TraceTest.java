@@ -26,15 +26,60 @@ class F32TraceTest {
     }
 
     @Test
-    void readsAcrossMappedPieces() throws Exception {
-        F32Trace t = F32Trace.open(write(10_007), 1000);
-        assertThat(t.samples()).isEqualTo(10_007);
-        float[] into = new float[2500];
-        for (long from : new long[] {0, 999, 1000, 2999, 7507}) {
-            t.read(from, into, 2500);
-            for (int i = 0; i < 2500; i++) {
-                assertThat(into[i]).as("sample %d", from + i).isEqualTo((from + i) * 0.5f);
+    void readsAcrossWindowsForwardAndBack() throws Exception {
+        try (F32Trace t = F32Trace.open(write(10_007), 1000)) {
+            assertThat(t.samples()).isEqualTo(10_007);
+            float[] into = new float[2500];
+            for (long from : new long[] {0, 999, 1000, 2999, 7507, 5, 998}) {
+                t.read(from, into, 2500);
+                for (int i = 0; i < 2500; i++) {
+                    assertThat(into[i]).as("sample %d", from + i).isEqualTo((from + i) * 0.5f);
+                }
             }
+        }
+    }
+
+    @Test
+    void threadsReadingAtOnceEachGetTheirOwnStretch() throws Exception {
+        try (F32Trace t = F32Trace.open(write(40_000), 700)) {
+            int threads = 4;
+            java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(threads);
+            try {
+                java.util.List<java.util.concurrent.Future<Integer>> wrong = new java.util.ArrayList<>();
+                for (int n = 0; n < threads; n++) {
+                    int start = n * 10_000;
+                    wrong.add(pool.submit(() -> {
+                        float[] into = new float[333];
+                        int bad = 0;
+                        for (int s = start; s + 333 <= start + 10_000; s += 333) {
+                            t.read(s, into, 333);
+                            for (int i = 0; i < 333; i++) {
+                                bad += into[i] == (s + i) * 0.5f ? 0 : 1;
+                            }
+                        }
+                        return bad;
+                    }));
+                }
+                for (java.util.concurrent.Future<Integer> f : wrong) {
+                    assertThat(f.get()).isZero();
+                }
+            } finally {
+                pool.shutdownNow();
+            }
+        }
+    }
+
+    @Test
+    void aFileCutShortAfterOpeningIsReportedWithItsName() throws Exception {
+        Path p = write(5000);
+        try (F32Trace t = F32Trace.open(p, 1000)) {
+            try (java.nio.channels.FileChannel ch = java.nio.channels.FileChannel.open(p,
+                    java.nio.file.StandardOpenOption.WRITE)) {
+                ch.truncate(3000 * 4);
+            }
+            assertThatThrownBy(() -> t.read(2500, new float[1000], 1000))
+                    .isInstanceOf(java.io.UncheckedIOException.class)
+                    .hasMessage(p + ": the file ended at byte 12000, shorter than when it was opened");
         }
     }
 
