@@ -1,68 +1,99 @@
 package hammerstep.results;
 
-import com.fasterxml.jackson.core.JsonFactory;
-import com.fasterxml.jackson.core.JsonGenerator;
-
-import java.io.IOException;
-import java.io.StringWriter;
-import java.io.UncheckedIOException;
 import java.util.List;
 import java.util.Map;
 
 /**
  * Writes the plain values that result fields are made of (maps, lists, strings, numbers,
- * booleans, null) as one line of JSON, with jackson-core alone: replay prints thousands of lines
- * and should not pay for object mapping at start.
+ * booleans, null) as one line of JSON.
+ *
+ * <p>Written by hand rather than through a JSON library's generator: the values are few and
+ * plain, and a generator costs about 70 ms of class loading and interpretation in a fresh JVM,
+ * which {@code replay} pays before its first line (docs/design.md, "Replay speed"). The text is
+ * exactly what jackson-core's generator writes with its default settings (numbers as
+ * {@code Double.toString}, NaN and infinities as strings, control characters escaped, other
+ * characters as they are); {@code JsonLinesTest} holds it to that.
  */
 public final class JsonLines {
 
-    private static final JsonFactory FACTORY = new JsonFactory();
+    private static final char[] HEX = "0123456789ABCDEF".toCharArray();
 
     private JsonLines() {
     }
 
     public static String of(Map<String, ?> value) {
-        StringWriter out = new StringWriter(256);
-        try (JsonGenerator g = FACTORY.createGenerator(out)) {
-            write(g, value);
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
+        StringBuilder out = new StringBuilder(256);
+        write(out, value);
         return out.toString();
     }
 
-    private static void write(JsonGenerator g, Object v) throws IOException {
+    private static void write(StringBuilder out, Object v) {
         if (v == null) {
-            g.writeNull();
+            out.append("null");
         } else if (v instanceof Map<?, ?> m) {
-            g.writeStartObject();
+            out.append('{');
+            boolean first = true;
             for (Map.Entry<?, ?> e : m.entrySet()) {
-                g.writeFieldName(String.valueOf(e.getKey()));
-                write(g, e.getValue());
+                if (!first) {
+                    out.append(',');
+                }
+                first = false;
+                string(out, String.valueOf(e.getKey()));
+                out.append(':');
+                write(out, e.getValue());
             }
-            g.writeEndObject();
+            out.append('}');
         } else if (v instanceof List<?> l) {
-            g.writeStartArray();
-            for (Object o : l) {
-                write(g, o);
+            out.append('[');
+            for (int i = 0, n = l.size(); i < n; i++) {
+                if (i > 0) {
+                    out.append(',');
+                }
+                write(out, l.get(i));
             }
-            g.writeEndArray();
+            out.append(']');
         } else if (v instanceof String s) {
-            g.writeString(s);
-        } else if (v instanceof Integer i) {
-            g.writeNumber(i);
-        } else if (v instanceof Long l) {
-            g.writeNumber(l);
+            string(out, s);
         } else if (v instanceof Double d) {
-            g.writeNumber(d);
+            number(out, Double.isFinite(d), Double.toString(d));
         } else if (v instanceof Float f) {
-            g.writeNumber(f);
-        } else if (v instanceof Boolean b) {
-            g.writeBoolean(b);
-        } else if (v instanceof Number n) {
-            g.writeNumber(n.toString());
+            number(out, Float.isFinite(f), Float.toString(f));
+        } else if (v instanceof Number || v instanceof Boolean) {
+            out.append(v);
         } else {
-            g.writeString(v.toString());
+            string(out, v.toString());
         }
+    }
+
+    /** A number as it reads; one without a JSON form (NaN, infinities) as a string. */
+    private static void number(StringBuilder out, boolean finite, String text) {
+        if (finite) {
+            out.append(text);
+        } else {
+            string(out, text);
+        }
+    }
+
+    private static void string(StringBuilder out, String s) {
+        out.append('"');
+        int done = 0;
+        for (int i = 0, n = s.length(); i < n; i++) {
+            char c = s.charAt(i);
+            if (c >= 0x20 && c != '"' && c != '\\') {
+                continue;
+            }
+            out.append(s, done, i).append('\\');
+            switch (c) {
+                case '"', '\\' -> out.append(c);
+                case '\b' -> out.append('b');
+                case '\t' -> out.append('t');
+                case '\n' -> out.append('n');
+                case '\f' -> out.append('f');
+                case '\r' -> out.append('r');
+                default -> out.append("u00").append(HEX[c >> 4]).append(HEX[c & 0xF]);
+            }
+            done = i + 1;
+        }
+        out.append(s, done, s.length()).append('"');
     }
 }
