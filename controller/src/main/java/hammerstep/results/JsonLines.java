@@ -8,8 +8,8 @@ import java.util.Map;
  * booleans, null) as one line of JSON.
  *
  * <p>Written by hand rather than through a JSON library's generator: the values are few and
- * plain, and a generator costs about 70 ms of class loading and interpretation in a fresh JVM,
- * which {@code replay} pays before its first line (docs/design.md, "Replay speed"). The text is
+ * plain, and the generator's class loading and interpretation roughly doubled what the first 500
+ * lines of a fresh JVM cost {@code replay} (docs/design.md, "Replay speed"). The text is
  * exactly what jackson-core's generator writes with its default settings (numbers as
  * {@code Double.toString}, NaN and infinities as strings, control characters escaped, other
  * characters as they are); {@code JsonLinesTest} holds it to that.
