@@ -25,8 +25,9 @@ public final class F32Trace implements AutoCloseable {
     static final int WINDOW_SAMPLES = 1 << 18;
 
     private final String name;
+    /** The file, or null for a trace held in memory ({@link #memory}). */
     private final FileChannel channel;
-    private final FloatBuffer memory;
+    private final ByteBuffer memory;
     private final long samples;
     private final int windowSamples;
     private final ThreadLocal<Window> windows = new ThreadLocal<>() {
@@ -36,7 +37,7 @@ public final class F32Trace implements AutoCloseable {
         }
     };
 
-    private F32Trace(String name, FileChannel channel, FloatBuffer memory, long samples, int windowSamples) {
+    private F32Trace(String name, FileChannel channel, ByteBuffer memory, long samples, int windowSamples) {
         this.name = name;
         this.channel = channel;
         this.memory = memory;
@@ -69,13 +70,13 @@ public final class F32Trace implements AutoCloseable {
     }
 
     /**
-     * A trace held in memory, read through the same kind of buffer as a file's window (so code
-     * warmed on it is compiled for the real thing).
+     * A trace held in memory, read through windows like a file (so code warmed on it is compiled
+     * for the real thing); each reading thread copies what it reads into a window of its own.
      */
     public static F32Trace of(float[] samples) {
-        FloatBuffer b = ByteBuffer.allocateDirect(samples.length * 4).order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
-        b.put(samples).flip();
-        return new F32Trace("memory", null, b, samples.length, Math.max(1, samples.length));
+        ByteBuffer b = ByteBuffer.allocateDirect(samples.length * 4).order(ByteOrder.LITTLE_ENDIAN);
+        b.asFloatBuffer().put(samples);
+        return new F32Trace("memory", null, b, samples.length, Math.max(1, Math.min(samples.length, WINDOW_SAMPLES)));
     }
 
     /** Number of samples in the trace. */
@@ -91,10 +92,6 @@ public final class F32Trace implements AutoCloseable {
     public void read(long from, float[] into, int length) {
         if (from < 0 || length < 0 || from + length > samples) {
             throw new IndexOutOfBoundsException("samples [" + from + ", " + (from + length) + ") of " + samples);
-        }
-        if (channel == null) {
-            memory.get((int) from, into, 0, length);
-            return;
         }
         Window w = windows.get();
         int done = 0;
@@ -137,6 +134,12 @@ public final class F32Trace implements AutoCloseable {
             int want = (int) Math.min(windowSamples, samples - from);
             bytes.clear().limit(want * 4);
             long position = from * 4;
+            if (channel == null) {
+                bytes.put(0, memory, (int) position, want * 4);
+                first = from;
+                length = want;
+                return;
+            }
             try {
                 while (bytes.hasRemaining()) {
                     if (channel.read(bytes, position + bytes.position()) < 0) {

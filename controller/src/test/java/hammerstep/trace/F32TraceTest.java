@@ -101,6 +101,21 @@ class F32TraceTest {
     }
 
     @Test
+    void aLongInMemoryTraceReadsAcrossWindows() {
+        float[] x = new float[F32Trace.WINDOW_SAMPLES * 2 + 17];
+        for (int i = 0; i < x.length; i++) {
+            x[i] = i;
+        }
+        F32Trace t = F32Trace.of(x);
+        float[] into = new float[4096];
+        for (long from : new long[] {0, F32Trace.WINDOW_SAMPLES - 100L, x.length - 4096L, 3}) {
+            t.read(from, into, 4096);
+            assertThat(into[0]).isEqualTo((float) from);
+            assertThat(into[4095]).isEqualTo((float) (from + 4095));
+        }
+    }
+
+    @Test
     void inMemoryTraceReadsLikeAFile() {
         F32Trace t = F32Trace.of(new float[] {1f, -2.5f, 3f, 4f});
         float[] into = new float[2];
