@@ -132,14 +132,18 @@ public final class F32Trace implements AutoCloseable {
         /** Reads up to a window's worth of samples from sample {@code from} on. */
         void fill(long from) {
             int want = (int) Math.min(windowSamples, samples - from);
+            length = 0; // a failed read leaves the window empty, not holding part of two stretches
             bytes.clear().limit(want * 4);
-            long position = from * 4;
             if (channel == null) {
-                bytes.put(0, memory, (int) position, want * 4);
-                first = from;
-                length = want;
-                return;
+                bytes.put(0, memory, (int) (from * 4), want * 4);
+            } else {
+                readFile(from * 4);
             }
+            first = from;
+            length = want;
+        }
+
+        private void readFile(long position) {
             try {
                 while (bytes.hasRemaining()) {
                     if (channel.read(bytes, position + bytes.position()) < 0) {
@@ -151,8 +155,6 @@ public final class F32Trace implements AutoCloseable {
             } catch (IOException e) {
                 throw new UncheckedIOException(name + ": cannot read: " + e.getMessage(), e);
             }
-            first = from;
-            length = want;
         }
     }
 }

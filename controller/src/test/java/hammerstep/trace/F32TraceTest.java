@@ -73,6 +73,8 @@ class F32TraceTest {
     void aFileCutShortAfterOpeningIsReportedWithItsName() throws Exception {
         Path p = write(5000);
         try (F32Trace t = F32Trace.open(p, 1000)) {
+            float[] first = new float[10];
+            t.read(0, first, 10);
             try (java.nio.channels.FileChannel ch = java.nio.channels.FileChannel.open(p,
                     java.nio.file.StandardOpenOption.WRITE)) {
                 ch.truncate(3000 * 4);
@@ -80,6 +82,9 @@ class F32TraceTest {
             assertThatThrownBy(() -> t.read(2500, new float[1000], 1000))
                     .isInstanceOf(java.io.UncheckedIOException.class)
                     .hasMessage(p + ": the file ended at byte 12000, shorter than when it was opened");
+            // the failed read leaves no window claiming bytes it overwrote
+            t.read(0, first, 10);
+            assertThat(first).containsExactly(0f, 0.5f, 1f, 1.5f, 2f, 2.5f, 3f, 3.5f, 4f, 4.5f);
         }
     }
 
