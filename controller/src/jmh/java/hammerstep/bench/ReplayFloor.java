@@ -63,20 +63,18 @@ public final class ReplayFloor {
                 return;
             }
             position += n;
-            int samples = n / 4;
-            for (int s = 0; s < samples; s += BLOCK) {
-                int k = Math.min(BLOCK, samples - s);
-                floats.get(s, block, 0, k);
-                loop.run(block, k);
-            }
+            blocks(floats, n / 4, block, loop);
         }
     }
 
     private static void mapped(FileChannel ch, Loop loop) throws IOException {
         FloatBuffer floats = ch.map(FileChannel.MapMode.READ_ONLY, 0, ch.size())
                 .order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
-        float[] block = new float[BLOCK];
-        int samples = floats.limit();
+        blocks(floats, floats.limit(), new float[BLOCK], loop);
+    }
+
+    /** Runs {@code loop} over {@code floats[0, samples)}, copied out a block at a time. */
+    private static void blocks(FloatBuffer floats, int samples, float[] block, Loop loop) {
         for (int s = 0; s < samples; s += BLOCK) {
             int k = Math.min(BLOCK, samples - s);
             floats.get(s, block, 0, k);

@@ -9,8 +9,8 @@ import hammerstep.joint.ProgramFile;
 import hammerstep.joint.Verdict;
 import hammerstep.results.JointFields;
 import hammerstep.results.JsonLines;
-import hammerstep.trace.F32Trace;
 import hammerstep.trace.TraceException;
+import hammerstep.trace.TraceReader;
 import picocli.CommandLine;
 
 import java.nio.file.Path;
@@ -91,27 +91,23 @@ public final class StartupCost {
     }
 
     private static void chain(Path trace, JointProgram program) throws TraceException {
-        int block = 4096;
+        int block = 4096; // as replay's
         double rateHz = 50_000;
-        List<JointResult> results = new ArrayList<>();
-        JointMonitor monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), rateHz, block,
-                results::add);
-        float[] x = new float[block];
         long slice = 2_500_000;
+        List<JointResult> results = new ArrayList<>();
+        JointMonitor monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), rateHz,
+                block, results::add);
         StringBuilder line = new StringBuilder("ms per 2.5 M samples:");
-        try (F32Trace t = F32Trace.open(trace)) {
-            long last = System.nanoTime();
-            for (long s = 0; s < t.samples(); s += block) {
-                int k = (int) Math.min(block, t.samples() - s);
-                t.read(s, x, k);
-                monitor.onSamples(x, 0, k, (long) (s * (1e9 / rateHz)));
-                if ((s + k) / slice != s / slice) {
-                    long now = System.nanoTime();
-                    line.append(String.format(Locale.ROOT, " %.0f", (now - last) / 1e6));
-                    last = now;
-                }
+        long[] seen = {0, System.nanoTime()};
+        TraceReader.readF32(trace, rateHz, new float[block], (x, offset, length, firstNs) -> {
+            monitor.onSamples(x, offset, length, firstNs);
+            if ((seen[0] + length) / slice != seen[0] / slice) {
+                long now = System.nanoTime();
+                line.append(String.format(Locale.ROOT, " %.0f", (now - seen[1]) / 1e6));
+                seen[1] = now;
             }
-        }
+            seen[0] += length;
+        });
         monitor.finish();
         System.out.println(line + "; " + results.size() + " rundowns");
     }
