@@ -4,6 +4,8 @@ import org.agrona.concurrent.Agent;
 import org.agrona.concurrent.AgentRunner;
 import org.agrona.concurrent.BackoffIdleStrategy;
 import org.agrona.ErrorHandler;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /**
  * The journal's one writer: a duty cycle ({@link #doWork()}) that takes the station's records from
@@ -25,6 +27,8 @@ import org.agrona.ErrorHandler;
  * on to the next while records wait, and a test that stalls every write models each one.
  */
 public final class JournalWriter implements Agent {
+
+    private static final Logger LOG = LoggerFactory.getLogger(JournalWriter.class);
 
     /** Default room in each ring (a power of two): far more than the station ever has waiting (it waits for each record). */
     public static final int DEFAULT_CAPACITY = 64;
@@ -154,6 +158,29 @@ public final class JournalWriter implements Agent {
         }
         answers.offer(done); // room checked above; this thread is the only producer
         return 1;
+    }
+
+    /**
+     * On the writer's thread as its runner stops (after the station loop stopped): stores every
+     * record still waiting, so nothing offered is lost; answers no longer matter and are not kept.
+     */
+    @Override
+    public void onClose() {
+        if (delivery != null) {
+            while (delivery.apply() > 0) {
+                // every mark that arrived
+            }
+        }
+        Storable record;
+        while ((record = requests.poll()) != null) {
+            try {
+                record.storeIn(sink);
+                stored++;
+            } catch (ResultStoreException | RuntimeException e) {
+                failed++;
+                LOG.error("a result offered before the stop could not be stored: {}", e.getMessage());
+            }
+        }
     }
 
     /** Records waiting for the writer now (exact on one thread, a snapshot across threads). */

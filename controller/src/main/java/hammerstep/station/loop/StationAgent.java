@@ -486,6 +486,11 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         return !in.hasPartPresent() || in.partPresent();
     }
 
+    /** True while a record of the sequence is with the journal and its answer has not come back. */
+    public boolean storing() {
+        return awaiting != null || !eventsToOffer.isEmpty();
+    }
+
     boolean inRundown() {
         return current.inRundown();
     }
