@@ -95,8 +95,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private long maxShutoffToRelayNs = -1;
 
     /**
-     * A station that stores through {@code sink} on its own thread, stepping a {@link JournalWriter}
-     * inline after each record: for tests and tools whose store does not touch a disk.
+     * A station that stores through {@code sink} on the station's own thread, stepping a
+     * {@link JournalWriter} inline after each record: for tests and tools whose store does not
+     * touch a disk.
      *
      * @param patternsByModel part model → pattern; every program of every pattern gets its monitor here
      * @param conditioning    the transducer's conditioning (auto-zero, range, filter)
@@ -172,10 +173,10 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             return cycle();
         } catch (Throwable t) {
             errors++;
+            halted = t instanceof Error; // before anything else can throw
             safeOff();
             errorHandler.onError(t);
             if (t instanceof Error e) {
-                halted = true;
                 throw new AgentTerminationException(e);
             }
             return 1;
