@@ -4,6 +4,7 @@ import hammerstep.mqtt.BrokerSettings;
 import hammerstep.mqtt.ResultPublisher;
 import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.paho.PahoLink;
+import hammerstep.results.JournalWriter;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.Outbox;
 import hammerstep.results.OutboxResultSink;
@@ -21,25 +22,28 @@ import java.time.Clock;
 
 /**
  * The service's way from the station to the plant: the outbox journal of {@code storage:} (in
- * memory, with a warning, when the station file has none), the station's result sink on it, and,
- * with a {@code broker:} section, the MQTT publisher on a thread of its own that delivers the
- * outbox and takes the plant's commands. {@link #close()} stops the publisher (which publishes the
- * offline status and disconnects cleanly) and then closes the journal; call it after the station
- * loop has stopped, so no result is stored after.
+ * memory, with a warning, when the station file has none), the result sink on it, driven by the
+ * {@link JournalWriter} on a thread of its own (the journal's one writer: the station hands it
+ * records through a ring and never waits on the disk), and, with a {@code broker:} section, the
+ * MQTT publisher on a thread of its own that reads the outbox, hands its delivered marks to the
+ * writer and takes the plant's commands. {@link #close()} stops the publisher (which publishes the
+ * offline status and disconnects cleanly), then the writer (which stores what is still waiting),
+ * then closes the journal; call it after the station loop has stopped, so no result is offered after.
  */
 final class ResultDelivery implements AutoCloseable {
 
     private static final Logger LOG = LoggerFactory.getLogger("hammerstep.run");
 
     private final Outbox outbox;
-    private final ResultSink sink;
+    private final JournalWriter journal;
     private final ResultPublisher publisher;
     private AgentRunner runner;
+    private AgentRunner journalRunner;
     private boolean closed;
 
-    private ResultDelivery(Outbox outbox, ResultSink sink, ResultPublisher publisher) {
+    private ResultDelivery(Outbox outbox, JournalWriter journal, ResultPublisher publisher) {
         this.outbox = outbox;
-        this.sink = sink;
+        this.journal = journal;
         this.publisher = publisher;
     }
 
@@ -71,29 +75,34 @@ final class ResultDelivery implements AutoCloseable {
             }
         }
         ResultSink sink = new OutboxResultSink(outbox, id);
+        JournalWriter journal = new JournalWriter(sink, outbox, JournalWriter.DEFAULT_CAPACITY);
         ResultPublisher publisher = null;
         if (broker == null) {
             LOG.warn("no 'broker' section: results are stored and not delivered");
         } else {
             BrokerSettings settings = broker.clientId().isEmpty()
                     ? broker.withClientId(id.site() + "-" + id.line() + "-" + id.station()) : broker;
-            publisher = new ResultPublisher(outbox, id, () -> new PahoLink(settings), commands, settings,
+            publisher = new ResultPublisher(journal.forDelivery(), id, () -> new PahoLink(settings), commands, settings,
                     new SystemNanoClock(), Clock.systemUTC(), System.nanoTime(), version);
             LOG.info("delivering results to {} as {}{}", settings.url(), settings.clientId(),
                     settings.username() == null ? "" : " (user " + settings.username() + ")");
         }
-        return new ResultDelivery(outbox, sink, publisher);
+        return new ResultDelivery(outbox, journal, publisher);
     }
 
-    /** Starts the publisher's thread (when there is a broker); call once the station is wired. */
+    /** Starts the journal writer's thread and the publisher's (when there is a broker); call once the station is wired. */
     void start() {
+        if (journalRunner == null) {
+            journalRunner = JournalWriter.start(journal, t -> LOG.error("journal writer failed; going on", t));
+        }
         if (publisher != null && runner == null) {
             runner = ResultPublisher.start(publisher);
         }
     }
 
-    ResultSink sink() {
-        return sink;
+    /** Where the station hands its records. */
+    JournalWriter journal() {
+        return journal;
     }
 
     Outbox outbox() {
@@ -115,6 +124,12 @@ final class ResultDelivery implements AutoCloseable {
         if (runner != null) {
             runner.close();
             runner = null;
+        }
+        if (journalRunner != null) {
+            journalRunner.close(); // the writer stores what still waits as it stops
+            journalRunner = null;
+        } else {
+            journal.onClose();
         }
         try {
             outbox.close();

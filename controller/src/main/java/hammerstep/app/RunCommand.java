@@ -114,7 +114,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);
         AtomicLong errors = new AtomicLong();
-        StationAgent agent = new StationAgent(clock, ports, delivery.sink(), sequence, parts.byModel(), conditioning(td),
+        StationAgent agent = new StationAgent(clock, ports, delivery.journal(), sequence, parts.byModel(), conditioning(td),
                 (long) (timing.blinkPeriodMs() * 1e6), StationListener.NONE, t -> {
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);

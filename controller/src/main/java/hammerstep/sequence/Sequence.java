@@ -75,6 +75,8 @@ public final class Sequence {
     private int judgedPosition = -1;
     private Verdict judgedVerdict;
     private long completeAtNs;
+    /** The finished part's GO record is on disk: only then does COMPLETE show, and its hold run. */
+    private boolean completeOnDisk;
     private final SensorLockout lockout = new SensorLockout();
 
     /**
@@ -310,7 +312,7 @@ public final class Sequence {
     }
 
     public void onTick(long nowNs) {
-        if (phase == Phase.COMPLETE && nowNs - completeAtNs - (long) (settings.completeHoldMs() * 1e6) >= 0) {
+        if (phase == Phase.COMPLETE && completeOnDisk && nowNs - completeAtNs - (long) (settings.completeHoldMs() * 1e6) >= 0) {
             clearPart();
         }
     }
@@ -330,6 +332,9 @@ public final class Sequence {
             if (phase == Phase.STORING) {
                 applyVerdict(nowNs);
             }
+        } else if (done instanceof Store.Part && phase == Phase.COMPLETE && !completeOnDisk) {
+            completeOnDisk = true; // the part's GO shows from now, for the whole hold
+            completeAtNs = nowNs;
         }
     }
 
@@ -350,12 +355,12 @@ public final class Sequence {
 
     /** What position lamp {@code index} (0-based) shows. */
     public LampMode positionLamp(int index) {
-        return LampPicture.position(index, part != null, effective(), progress, prompted, reworkPosition);
+        return LampPicture.position(index, part != null, lampPhase(effective()), progress, prompted, reworkPosition);
     }
 
     /** What the tower lamp shows. */
     public LampMode tower(TowerLamp lamp) {
-        return LampPicture.tower(lamp, phase, lastVerdict, storage, lockout.active(), warning);
+        return LampPicture.tower(lamp, lampPhase(phase), lastVerdict, storage, lockout.active(), warning);
     }
 
     public Phase phase() {
@@ -413,6 +418,11 @@ public final class Sequence {
 
     // ---- inside ----------------------------------------------------------------------------
 
+    /** The phase the lamps show: a finished part shows as storing until its GO record is on disk. */
+    private Phase lampPhase(Phase p) {
+        return p == Phase.COMPLETE && !completeOnDisk ? Phase.STORING : p;
+    }
+
     /** The phase that events act on: while a store fault stands, the phase it interrupted. */
     private Phase effective() {
         return phase == Phase.FAULT ? resumeAfterFault : phase;
@@ -451,6 +461,7 @@ public final class Sequence {
         partRecord("GO", "COMPLETE", nowNs);
         phase = Phase.COMPLETE;
         completeAtNs = nowNs;
+        completeOnDisk = false;
     }
 
     private void applyVerdict(long nowNs) {

@@ -103,7 +103,7 @@ class SequenceOperatorViewTest {
     }
 
     @Test
-    void aFinishedPartShowsGreenForExactlyItsHoldTime() {
+    void aFinishedPartShowsGreenOnlyOnceItsRecordIsStoredThenForExactlyItsHoldTime() {
         Pattern one = new Pattern("one", "", List.of("A"),
                 List.of(TestPrograms.pass("final", FINAL, Order.cross(1), 1, Acknowledge.OPERATOR, AfterNoGo.REJECT)));
         h.start(one, "SN-1");
@@ -113,6 +113,14 @@ class SequenceOperatorViewTest {
         h.stored.add(h.seq.nextToStore());
         h.seq.stored(new ResultSink.Receipt("j1", 1), storedAt);
         assertThat(h.seq.phase()).isEqualTo(Phase.COMPLETE);
+        assertThat(h.seq.tower(TowerLamp.GREEN)).as("the part's GO record is not on disk yet").isEqualTo(LampMode.OFF);
+        h.seq.onTick(storedAt + 5_000_000_000L);
+        assertThat(h.seq.phase()).as("the hold waits for the part record").isEqualTo(Phase.COMPLETE);
+        storedAt += 700_000_000L; // a stalled forced write
+        assertThat(h.seq.nextToStore()).isInstanceOf(Store.Part.class);
+        h.stored.add(h.seq.nextToStore());
+        h.seq.stored(new ResultSink.Receipt("p1", 1), storedAt);
+        assertThat(h.seq.tower(TowerLamp.GREEN)).isEqualTo(LampMode.STEADY);
         h.seq.onTick(storedAt + 500_000_000L - 1);
         assertThat(h.seq.phase()).as("1 ns before the 500 ms hold").isEqualTo(Phase.COMPLETE);
         h.seq.onTick(storedAt + 500_000_000L);

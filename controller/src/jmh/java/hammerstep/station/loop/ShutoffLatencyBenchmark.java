@@ -3,9 +3,13 @@ package hammerstep.station.loop;
 import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
+import hammerstep.results.JournalWriter;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.OutboxResultSink;
+import hammerstep.results.ResultStoreException;
 import hammerstep.results.StationId;
+import hammerstep.results.StorageSettings;
+import hammerstep.results.journal.FileOutbox;
 import hammerstep.sequence.Acknowledge;
 import hammerstep.sequence.AfterNoGo;
 import hammerstep.sequence.Order;
@@ -30,8 +34,14 @@ import org.openjdk.jmh.annotations.Param;
 import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.TearDown;
 import org.openjdk.jmh.annotations.Warmup;
 
+import org.agrona.concurrent.AgentRunner;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Instant;
 import java.time.ZoneOffset;
@@ -44,6 +54,14 @@ import java.util.concurrent.TimeUnit;
  * the shut-off crossing, from {@code doWork()} entry to the relay command (the cycle ends right after
  * it, lamps included). The rest of the latency is waiting for the block to fill: at most one block
  * period after the crossing sample ({@code blockLength / rateHz}).
+ *
+ * <p>{@code crossingToHandOver} times the whole rundown end on the station thread: from the
+ * crossing block through the quiet blocks after it until the joint is judged and its record handed
+ * to the journal. {@code journal=memory} stores inline on the station thread into a memory outbox
+ * (the test wiring); {@code journal=file} is the service's wiring: a {@link FileOutbox} with a
+ * forced append per record, written by the {@link JournalWriter} on its own thread, so the
+ * station's figure must not carry the force. {@code journal=file-inline} is the former wiring, for
+ * comparison: the same file journal stored inline, the forced append on the station thread.
  *
  * <p>Run: {@code mvn -q -Pbench -DskipTests package -pl controller && java -jar controller/target/benchmarks.jar ShutoffLatency}
  */
@@ -61,6 +79,9 @@ public class ShutoffLatencyBenchmark {
     @Param({"16", "64"})
     int blockLength;
 
+    @Param({"memory", "file", "file-inline"})
+    String journal;
+
     private VirtualClock clock;
     private SampleRing ring;
     private StationAgent agent;
@@ -70,6 +91,9 @@ public class ShutoffLatencyBenchmark {
     private float[] crossing;
     private long blockNs;
     private int serial;
+    private Path journalDir;
+    private FileOutbox fileOutbox;
+    private AgentRunner writerRunner;
 
     static final class Relay implements ToolEnable {
         boolean on;
@@ -126,7 +150,7 @@ public class ShutoffLatencyBenchmark {
     }
 
     @Setup(Level.Trial)
-    public void build() {
+    public void build() throws IOException, ResultStoreException {
         JointProgram program = new JointProgram("final", "", new JointProgram.Torque(180, 200, 230),
                 FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 1, 40, 7.5),
                 new JointProgram.Rundown(10, 5, 4000), 200, 0);
@@ -136,11 +160,33 @@ public class ShutoffLatencyBenchmark {
         ring = new SampleRing(rateHz, blockLength, 8);
         relay = new Relay();
         long[] ids = {0};
-        agent = new StationAgent(clock, new StationPorts(ring, new DarkLamps(), relay, new Idle(), scanner),
-                new OutboxResultSink(new MemoryOutbox(), new StationId("b", "b", "b"), () -> "id" + ids[0]++,
-                        Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)),
-                new Sequence(clock, new Sequence.Settings("TQ", null, 0), false), Map.of("M", pattern),
-                JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
+        StationPorts ports = new StationPorts(ring, new DarkLamps(), relay, new Idle(), scanner);
+        Sequence sequence = new Sequence(clock, new Sequence.Settings("TQ", null, 0), false);
+        if (journal.startsWith("file")) {
+            journalDir = Files.createTempDirectory("hammerstep-bench-journal-");
+            fileOutbox = FileOutbox.open(StorageSettings.defaults(journalDir));
+        }
+        if (journal.equals("file-inline")) {
+            agent = new StationAgent(clock, ports,
+                    new OutboxResultSink(fileOutbox, new StationId("b", "b", "b"), () -> "id" + ids[0]++,
+                            Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), sequence, Map.of("M", pattern),
+                    JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
+                    Throwable::printStackTrace);
+        } else if (journal.equals("file")) {
+            JournalWriter writer = new JournalWriter(new OutboxResultSink(fileOutbox, new StationId("b", "b", "b"),
+                    () -> "id" + ids[0]++, Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), fileOutbox,
+                    JournalWriter.DEFAULT_CAPACITY);
+            writerRunner = JournalWriter.start(writer, Throwable::printStackTrace);
+            agent = new StationAgent(clock, ports, writer, sequence, Map.of("M", pattern),
+                    JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
+                    Throwable::printStackTrace);
+        } else {
+            agent = new StationAgent(clock, ports,
+                    new OutboxResultSink(new MemoryOutbox(), new StationId("b", "b", "b"), () -> "id" + ids[0]++,
+                            Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), sequence, Map.of("M", pattern),
+                    JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
+                    Throwable::printStackTrace);
+        }
         quiet = new float[blockLength];
         crossing = new float[blockLength];
         int width = Math.max(4, Math.min((int) (0.002 * rateHz), 2 * blockLength - 2)); // peak inside the block
@@ -150,10 +196,28 @@ public class ShutoffLatencyBenchmark {
         blockNs = (long) (blockLength * 1e9 / rateHz);
     }
 
-    /** Brings the station back to a prompted position with the tool on, then queues the crossing block. */
+    @TearDown(Level.Trial)
+    public void close() throws IOException {
+        if (writerRunner != null) {
+            writerRunner.close();
+        }
+        if (fileOutbox != null) {
+            fileOutbox.close();
+            try (var files = Files.walk(journalDir)) {
+                files.sorted(java.util.Comparator.reverseOrder()).forEach(f -> f.toFile().delete());
+            }
+        }
+    }
+
+    /**
+     * Brings the station back to a prompted position with the tool on (with the file journal, the
+     * writer's thread stores the last part meanwhile: up to 10 s of wall time), then queues the
+     * crossing block.
+     */
     @Setup(Level.Invocation)
     public void arm() {
-        for (int k = 0; k < 10_000 && !(agent.sequence().phase() == Phase.PROMPT && relay.on); k++) {
+        long giveUpNs = System.nanoTime() + 10_000_000_000L;
+        while (!(agent.sequence().phase() == Phase.PROMPT && relay.on) && System.nanoTime() - giveUpNs < 0) {
             if (agent.sequence().phase() == Phase.WAITING) {
                 scanner.next = new PartIdentity("SN-" + serial++, "M");
             }
@@ -163,6 +227,25 @@ public class ShutoffLatencyBenchmark {
         }
         ring.offer(crossing, 0, blockLength, clock.nanoTime());
         clock.advanceNs(blockNs);
+    }
+
+    /**
+     * From the crossing block to the joint's record handed to the journal: the crossing cycle, then
+     * quiet blocks until the rundown has ended and the sequence stores (inline for the memory
+     * journal, an offer to the writer's ring for the file journal).
+     */
+    @Benchmark
+    public Phase crossingToHandOver() {
+        agent.doWork();
+        for (int k = 0; k < 10_000 && agent.sequence().phase() == Phase.RUNDOWN; k++) {
+            ring.offer(quiet, 0, blockLength, clock.nanoTime());
+            clock.advanceNs(blockNs);
+            agent.doWork();
+        }
+        if (agent.sequence().phase() == Phase.RUNDOWN) {
+            throw new IllegalStateException("the rundown did not end");
+        }
+        return agent.sequence().phase();
     }
 
     @Benchmark

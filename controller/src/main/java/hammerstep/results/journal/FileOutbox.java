@@ -276,15 +276,32 @@ public final class FileOutbox implements Outbox {
 
     // ---- reading ---------------------------------------------------------------------------------
 
+    /**
+     * Picks the records from the index under the lock, then reads their payloads without it: a
+     * positional read neither waits for the writer's forced append nor holds it up. (A record is
+     * read only while undelivered; its segment is deleted only once delivered, by the writer.)
+     */
     @Override
-    public synchronized List<Entry> pending(long afterPosition, int max) throws ResultStoreException {
-        checkOpen();
-        List<Entry> list = new ArrayList<>(Math.min(max, pending.size()));
-        for (Map.Entry<Long, Loc> e : pending.tailMap(afterPosition, false).entrySet()) {
-            if (list.size() == max) {
-                break;
+    public List<Entry> pending(long afterPosition, int max) throws ResultStoreException {
+        long[] positions;
+        Loc[] locs;
+        int n = 0;
+        synchronized (this) {
+            checkOpen();
+            int size = Math.min(max, pending.size());
+            positions = new long[size];
+            locs = new Loc[size];
+            for (Map.Entry<Long, Loc> e : pending.tailMap(afterPosition, false).entrySet()) {
+                if (n == size) {
+                    break;
+                }
+                positions[n] = e.getKey();
+                locs[n++] = e.getValue();
             }
-            list.add(read(e.getKey(), e.getValue()));
+        }
+        List<Entry> list = new ArrayList<>(n);
+        for (int k = 0; k < n; k++) {
+            list.add(read(positions[k], locs[k]));
         }
         return list;
     }

@@ -46,6 +46,24 @@ public final class LampDriver {
         return mode == LampMode.STEADY || (mode == LampMode.BLINKING && blinkOn);
     }
 
+    /**
+     * The fault picture, written whatever the lamps show now: red lit, every other tower and position
+     * lamp dark (a station that stopped must not leave a green or a position lamp lit that reads as
+     * GO). Red is lit steadily because no further cycle may come to blink it. The next
+     * {@link #apply} brings the lamps back to what the sequence asks.
+     */
+    public void faultPicture() {
+        for (int i = 0; i < positionLit.length; i++) {
+            positionLit[i] = false;
+            lamps.position(i, false);
+        }
+        for (int k = 0; k < TOWER.length; k++) {
+            boolean on = TOWER[k] == TowerLamp.RED;
+            towerLit[k] = on;
+            lamps.tower(TOWER[k], on);
+        }
+    }
+
     /** Brings every lamp to what {@code sequence} asks for at {@code nowNs}; returns the number of writes. */
     public int apply(Sequence sequence, long nowNs) {
         boolean blink = blinkOn(nowNs);

@@ -7,9 +7,9 @@ import hammerstep.joint.JointResult;
 import hammerstep.health.ToolHealth;
 import hammerstep.health.ToolHealthEvents;
 import hammerstep.results.JointOutcome;
+import hammerstep.results.JournalWriter;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StationEvent;
-import hammerstep.results.ResultStoreException;
 import hammerstep.results.UnfinishedPart;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
@@ -23,9 +23,11 @@ import hammerstep.station.StationClock;
 import hammerstep.trace.TraceKeeper;
 import org.agrona.ErrorHandler;
 import org.agrona.concurrent.Agent;
+import org.agrona.concurrent.AgentTerminationException;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
+import java.util.ArrayDeque;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.Map;
@@ -33,13 +35,21 @@ import java.util.Map;
 /**
  * The station's duty cycle: reads the clock once, polls the operator inputs and the part identity,
  * feeds waiting sample blocks through the current pass's {@link JointMonitor}, hands the sequence's
- * records to the {@link ResultSink}, then drives the tool enable and the lamps from the sequence.
+ * records to the {@link JournalWriter}, then drives the tool enable and the lamps from the sequence.
  * After every block the tool output is brought up to date, so tool enable drops within one block of
  * the shut-off crossing.
  *
+ * <p>Storing never waits on a disk: a record is offered to the writer's ring, one sequence record at
+ * a time, and the sequence hears {@link Sequence#stored} only when the writer's answer comes back
+ * (a cycle later, or after a stalled forced write), so a verdict lamp still means "on disk". Built
+ * on a {@link ResultSink}, the agent steps its own writer inline after each offer (tests, tools
+ * with a memory store); built on a {@link JournalWriter}, the writer runs elsewhere (its own
+ * thread, or stepped by the simulator).
+ *
  * <p>Run it on one thread with Agrona's {@code AgentRunner} ({@link StationRunner}), or call
  * {@link #doWork()} by hand on a virtual clock (tests, {@code --fast}). Single-threaded; the sample
- * path allocates nothing.
+ * path allocates nothing. A cycle that throws is caught once: the tool drops and the lamps show the
+ * fault picture; an {@link Exception} is counted and the loop goes on, an {@link Error} stops it.
  */
 public final class StationAgent implements Agent, SampleBlockHandler, JointEvents {
 
@@ -48,7 +58,8 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     private final StationClock clock;
     private final StationPorts ports;
-    private final ResultSink sink;
+    private final JournalWriter journal;
+    private final boolean journalInline;
     private final Sequence sequence;
     private Map<String, Pattern> patternsByModel;
     private Map<JointProgram, JointMonitor> monitors = new HashMap<>();
@@ -74,22 +85,51 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private int confirmedBefore = Integer.MIN_VALUE;
     private PartIdentity waitingIdentity;
     private long errors;
+    private boolean halted;
+    /** The sequence's record handed to the journal (or waiting for room in its ring), or null. */
+    private Store awaiting;
+    private boolean awaitingOffered;
+    /** Tool-health events waiting for room in the journal's ring. */
+    private final ArrayDeque<Store> eventsToOffer = new ArrayDeque<>();
     private long lastShutoffToRelayNs = -1;
     private long maxShutoffToRelayNs = -1;
 
     /**
+     * A station that stores through {@code sink} on the station's own thread, stepping a
+     * {@link JournalWriter} inline after each record: for tests and tools whose store does not
+     * touch a disk.
+     *
      * @param patternsByModel part model → pattern; every program of every pattern gets its monitor here
      * @param conditioning    the transducer's conditioning (auto-zero, range, filter)
      */
     public StationAgent(StationClock clock, StationPorts ports, ResultSink sink, Sequence sequence,
                         Map<String, Pattern> patternsByModel, Conditioning conditioning, long blinkPeriodNs,
                         StationListener listener, ErrorHandler errorHandler) {
+        this(clock, ports, new JournalWriter(sink), true, sequence, patternsByModel, conditioning, blinkPeriodNs,
+                listener, errorHandler);
+    }
+
+    /**
+     * A station that hands its records to {@code journal}, whose {@code doWork()} runs elsewhere: on
+     * the writer's own thread ({@link JournalWriter#start}), or stepped by the caller in virtual time.
+     */
+    public StationAgent(StationClock clock, StationPorts ports, JournalWriter journal, Sequence sequence,
+                        Map<String, Pattern> patternsByModel, Conditioning conditioning, long blinkPeriodNs,
+                        StationListener listener, ErrorHandler errorHandler) {
+        this(clock, ports, journal, false, sequence, patternsByModel, conditioning, blinkPeriodNs, listener,
+                errorHandler);
+    }
+
+    private StationAgent(StationClock clock, StationPorts ports, JournalWriter journal, boolean journalInline,
+                         Sequence sequence, Map<String, Pattern> patternsByModel, Conditioning conditioning,
+                         long blinkPeriodNs, StationListener listener, ErrorHandler errorHandler) {
         if (patternsByModel.isEmpty()) {
             throw new IllegalArgumentException("a station needs at least one part model with its pattern");
         }
         this.clock = clock;
         this.ports = ports;
-        this.sink = sink;
+        this.journal = journal;
+        this.journalInline = journalInline;
         this.sequence = sequence;
         this.patternsByModel = new LinkedHashMap<>(patternsByModel);
         this.listener = listener;
@@ -104,7 +144,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         this.current = watch;
         this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
         ports.tool().set(false);
-        UnfinishedPart unfinished = sink.unfinishedPart();
+        UnfinishedPart unfinished = journal.unfinishedPart();
         if (unfinished != null) {
             LOG.warn("part {} was in work when the station stopped ({} joints stored): supervisor key closes it"
                     + " as INTERRUPTED", unfinished.partSerial(), unfinished.jointIds().size());
@@ -117,27 +157,44 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         return "station";
     }
 
+    /**
+     * One duty cycle. Whatever it throws is caught here, once: the tool drops, the lamps show the
+     * fault picture and the error handler hears of it. After an {@link Exception} the loop goes on
+     * (the next cycle brings tool and lamps back to what the sequence asks); after an {@link Error}
+     * (out of memory, a linkage error) the station stops for good: every later call does nothing, and
+     * an {@link AgentTerminationException} carrying the error ends the runner's thread.
+     */
     @Override
     public int doWork() {
+        if (halted) {
+            return 0;
+        }
         try {
             return cycle();
         } catch (Throwable t) {
             errors++;
+            halted = t instanceof Error; // before anything else can throw
             safeOff();
             errorHandler.onError(t);
+            if (t instanceof Error e) {
+                throw new AgentTerminationException(e);
+            }
             return 1;
         }
     }
 
     private int cycle() {
         nowNs = clock.nanoTime();
-        sequence.storage(sink.storage()); // fresh before a part may start (commands, inputs)
+        if (journalInline) {
+            journal.doWork(); // reads the store's room afresh, as the writer's own thread does every cycle
+        }
+        sequence.storage(journal.storage()); // fresh before a part may start (commands, inputs)
         int work = commands == null ? 0 : commands.serve(this, nowNs);
         work += pollInputs();
         selectMonitor();
         work += ports.torque().poll(this, MAX_BLOCKS_PER_CYCLE);
         work += drainStores();
-        sequence.storage(sink.storage());
+        sequence.storage(journal.storage());
         sequence.sensorFaults(current.conditioner().faults());
         sequence.onTick(nowNs);
         work += drainStores();
@@ -250,30 +307,81 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     // ---- outputs --------------------------------------------------------------------------------
 
+    /**
+     * Takes the journal's answers, then hands over what waits: tool-health events first, then the
+     * sequence's oldest record, one at a time (the sequence hands out its next record only after
+     * the last one is stored). With an inline journal the writer is stepped at once, so everything
+     * is stored within the cycle, as the sequence asks.
+     */
     private int drainStores() {
-        int n = 0;
-        Store s;
-        while ((s = sequence.nextToStore()) != null) {
-            if (traces != null && s instanceof Store.Joint j) {
-                s = new Store.Joint(traces.keep(j.outcome()));
+        int n = takeAnswers();
+        while (true) {
+            while (!eventsToOffer.isEmpty() && journal.offer(eventsToOffer.peek())) {
+                eventsToOffer.poll();
+                n++;
             }
-            ResultSink.Receipt receipt;
-            try {
-                receipt = store(s);
-            } catch (ResultStoreException e) {
+            if (awaiting == null) {
+                Store s = sequence.nextToStore();
+                if (s == null) {
+                    break;
+                }
+                if (traces != null && s instanceof Store.Joint j) {
+                    s = new Store.Joint(traces.keep(j.outcome()));
+                }
+                awaiting = s;
+                awaitingOffered = false;
+            }
+            if (awaitingOffered || !journal.offer(awaiting)) {
+                break;
+            }
+            awaitingOffered = true;
+            n++;
+            if (!journalInline) {
+                break;
+            }
+            stepInlineJournal();
+            n += takeAnswers();
+        }
+        if (journalInline && !eventsToOffer.isEmpty()) {
+            stepInlineJournal();
+            n += takeAnswers();
+        }
+        return n;
+    }
+
+    private void stepInlineJournal() {
+        while (journal.doWork() > 0) {
+            // stores what was offered, one record a cycle
+        }
+    }
+
+    /** The journal's answers: the sequence hears of its record, the listener of every stored one. */
+    private int takeAnswers() {
+        int n = 0;
+        JournalWriter.Done d;
+        while ((d = journal.poll()) != null) {
+            n++;
+            Store s = (Store) d.record();
+            boolean sequenceRecord = s == awaiting;
+            if (sequenceRecord) {
+                awaiting = null;
+                awaitingOffered = false;
+            }
+            if (!d.stored()) {
                 sequence.storeFailed(nowNs);
                 applyTool();
-                LOG.error("result not stored, station stopped until the supervisor key: {}", e.getMessage());
-                listener.onStoreFailed(e.getMessage());
-                return n;
+                LOG.error("{} not stored, station stopped until the supervisor key: {}",
+                        s instanceof Store.Event ? "event" : "result", d.failure());
+                listener.onStoreFailed(d.failure());
+                continue;
             }
-            sequence.stored(receipt, nowNs);
-            n++;
+            ResultSink.Receipt receipt = d.receipt();
+            if (sequenceRecord) {
+                sequence.stored(receipt, nowNs);
+            }
             if (s instanceof Store.Joint j) {
                 listener.onJoint(j.outcome(), receipt);
-                if (!watchTool(j.outcome())) {
-                    return n;
-                }
+                watchTool(j.outcome());
             } else if (s instanceof Store.Part p) {
                 listener.onPart(p.outcome(), receipt);
             } else if (s instanceof Store.Event e) {
@@ -285,28 +393,17 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     /**
      * Tool health: the joint's blow rate and energy against the tool's baseline on its program; a
-     * change is stored as an event, and a weak tool holds the yellow lamp. False when the event
-     * could not be stored (the station then stands in FAULT, as for any result).
+     * change is stored as an event (ahead of the sequence's next record), and a weak tool holds the
+     * yellow lamp. An event the journal cannot store puts the station in FAULT, as any result does.
      */
-    private boolean watchTool(JointOutcome joint) {
+    private void watchTool(JointOutcome joint) {
         if (toolHealth == null) {
-            return true;
+            return;
         }
         for (ToolHealth.Change c : toolHealth.observe(toolName, joint.result().program().id(), joint.result())) {
-            StationEvent event = ToolHealthEvents.of(c, joint.partSerial(), clock.instantOf(nowNs));
-            try {
-                ResultSink.Receipt receipt = sink.event(event);
-                listener.onEvent(event, receipt);
-            } catch (ResultStoreException e) {
-                sequence.storeFailed(nowNs);
-                applyTool();
-                LOG.error("event not stored, station stopped until the supervisor key: {}", e.getMessage());
-                listener.onStoreFailed(e.getMessage());
-                return false;
-            }
+            eventsToOffer.add(new Store.Event(ToolHealthEvents.of(c, joint.partSerial(), clock.instantOf(nowNs))));
         }
         sequence.warning(toolHealth.anyWeak());
-        return true;
     }
 
     /** Keeps every joint's torque trace and names it in the joint's result. Call before the agent runs. */
@@ -328,16 +425,6 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         return traces;
     }
 
-    private ResultSink.Receipt store(Store s) throws ResultStoreException {
-        if (s instanceof Store.Joint j) {
-            return sink.joint(j.outcome());
-        }
-        if (s instanceof Store.Part p) {
-            return sink.part(p.outcome());
-        }
-        return sink.event(((Store.Event) s).event());
-    }
-
     private void applyTool() {
         boolean on = sequence.toolEnabled();
         if (on != toolOn || !toolWritten) {
@@ -348,7 +435,21 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         }
     }
 
+    /**
+     * Tool off, then the fault picture on the lamps: red lit, every other lamp dark, so no green or
+     * position lamp left from before can read as GO while the loop is not running. Each write is
+     * tried on its own; a failing one goes to the error handler.
+     */
     private void safeOff() {
+        toolOff();
+        try {
+            lampDriver.faultPicture();
+        } catch (Throwable t) {
+            errorHandler.onError(t);
+        }
+    }
+
+    private void toolOff() {
         try {
             ports.tool().set(false);
             toolOn = false;
@@ -357,9 +458,10 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         }
     }
 
+    /** A normal stop: the tool drops; the lamps are left to the hardware's own close. */
     @Override
     public void onClose() {
-        safeOff();
+        toolOff();
         if (commands != null) {
             commands.close();
         }
@@ -377,12 +479,17 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     }
 
     ResultSink.Storage storage() {
-        return sink.storage();
+        return journal.storage();
     }
 
     boolean partPresent() {
         OperatorInputs in = ports.inputs();
         return !in.hasPartPresent() || in.partPresent();
+    }
+
+    /** True while a record of the sequence is with the journal and its answer has not come back. */
+    public boolean storing() {
+        return awaiting != null || !eventsToOffer.isEmpty();
     }
 
     boolean inRundown() {

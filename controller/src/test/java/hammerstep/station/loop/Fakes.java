@@ -68,9 +68,19 @@ final class Fakes {
         boolean partSensor;
         boolean confirm;
         int at = NO_POSITION;
+        /** Thrown (an unchecked exception or an Error) from the next read of the button, then cleared. */
+        Throwable failWith;
 
         @Override
         public boolean acknowledge() {
+            Throwable t = failWith;
+            if (t != null) {
+                failWith = null;
+                if (t instanceof Error e) {
+                    throw e;
+                }
+                throw (RuntimeException) t;
+            }
             return ack;
         }
 

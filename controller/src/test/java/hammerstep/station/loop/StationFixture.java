@@ -4,6 +4,7 @@ import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.results.JointOutcome;
+import hammerstep.results.JournalWriter;
 import hammerstep.results.Outbox;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.PartOutcome;
@@ -66,6 +67,12 @@ final class StationFixture {
     final List<Throwable> errors = new ArrayList<>();
     private final AtomicLong ids = new AtomicLong();
     StationAgent agent;
+    /** The journal's writer when it runs apart from the station ({@link #startOnWriter}), else null. */
+    JournalWriter writer;
+    /** How long each forced write of the separate writer takes, in virtual time. */
+    long writeStallNs;
+    private long writeDoneAtNs;
+    private boolean writing;
 
     // the synthetic tool
     double stepNm = 45;
@@ -92,6 +99,39 @@ final class StationFixture {
                 new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
                 conditioning, 1_000_000_000L, reports, errorHandler);
         return agent;
+    }
+
+    /**
+     * Builds the loop on a {@link JournalWriter} of its own, as the service runs it, and steps that
+     * writer as a thread whose every forced write takes {@code stallNs} of virtual time: the writer
+     * takes up a waiting record, and its {@code doWork()} (the write and the answer) runs only once
+     * {@code stallNs} has passed. The station goes on cycling meanwhile.
+     */
+    StationAgent startOnWriter(Outbox outbox, Conditioning conditioning, long stallNs) {
+        ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
+                Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
+        writer = new JournalWriter(sink, outbox, JournalWriter.DEFAULT_CAPACITY);
+        writeStallNs = stallNs;
+        agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), writer,
+                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
+                conditioning, 1_000_000_000L, reports, errors::add);
+        return agent;
+    }
+
+    /** The separate writer's thread at the end of a block period: finishes a write that is due, takes up the next. */
+    private void stepWriter() {
+        long now = clock.nanoTime();
+        if (writing) {
+            if (now - writeDoneAtNs < 0) {
+                return;
+            }
+            writer.doWork();
+            writing = false;
+        }
+        if (writer.waiting() > 0) {
+            writing = true;
+            writeDoneAtNs = now + writeStallNs;
+        }
     }
 
     /** As {@code hammerstep replay} conditions {@link #FINAL}. */
@@ -122,6 +162,9 @@ final class StationFixture {
         clock.advanceNs(BLOCK_NS);
         boolean was = tool.enabled;
         agent.doWork();
+        if (writer != null) {
+            stepWriter();
+        }
         if (was && !tool.enabled) {
             disabledAtNs = clock.nanoTime();
         }

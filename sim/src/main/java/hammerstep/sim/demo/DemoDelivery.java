@@ -7,10 +7,10 @@ import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.Topics;
 import hammerstep.mqtt.paho.PahoLink;
 import hammerstep.mqtt.paho.QualityClient;
+import hammerstep.results.JournalWriter;
 import hammerstep.results.MessageKind;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.ResultMessages;
-import hammerstep.results.ResultSink;
 import hammerstep.results.ResultStoreException;
 import hammerstep.results.StationId;
 import hammerstep.results.StorageSettings;
@@ -27,6 +27,8 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.time.Instant;
+import java.time.ZoneOffset;
 import java.util.Comparator;
 import java.util.EnumMap;
 import java.util.HashSet;
@@ -38,7 +40,9 @@ import java.util.stream.Stream;
 
 /**
  * The demo's way from the station to the quality system, as on a real station: a file outbox
- * (the {@code --state} folder, or a temporary one), the MQTT publisher on its own thread, a broker
+ * (the {@code --state} folder, or a temporary one) written by its {@link JournalWriter} (stepped in
+ * virtual time by the simulated station, and here while the demo waits for delivery), the MQTT
+ * publisher on its own thread (its delivered marks go to the writer), a broker
  * (embedded on loopback, or {@code --broker URL}) and a subscriber playing the quality system,
  * which writes every message it receives to {@code --results-out} as one JSON line.
  */
@@ -50,6 +54,7 @@ final class DemoDelivery implements AutoCloseable {
     private final Path stateDir;
     private final boolean temporaryState;
     private final FileOutbox outbox;
+    private final JournalWriter journal;
     private final EmbeddedBroker broker;
     private final String url;
     private final QualityClient subscriber;
@@ -60,11 +65,13 @@ final class DemoDelivery implements AutoCloseable {
     private final Map<MessageKind, Long> receivedMaxSeq = new EnumMap<>(MessageKind.class);
 
     private DemoDelivery(StationId station, Path stateDir, boolean temporaryState, FileOutbox outbox,
-                         EmbeddedBroker broker, String url, QualityClient subscriber, BufferedWriter resultsOut) {
+                         JournalWriter journal, EmbeddedBroker broker, String url, QualityClient subscriber,
+                         BufferedWriter resultsOut) {
         this.station = station;
         this.stateDir = stateDir;
         this.temporaryState = temporaryState;
         this.outbox = outbox;
+        this.journal = journal;
         this.broker = broker;
         this.url = url;
         this.subscriber = subscriber;
@@ -114,10 +121,15 @@ final class DemoDelivery implements AutoCloseable {
                     (topic, payload, retained, correlation) -> self[0].received(topic, payload));
             Topics topics = new Topics(station);
             BrokerSettings fixed = settings;
-            ResultPublisher publisher = new ResultPublisher(outbox, station, () -> new PahoLink(fixed),
+            // ids are random UUIDs, so a resumed run never repeats one; the sink's own events carry a fixed time
+            JournalWriter journal = new JournalWriter(new OutboxResultSink(outbox, station,
+                    () -> UUID.randomUUID().toString(), Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), outbox,
+                    JournalWriter.DEFAULT_CAPACITY);
+            ResultPublisher publisher = new ResultPublisher(journal.forDelivery(), station, () -> new PahoLink(fixed),
                     commands, fixed, new SystemNanoClock(), Clock.systemUTC(), o.seed(),
                     "hammerstep-sim demo");
-            DemoDelivery d = new DemoDelivery(station, state, temporary, outbox, broker, url, subscriber, out);
+            DemoDelivery d = new DemoDelivery(station, state, temporary, outbox, journal, broker, url, subscriber,
+                    out);
             self[0] = d;
             for (MessageKind k : MessageKind.values()) {
                 d.firstSeq.put(k, outbox.nextSeq(k));
@@ -145,9 +157,9 @@ final class DemoDelivery implements AutoCloseable {
         }
     }
 
-    /** The station's result sink: ids are random UUIDs, so a resumed run never repeats one. */
-    ResultSink sink(Clock clock) {
-        return new OutboxResultSink(outbox, station, () -> UUID.randomUUID().toString(), clock);
+    /** The journal's writer, for the station to hand its records to; stepped on the demo's thread. */
+    JournalWriter journal() {
+        return journal;
     }
 
     private synchronized void received(String topic, byte[] payload) {
@@ -199,6 +211,9 @@ final class DemoDelivery implements AutoCloseable {
     boolean finish(PrintStream out, Path summaryOut) throws InterruptedException {
         long end = System.nanoTime() + WAIT_NS;
         while (!allReceived() && System.nanoTime() - end < 0) {
+            while (journal.doWork() > 0) {
+                // the writer applies the publisher's delivered marks (it runs on this thread)
+            }
             Thread.sleep(20);
         }
         boolean all = allReceived();

@@ -9,6 +9,7 @@ import hammerstep.trace.TracesSection;
 import hammerstep.config.ConfigException;
 import hammerstep.joint.JointMonitor;
 import hammerstep.results.JointOutcome;
+import hammerstep.results.JournalWriter;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.PartOutcome;
@@ -111,16 +112,16 @@ public final class DemoRunner {
                     TimingSection.Timing timing, List<PartIdentity> parts, VirtualClock clock, RigToolModel tool,
                     VirtualStation hardware, DemoDelivery delivery, CommandDesk desk) throws InterruptedException {
         long[] ids = {0};
-        ResultSink sink = delivery != null ? delivery.sink(Clock.fixed(EPOCH, ZoneOffset.UTC))
-                : new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
-                Clock.fixed(EPOCH, ZoneOffset.UTC));
+        JournalWriter journal = delivery != null ? delivery.journal()
+                : new JournalWriter(new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
+                Clock.fixed(EPOCH, ZoneOffset.UTC)));
         DemoTally tally = new DemoTally();
         DemoView view = options.plain() ? new PlainView(out) : new LiveView(out);
         Pattern first = patterns.values().iterator().next();
         Conditioning conditioning = JointMonitor.replayConditioning(first.passes().get(0).program())
                 .withOverRange(sim.transducer().ratedTorqueNm());
         List<Throwable> errors = new ArrayList<>();
-        SimulatedStation station = new SimulatedStation(clock, hardware, sink, patterns,
+        SimulatedStation station = new SimulatedStation(clock, hardware, journal, patterns,
                 new Sequence.Settings(sim.transducerSerial(), sim.calibrationDue(), timing.completeHoldMs()),
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener(tally, view, clock), errors::add);
@@ -154,6 +155,7 @@ public final class DemoRunner {
                 }
             }
         }
+        station.settle(1_000); // the last records on disk and heard of, as a board's writer thread would finish them
         view.end(station, tally);
         station.agent().onClose(); // the station has stopped: a command from now on is answered UNAVAILABLE
         boolean finished = station.finished();

@@ -1,0 +1,97 @@
+package hammerstep.mqtt;
+
+import hammerstep.results.MessageKind;
+import hammerstep.results.Outbox;
+import hammerstep.results.ResultMessages;
+import hammerstep.results.ResultSink;
+import hammerstep.results.StationId;
+
+import java.io.IOException;
+import java.time.Clock;
+import java.time.Instant;
+import java.util.LinkedHashMap;
+import java.util.Map;
+import java.util.UUID;
+
+/**
+ * The station's retained status message: online on connect, again every status interval and when
+ * the store's room changes, offline as the Last Will and at a clean stop. Carries the storage
+ * state, the backlog, the last {@code seq} of each kind and what the station is doing. Delivery
+ * thread only.
+ */
+final class StatusMessage {
+
+    private static final long MS = 1_000_000L;
+
+    private final Outbox outbox;
+    private final StationId station;
+    private final StationCommands commands;
+    private final BrokerSettings settings;
+    private final Clock wall;
+    private final String version;
+    private final Instant started;
+    private long statusSeq;
+    private long nextStatusNs;
+    private ResultSink.Storage lastStorage;
+
+    StatusMessage(Outbox outbox, StationId station, StationCommands commands, BrokerSettings settings, Clock wall,
+                  String version) {
+        this.outbox = outbox;
+        this.station = station;
+        this.commands = commands;
+        this.settings = settings;
+        this.wall = wall;
+        this.version = version;
+        this.started = wall.instant();
+    }
+
+    /** True when the status is due: its interval passed, or the store's room changed. */
+    boolean due(long nowNs) {
+        return nowNs - nextStatusNs >= 0 || outbox.storage() != lastStorage;
+    }
+
+    /** Publishes the online status retained on {@code link}; throws when the link failed. */
+    void publish(Link link, String topic, long nowNs) throws IOException {
+        lastStorage = outbox.storage();
+        nextStatusNs = nowNs + settings.statusIntervalS() * 1000 * MS;
+        if (!link.publish(topic, bytes("online"), true, 0)) {
+            nextStatusNs = nowNs; // no room in the client: again next cycle
+        }
+    }
+
+    byte[] bytes(String state) {
+        return ResultMessages.bytes(fields(state));
+    }
+
+    Map<String, Object> fields(String state) {
+        Map<String, Object> m = ResultMessages.head("hammerstep.status.v1", UUID.randomUUID().toString(), ++statusSeq,
+                station, wall.instant());
+        m.put("state", state);
+        m.put("started", ResultMessages.time(started));
+        m.put("version", version);
+        m.put("storage", outbox.storage().name());
+        m.put("backlog", outbox.backlog());
+        Map<String, Object> last = new LinkedHashMap<>();
+        for (MessageKind k : MessageKind.values()) {
+            last.put(k.topic(), outbox.nextSeq(k) - 1);
+        }
+        m.put("last_seq", last);
+        StationCommands.Activity a = activity();
+        Map<String, Object> act = new LinkedHashMap<>();
+        act.put("mode", a.mode());
+        act.put("part_serial", a.partSerial());
+        act.put("part_model", a.partModel());
+        act.put("pattern", a.pattern());
+        m.put("activity", act);
+        return m;
+    }
+
+    private StationCommands.Activity activity() {
+        try {
+            StationCommands.Activity a = commands.activity();
+            return a == null ? StationCommands.Activity.UNKNOWN : a;
+        } catch (RuntimeException e) {
+            return StationCommands.Activity.UNKNOWN;
+        }
+    }
+}
