@@ -42,6 +42,7 @@ public final class ResultPublisher implements Agent {
     private static final long MS = 1_000_000L;
     private static final int MAX_COMMAND_BYTES = 4096;
     private static final long RESPONSE_EXPIRY_S = 60;
+    private static final long SEQ_CHECK_WAIT_NS = 3_000_000_000L;
 
     private sealed interface Signal { }
 
@@ -71,6 +72,7 @@ public final class ResultPublisher implements Agent {
     private final String version;
     private final Instant started;
     private final CommandParser parser;
+    private final SeqCrossCheck seqCheck;
     // a client can send commands at will: at most 10 warnings a minute each, then a count
     private final RateLimitedWarnings refusals = new RateLimitedWarnings(LOG, "refused commands", 10, 60_000_000_000L);
     private final RateLimitedWarnings unsentResponses = new RateLimitedWarnings(LOG, "unsent responses", 10,
@@ -110,6 +112,7 @@ public final class ResultPublisher implements Agent {
         this.started = wall.instant();
         this.parser = new CommandParser(MAX_COMMAND_BYTES, settings.commandMaxExpiryS());
         this.nextAttemptNs = clock.nanoTime();
+        this.seqCheck = new SeqCrossCheck(outbox, topics.status(), ResultMessages.time(started), SEQ_CHECK_WAIT_NS);
     }
 
     /**
@@ -141,7 +144,9 @@ public final class ResultPublisher implements Agent {
             }
             return work;
         }
-        work += send(now);
+        if (seqCheck.readyToSend(now)) {
+            work += send(now);
+        }
         if (link != null && (now - nextStatusNs >= 0 || outbox.storage() != lastStorage)) {
             publishStatus(now);
             work++;
@@ -183,6 +188,7 @@ public final class ResultPublisher implements Agent {
             window = Math.max(1, Math.min(settings.inflight(), receiveMax - 2));
             link = l;
             l.subscribe(topics.commands());
+            seqCheck.subscribe(l, now);
             inflight.clear();
             cursor = 0;
             failures = 0;
@@ -194,6 +200,7 @@ public final class ResultPublisher implements Agent {
             l.close();
             link = null;
             connected = false;
+            seqCheck.connectionLost();
             failures++;
             long delayMs = backoffMs();
             nextAttemptNs = now + delayMs * MS;
@@ -210,6 +217,7 @@ public final class ResultPublisher implements Agent {
             link = null;
         }
         connected = false;
+        seqCheck.connectionLost();
         inflight.clear();
         cursor = 0;
         failures++;
@@ -263,7 +271,9 @@ public final class ResultPublisher implements Agent {
             } else if (s instanceof Ack ack) {
                 onAck(now, ack);
             } else if (s instanceof Incoming in) {
-                onCommand(in);
+                if (!seqCheck.onMessage(in.topic, in.payload)) {
+                    onCommand(in);
+                }
             } else if (s instanceof Answer a) {
                 respond(a.responseTopic, a.correlation, a.command, a.reply, null);
             }
@@ -348,6 +358,10 @@ public final class ResultPublisher implements Agent {
             last.put(k.topic(), outbox.nextSeq(k) - 1);
         }
         m.put("last_seq", last);
+        List<Outbox.Loss> lost = outbox.losses();
+        if (!lost.isEmpty()) {
+            m.put("lost", SeqCrossCheck.lostField(lost));
+        }
         StationCommands.Activity a = activity();
         Map<String, Object> act = new LinkedHashMap<>();
         act.put("mode", a.mode());
