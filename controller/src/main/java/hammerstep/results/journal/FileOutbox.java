@@ -57,6 +57,7 @@ public final class FileOutbox implements Outbox {
     /** The counters as they stood when the store opened: what this run assigned lies at or above them. */
     private final long[] runStartSeq = new long[MessageKind.values().length];
     private long runStartPosition;
+    private long highWaterFailures;
     private final CRC32C crc = new CRC32C();
     private ByteBuffer out = ByteBuffer.allocate(64 * 1024);
     private long nextPosition = 1;
@@ -309,11 +310,17 @@ public final class FileOutbox implements Outbox {
         }
         long position = nextPosition;
         try {
-            // the high water first: whatever happens to the record, its seq is never given again
-            highWater.write(position + 1, nextSeq, kind.ordinal(), seq + 1, floorSeq);
             writeResult(position, kind, seq, idBytes, id, payload);
         } catch (IOException e) {
             throw new ResultStoreException("cannot store " + kind.topic() + " " + seq + ": " + e.getMessage(), e);
+        }
+        try {
+            // after the record, before the caller shows it: a record lost once confirmed is seen as lost,
+            // one that power cut short before it was confirmed (never shown, never sent) is not
+            highWater.write(position + 1, nextSeq, kind.ordinal(), seq + 1, floorSeq);
+        } catch (IOException e) {
+            // the record is stored and must not be stored again under its seq: the next write catches up
+            highWaterFailures++;
         }
         nextPosition = position + 1;
         nextSeq[kind.ordinal()] = seq + 1;
@@ -553,6 +560,14 @@ public final class FileOutbox implements Outbox {
     /** Bytes the journal's segment files take now. */
     public synchronized long journalBytes() {
         return totalBytes;
+    }
+
+    /**
+     * High-water writes that failed after their record was stored (the record stands; the file is
+     * one result behind until the next append writes it).
+     */
+    public synchronized long highWaterFailures() {
+        return highWaterFailures;
     }
 
     /** Number of segment files now. */

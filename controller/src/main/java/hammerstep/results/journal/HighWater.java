@@ -11,13 +11,15 @@ import java.util.zip.CRC32C;
 /**
  * The journal's high-water file {@code highwater.hsw}: the next position and the next seq of each
  * kind ever to be given, and the first seq of each kind that retention still keeps. It is written,
- * and forced, before each result is appended, so it never stands below the journal; it lets the
- * journal see that its tail, a whole segment, or all of it is gone, and never give a seq twice.
+ * and forced, after each result's record and before the append returns (before the station shows
+ * the result or anyone can send it), so it covers every result ever confirmed; it lets the journal
+ * see that its tail, a whole segment, or all of it is gone, and never give a confirmed seq twice.
  *
  * <p>Two slots, 4096 bytes apart (separate pages of the medium), written in turn; each slot is
  * {@code magic u32 | generation u64 | next position u64 | kinds u8 | next seq u64 per kind |
  * floor seq u64 per kind | CRC32C u32} over everything before the CRC. A write that power cuts
- * short leaves the other slot whole, one result behind at most; that result's append had not begun.
+ * short leaves the other slot whole, one result behind at most; that result was never confirmed,
+ * and its record, if whole, is in the journal.
  * Reading takes the whole slot with the higher generation. One forced overwrite of a block the file
  * already has: no rename, no directory sync, no metadata to commit on each result. Not thread-safe:
  * {@link FileOutbox} serialises all use.
