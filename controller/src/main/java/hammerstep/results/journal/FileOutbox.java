@@ -58,6 +58,8 @@ public final class FileOutbox implements Outbox {
     private final long[] runStartSeq = new long[MessageKind.values().length];
     private long runStartPosition;
     private long highWaterFailures;
+    /** The high-water file was written since it was last forced. */
+    private boolean highWaterDirty;
     private final CRC32C crc = new CRC32C();
     private ByteBuffer out = ByteBuffer.allocate(64 * 1024);
     private long nextPosition = 1;
@@ -144,7 +146,7 @@ public final class FileOutbox implements Outbox {
                 writeStart(active);
             }
         }
-        highWater.write(nextPosition, nextSeq, -1, -1, floorSeq);
+        highWater.write(nextPosition, nextSeq, -1, -1, floorSeq, true);
         refreshStorage();
         losses.addAll(found);
         unreported.addAll(found);
@@ -317,7 +319,9 @@ public final class FileOutbox implements Outbox {
         try {
             // after the record, before the caller shows it: a record lost once confirmed is seen as lost,
             // one that power cut short before it was confirmed (never shown, never sent) is not
-            highWater.write(position + 1, nextSeq, kind.ordinal(), seq + 1, floorSeq);
+            // not forced here (one forced write per result is the journal's): forced before it is sent
+            highWater.write(position + 1, nextSeq, kind.ordinal(), seq + 1, floorSeq, false);
+            highWaterDirty = true;
         } catch (IOException e) {
             // the record is stored and must not be stored again under its seq: the next write catches up
             highWaterFailures++;
@@ -413,7 +417,7 @@ public final class FileOutbox implements Outbox {
             newNext[k] += delta[k];
         }
         try {
-            highWater.write(nextPosition + again.size(), newNext, -1, -1, floorSeq);
+            highWater.write(nextPosition + again.size(), newNext, -1, -1, floorSeq, true);
             for (Loss l : found) {
                 writeGone(l, false);
             }
@@ -467,6 +471,17 @@ public final class FileOutbox implements Outbox {
         }
     }
 
+    private void forceHighWater() throws ResultStoreException {
+        if (highWaterDirty) {
+            try {
+                highWater.force();
+                highWaterDirty = false;
+            } catch (IOException e) {
+                throw new ResultStoreException("cannot force " + HighWater.NAME + ": " + e.getMessage(), e);
+            }
+        }
+    }
+
     private ByteBuffer body(int size) {
         if (out.capacity() < size) {
             out = ByteBuffer.allocate(Math.max(size, out.capacity() * 2));
@@ -483,6 +498,10 @@ public final class FileOutbox implements Outbox {
     private void rotateIfFull(int recordLength) throws IOException {
         if (active.size + recordLength > settings.segmentBytes() && active.size > startLength()) {
             active.force();
+            if (highWaterDirty) {
+                highWater.force();
+                highWaterDirty = false;
+            }
             startSegment(active.number + 1);
             applyRetention();
         }
@@ -516,6 +535,7 @@ public final class FileOutbox implements Outbox {
     @Override
     public synchronized List<Entry> pending(long afterPosition, int max) throws ResultStoreException {
         checkOpen();
+        forceHighWater(); // no record leaves the station before its seq is on the device as given
         List<Entry> list = new ArrayList<>(Math.min(max, pending.size()));
         for (Map.Entry<Long, Loc> e : pending.tailMap(afterPosition, false).entrySet()) {
             if (list.size() == max) {
@@ -641,7 +661,8 @@ public final class FileOutbox implements Outbox {
         for (int k = 0; k < floorSeq.length; k++) {
             floorSeq[k] = Math.max(floorSeq[k], seg.lastSeq[k] + 1);
         }
-        highWater.write(nextPosition, nextSeq, -1, -1, floorSeq);
+        highWater.write(nextPosition, nextSeq, -1, -1, floorSeq, true);
+        highWaterDirty = false;
     }
 
     // ---- lifecycle -------------------------------------------------------------------------------
@@ -654,6 +675,9 @@ public final class FileOutbox implements Outbox {
         closed = true;
         try {
             active.force();
+            if (highWaterDirty) {
+                highWater.force();
+            }
         } catch (IOException ignored) {
             // marks not forced are sent again: at least once
         }

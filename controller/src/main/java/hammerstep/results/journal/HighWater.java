@@ -10,10 +10,11 @@ import java.util.zip.CRC32C;
 
 /**
  * The journal's high-water file {@code highwater.hsw}: the next position and the next seq of each
- * kind ever to be given, and the first seq of each kind that retention still keeps. It is written,
- * and forced, after each result's record and before the append returns (before the station shows
- * the result or anyone can send it), so it covers every result ever confirmed; it lets the journal
- * see that its tail, a whole segment, or all of it is gone, and never give a confirmed seq twice.
+ * kind ever to be given, and the first seq of each kind that retention still keeps. It is written
+ * after each result's record, before the append returns, and forced before any record it covers is
+ * handed out for sending (and at rotation, retention, opening and close), so every seq that ever
+ * left the station is on the device; it lets the journal see that its tail, a whole segment, or
+ * all of it is gone, and never give a seq twice.
  *
  * <p>Two slots, 4096 bytes apart (separate pages of the medium), written in turn; each slot is
  * {@code magic u32 | generation u64 | next position u64 | kinds u8 | next seq u64 per kind |
@@ -122,11 +123,12 @@ final class HighWater {
     }
 
     /**
-     * Writes the next generation into the older slot and forces it. The seq of kind {@code kind} is
-     * taken as {@code nextSeqOfKind} instead of {@code nextSeq[kind]} (pass -1 for none), so an
-     * append can announce its seq without changing the outbox's counters first.
+     * Writes the next generation into the older slot, and forces it when {@code force}. The seq of
+     * kind {@code kind} is taken as {@code nextSeqOfKind} instead of {@code nextSeq[kind]} (pass -1
+     * for none), so an append can announce its seq without changing the outbox's counters first.
      */
-    void write(long nextPosition, long[] nextSeq, int kind, long nextSeqOfKind, long[] floorSeq) throws IOException {
+    void write(long nextPosition, long[] nextSeq, int kind, long nextSeqOfKind, long[] floorSeq, boolean force)
+            throws IOException {
         long gen = generation + 1;
         buf.clear();
         buf.putInt(MAGIC).putLong(gen).putLong(nextPosition).put((byte) kinds);
@@ -144,8 +146,15 @@ final class HighWater {
         while (buf.hasRemaining()) {
             at += channel.write(buf, at);
         }
-        channel.force(false);
+        if (force) {
+            channel.force(false);
+        }
         generation = gen;
+    }
+
+    /** Forces what was written to the device. */
+    void force() throws IOException {
+        channel.force(false);
     }
 
     Path path() {
