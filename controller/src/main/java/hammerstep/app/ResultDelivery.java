@@ -64,8 +64,11 @@ final class ResultDelivery implements AutoCloseable {
             try {
                 FileOutbox journal = FileOutbox.open(storage);
                 Outbox.Recovery r = journal.recovery();
-                if (!r.clean()) {
+                if (!r.notes().isEmpty() || r.tornBytes() != 0) {
                     LOG.warn("result journal in {} recovered: {}", storage.dir(), String.join("; ", r.notes()));
+                }
+                for (Outbox.Loss l : r.losses()) {
+                    LOG.error("RESULTS_LOST: {}", OutboxResultSink.lossMessage(l));
                 }
                 LOG.info("results journal {}: {} pending from before", storage.dir(), journal.backlog());
                 outbox = journal;
@@ -74,7 +77,13 @@ final class ResultDelivery implements AutoCloseable {
                         + e.getMessage(), 1);
             }
         }
-        ResultSink sink = new OutboxResultSink(outbox, id);
+        OutboxResultSink sink = new OutboxResultSink(outbox, id);
+        try {
+            sink.reportLosses(); // the alarms are on their way before the first result of this run
+        } catch (ResultStoreException e) {
+            throw new UserError("storage: cannot store the alarm for results lost from " + storage.dir() + ": "
+                    + e.getMessage(), 1);
+        }
         JournalWriter journal = new JournalWriter(sink, outbox, JournalWriter.DEFAULT_CAPACITY);
         ResultPublisher publisher = null;
         if (broker == null) {

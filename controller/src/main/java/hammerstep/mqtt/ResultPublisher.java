@@ -32,6 +32,7 @@ import java.util.function.Supplier;
 public final class ResultPublisher implements Agent {
 
     private static final Logger LOG = LoggerFactory.getLogger(ResultPublisher.class);
+    private static final long SEQ_CHECK_WAIT_NS = 3_000_000_000L;
 
     private sealed interface Signal { }
 
@@ -54,6 +55,7 @@ public final class ResultPublisher implements Agent {
     private final DeliveryWindow delivery;
     private final StatusMessage status;
     private final RemoteCommands commands;
+    private final SeqCrossCheck seqCheck;
     private final ConcurrentLinkedQueue<Signal> signals = new ConcurrentLinkedQueue<>();
 
     public ResultPublisher(Outbox outbox, StationId station, Supplier<Link> links, StationCommands commands,
@@ -66,6 +68,7 @@ public final class ResultPublisher implements Agent {
         this.delivery = new DeliveryWindow(outbox, topics);
         this.status = new StatusMessage(outbox, station, commands, settings, wall, version);
         this.commands = new RemoteCommands(station, topics, commands, settings, clock, wall);
+        this.seqCheck = new SeqCrossCheck(outbox, topics.status(), status.startedText(), SEQ_CHECK_WAIT_NS);
     }
 
     /**
@@ -99,7 +102,9 @@ public final class ResultPublisher implements Agent {
             return work;
         }
         try {
-            work += delivery.send(connection.link());
+            if (seqCheck.readyToSend(now)) {
+                work += delivery.send(connection.link());
+            }
         } catch (IOException e) {
             drop(now, e.getMessage());
             return work;
@@ -143,6 +148,7 @@ public final class ResultPublisher implements Agent {
         }
         // two places of the broker's receive maximum stay free for status and command responses
         delivery.restart(Math.max(1, Math.min(settings.inflight(), receiveMax - 2)));
+        seqCheck.subscribe(connection.link(), now);
         publishStatus(now);
         LOG.info("connected to {}; {} results to send", settings.url(), outbox.backlog());
     }
@@ -152,6 +158,7 @@ public final class ResultPublisher implements Agent {
             return;
         }
         long delayMs = connection.drop(now);
+        seqCheck.connectionLost();
         LOG.warn("connection to {} lost ({}); {} results kept; reconnecting in {} ms", settings.url(), cause,
                 outbox.backlog(), delayMs);
     }
@@ -196,7 +203,7 @@ public final class ResultPublisher implements Agent {
                 if (ack.tag > 0 && !delivery.acknowledged(ack.tag, ack.ok)) {
                     drop(now, "broker refused a result: " + ack.detail);
                 }
-            } else if (s instanceof Incoming in) {
+            } else if (s instanceof Incoming in && !seqCheck.onMessage(in.topic, in.payload)) {
                 commands.onMessage(connection.link(), in.topic, in.payload, in.expiryS, in.responseTopic,
                         in.correlation, status, connection.connected());
             }

@@ -10,6 +10,7 @@ import java.io.IOException;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.UUID;
 
@@ -30,6 +31,11 @@ final class StatusMessage {
     private final Clock wall;
     private final String version;
     private final Instant started;
+
+    /** This run's {@code started} as the status writes it. */
+    String startedText() {
+        return ResultMessages.time(started);
+    }
     private long statusSeq;
     private long nextStatusNs;
     private ResultSink.Storage lastStorage;
@@ -76,6 +82,10 @@ final class StatusMessage {
             last.put(k.topic(), outbox.nextSeq(k) - 1);
         }
         m.put("last_seq", last);
+        List<Outbox.Loss> lost = outbox.losses();
+        if (!lost.isEmpty()) {
+            m.put("lost", SeqCrossCheck.lostField(lost));
+        }
         StationCommands.Activity a = activity();
         Map<String, Object> act = new LinkedHashMap<>();
         act.put("mode", a.mode());

@@ -83,6 +83,17 @@ final class DeliveryView implements Outbox {
         return outbox.unfinishedPartJoints();
     }
 
+    @Override
+    public List<Loss> losses() {
+        return outbox.losses();
+    }
+
+    /** The cross check runs on the delivery thread; the outbox takes its own lock against the writer. */
+    @Override
+    public List<Loss> raiseSeqs(long[] lastSeqElsewhere, Restamp restamp) throws ResultStoreException {
+        return outbox.raiseSeqs(lastSeqElsewhere, restamp);
+    }
+
     /** The writer's owner closes the outbox; the view holds nothing of its own. */
     @Override
     public void close() {

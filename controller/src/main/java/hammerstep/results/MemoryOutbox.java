@@ -18,6 +18,10 @@ public final class MemoryOutbox implements Outbox {
     private final Map<MessageKind, Long> nextSeq = new EnumMap<>(MessageKind.class);
     private long nextPosition = 1;
     private long pendingBytes;
+    /** The first seq of each kind this outbox may give without asking: above it is this run's own. */
+    private final long[] runStartSeq = new long[MessageKind.values().length];
+    private final List<Loss> losses = new ArrayList<>();
+    private final List<Loss> unreported = new ArrayList<>();
 
     /**
      * @param maxBytes pending payload bytes at which storage reads FULL
@@ -31,6 +35,7 @@ public final class MemoryOutbox implements Outbox {
         this.lowBytes = lowBytes;
         for (MessageKind k : MessageKind.values()) {
             nextSeq.put(k, 1L);
+            runStartSeq[k.ordinal()] = 1;
         }
     }
 
@@ -75,6 +80,54 @@ public final class MemoryOutbox implements Outbox {
         if (e != null) {
             pendingBytes -= e.payload().length;
         }
+    }
+
+    @Override
+    public synchronized List<Loss> losses() {
+        return List.copyOf(losses);
+    }
+
+    @Override
+    public synchronized List<Loss> unreportedLosses() {
+        return unreported.isEmpty() ? List.of() : List.copyOf(unreported);
+    }
+
+    @Override
+    public synchronized void lossesReported(List<Loss> reported) {
+        unreported.removeAll(reported);
+    }
+
+    /** As the file outbox: a memory outbox starts at seq 1 each run, so a run before may have used more. */
+    @Override
+    public synchronized List<Loss> raiseSeqs(long[] lastSeqElsewhere, Restamp restamp) throws ResultStoreException {
+        long[] delta = new long[runStartSeq.length];
+        List<Loss> found = new ArrayList<>();
+        for (MessageKind kind : MessageKind.values()) {
+            int k = kind.ordinal();
+            if (lastSeqElsewhere[k] >= runStartSeq[k]) {
+                delta[k] = lastSeqElsewhere[k] + 1 - runStartSeq[k];
+                found.add(new Loss(kind, runStartSeq[k], lastSeqElsewhere[k]));
+            }
+        }
+        if (found.isEmpty()) {
+            return List.of();
+        }
+        List<Entry> again = new ArrayList<>(pending.values());
+        pending.clear();
+        for (Entry e : again) {
+            long d = delta[e.kind().ordinal()];
+            long position = nextPosition++;
+            pending.put(position, new Entry(position, e.kind(), e.seq() + d, e.id(),
+                    d == 0 ? e.payload() : restamp.apply(e.payload(), e.seq() + d)));
+        }
+        for (MessageKind kind : MessageKind.values()) {
+            int k = kind.ordinal();
+            nextSeq.put(kind, nextSeq.get(kind) + delta[k]);
+            runStartSeq[k] += delta[k];
+        }
+        losses.addAll(found);
+        unreported.addAll(found);
+        return found;
     }
 
     @Override

@@ -20,20 +20,53 @@ public interface Outbox extends AutoCloseable {
      */
     record Entry(long position, MessageKind kind, long seq, String id, byte[] payload) { }
 
-    /** What the store found when it opened: anything other than a clean start is reported. */
-    record Recovery(int segments, long records, long pending, long tornBytes, List<String> notes) {
+    /**
+     * A range of stored results that is gone from the store: seqs {@code firstSeq} to {@code lastSeq}
+     * (inclusive) of {@code kind} were assigned, and no record of them is left. Their seqs are never
+     * given again.
+     */
+    record Loss(MessageKind kind, long firstSeq, long lastSeq) {
+
+        public Loss {
+            if (firstSeq < 1 || lastSeq < firstSeq) {
+                throw new IllegalArgumentException("expected 1 <= firstSeq <= lastSeq, got " + firstSeq + ".." + lastSeq);
+            }
+        }
+
+        /** How many results the range holds. */
+        public long count() {
+            return lastSeq - firstSeq + 1;
+        }
+
+        /** E.g. {@code joint seq 17 to 20} or {@code part seq 3}. */
+        public String range() {
+            return kind.topic() + " seq " + firstSeq + (lastSeq == firstSeq ? "" : " to " + lastSeq);
+        }
+    }
+
+    /**
+     * What the store found when it opened: anything other than a clean start is reported.
+     *
+     * @param losses ranges of results that were assigned a seq and are gone, in kind and seq order
+     */
+    record Recovery(int segments, long records, long pending, long tornBytes, List<String> notes, List<Loss> losses) {
 
         public Recovery {
             notes = List.copyOf(notes);
+            losses = List.copyOf(losses);
+        }
+
+        public Recovery(int segments, long records, long pending, long tornBytes, List<String> notes) {
+            this(segments, records, pending, tornBytes, notes, List.of());
         }
 
         public static Recovery fresh() {
             return new Recovery(0, 0, 0, 0, List.of());
         }
 
-        /** True when nothing had to be cut or skipped. */
+        /** True when nothing had to be cut or skipped and nothing is gone. */
         public boolean clean() {
-            return tornBytes == 0 && notes.isEmpty();
+            return tornBytes == 0 && notes.isEmpty() && losses.isEmpty();
         }
     }
 
@@ -70,6 +103,48 @@ public interface Outbox extends AutoCloseable {
      * that starts empty.
      */
     List<Entry> unfinishedPartJoints();
+
+    /**
+     * Every loss found since the store opened (at opening, and later by {@link #raiseSeq}), reported
+     * or not; for the status. Any thread.
+     */
+    default List<Loss> losses() {
+        return List.of();
+    }
+
+    /**
+     * The losses not yet reported as stored alarm events, oldest first. The appender reports each
+     * (an event stored through this outbox) and then calls {@link #lossesReported}; until then a
+     * restart finds them again, so a loss is reported at least once.
+     */
+    default List<Loss> unreportedLosses() {
+        return List.of();
+    }
+
+    /** Records durably that {@code reported} (taken from {@link #unreportedLosses()}) are reported. Appender thread. */
+    default void lossesReported(List<Loss> reported) throws ResultStoreException {
+        // a store that loses nothing has nothing to record
+    }
+
+    /**
+     * A cross check from outside the store (the station's own retained status, read back from the
+     * broker) says seqs up to {@code lastSeqElsewhere[kind.ordinal()]} were assigned before (0: not
+     * known). Where that is at or above the first seq this run of the store gave, the seqs from there
+     * up to it are a {@link Loss}, and every record of this run not yet delivered is given a seq above
+     * it ({@code restamp} writes the new seq into a payload; the id stays), so no seq is given twice.
+     * Call before any record of this run is delivered. Any thread.
+     *
+     * @return the losses found, none when the store already knew every seq the cross check names
+     */
+    default List<Loss> raiseSeqs(long[] lastSeqElsewhere, Restamp restamp) throws ResultStoreException {
+        return List.of();
+    }
+
+    /** Writes a new seq into a stored payload. */
+    @FunctionalInterface
+    interface Restamp {
+        byte[] apply(byte[] payload, long newSeq) throws ResultStoreException;
+    }
 
     /** Releases files; pending records stay for the next start. */
     @Override

@@ -18,7 +18,9 @@ import java.util.function.Supplier;
  * <p>When the outbox's storage state changes, the sink records an event of its own
  * ({@code STORAGE_LOW} warning, {@code STORAGE_FULL} alarm, {@code STORAGE_OK} notice), so the
  * station only has to show the lamp. When the outbox reported damage at start, the first call
- * records a {@code OUTBOX_RECOVERED} warning.
+ * records a {@code OUTBOX_RECOVERED} warning. Each range of results the outbox found gone (at start,
+ * or later by the cross check with the broker) is recorded as a {@code RESULTS_LOST} alarm naming
+ * the kind and the seq range, before the record that the call stores; see {@link #reportLosses()}.
  */
 public final class OutboxResultSink implements ResultSink {
 
@@ -143,14 +145,40 @@ public final class OutboxResultSink implements ResultSink {
     }
 
     private void reportRecovery() throws ResultStoreException {
-        if (recoveryReported) {
-            return;
+        if (!recoveryReported) {
+            recoveryReported = true;
+            Outbox.Recovery rec = outbox.recovery();
+            if (!rec.notes().isEmpty() || rec.tornBytes() != 0) {
+                store(new StationEvent(StationEvent.Severity.WARNING, "OUTBOX_RECOVERED",
+                        "result store repaired at start: " + String.join("; ", rec.notes()), null, clock.instant()));
+            }
         }
-        recoveryReported = true;
-        Outbox.Recovery rec = outbox.recovery();
-        if (!rec.clean()) {
-            store(new StationEvent(StationEvent.Severity.WARNING, "OUTBOX_RECOVERED",
-                    "result store repaired at start: " + String.join("; ", rec.notes()), null, clock.instant()));
+        reportLosses();
+    }
+
+    /**
+     * Stores a {@code RESULTS_LOST} alarm for each loss the outbox has not yet seen reported, then
+     * tells the outbox they are. Called before every record the sink stores; call it once at start
+     * too, so a loss found at opening is on its way at once. Station (appender) thread.
+     *
+     * @return the losses reported now
+     */
+    public List<Outbox.Loss> reportLosses() throws ResultStoreException {
+        List<Outbox.Loss> losses = outbox.unreportedLosses();
+        if (losses.isEmpty()) {
+            return losses;
         }
+        for (Outbox.Loss l : losses) {
+            store(new StationEvent(StationEvent.Severity.ALARM, "RESULTS_LOST", lossMessage(l), null, clock.instant()));
+        }
+        outbox.lossesReported(losses);
+        return losses;
+    }
+
+    /** One line for a person: what is gone, and that its seqs are not given again. */
+    public static String lossMessage(Outbox.Loss l) {
+        return l.count() + (l.count() == 1 ? " stored " + l.kind().topic() + " result is" : " stored "
+                + l.kind().topic() + " results are") + " gone from the station's journal: " + l.range()
+                + "; these seqs are not given again (results you already received with them stand)";
     }
 }

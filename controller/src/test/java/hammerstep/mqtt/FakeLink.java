@@ -2,7 +2,9 @@ package hammerstep.mqtt;
 
 import java.io.IOException;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 
 /** A broker connection in memory: records what is published; the test acknowledges by hand. */
 final class FakeLink implements Link {
@@ -10,11 +12,17 @@ final class FakeLink implements Link {
     record Sent(String topic, byte[] payload, boolean retained, long tag, byte[] correlation) { }
 
     boolean refuseConnect;
+    /** False: messages published on a subscribed topic do not come back (a slow or odd broker). */
+    boolean echo = true;
+    /** A subscription the broker refuses (an ACL without read on the topic). */
+    String refuseSubscription;
     int receiveMaximum = 10;
     Events events;
     Will will;
     final List<String> subscriptions = new ArrayList<>();
     final List<Sent> sent = new ArrayList<>();
+    /** Retained messages the broker holds: a subscription to one of these topics gets it first, as a broker does. */
+    final Map<String, byte[]> retained = new HashMap<>();
     boolean closed;
     boolean disconnected;
 
@@ -29,8 +37,15 @@ final class FakeLink implements Link {
     }
 
     @Override
-    public void subscribe(String filter) {
+    public void subscribe(String filter) throws IOException {
+        if (filter.equals(refuseSubscription)) {
+            throw new IOException("broker refused the subscription to " + filter + " (reason 135)");
+        }
         subscriptions.add(filter);
+        byte[] r = retained.get(filter);
+        if (r != null && events != null) {
+            events.message(filter, r, null, null, null);
+        }
     }
 
     @Override
@@ -39,6 +54,9 @@ final class FakeLink implements Link {
             throw new IOException("closed");
         }
         sent.add(new Sent(topic, payload, retained, tag, null));
+        if (echo && subscriptions.contains(topic) && events != null) {
+            events.message(topic, payload.clone(), null, null, null); // a subscriber to its own topic gets it back
+        }
         return true;
     }
 

@@ -63,7 +63,8 @@ class ResultPublisherTest {
     void connectsSubscribesToCommandsAndPublishesRetainedOnlineStatusWithAnOfflineWill() throws Exception {
         cycle();
         FakeLink l = link();
-        assertThat(l.subscriptions).containsExactly("hammerstep/v1/plant-north/axle-2/hub-fit-1/cmd/+");
+        assertThat(l.subscriptions).containsExactly("hammerstep/v1/plant-north/axle-2/hub-fit-1/cmd/+",
+                "hammerstep/v1/plant-north/axle-2/hub-fit-1/status"); // its own status, read back as a seq cross check
         assertThat(l.will.topic()).isEqualTo("hammerstep/v1/plant-north/axle-2/hub-fit-1/status");
         assertThat(json(l.will.payload()).get("state").asText()).isEqualTo("offline");
         MessageSchemas.assertValid(l.will.payload());

@@ -52,6 +52,26 @@ public class ForwardingOutbox implements Outbox {
     }
 
     @Override
+    public List<Loss> losses() {
+        return inner.losses();
+    }
+
+    @Override
+    public List<Loss> unreportedLosses() {
+        return inner.unreportedLosses();
+    }
+
+    @Override
+    public void lossesReported(List<Loss> reported) throws ResultStoreException {
+        inner.lossesReported(reported);
+    }
+
+    @Override
+    public List<Loss> raiseSeqs(long[] lastSeqElsewhere, Restamp restamp) throws ResultStoreException {
+        return inner.raiseSeqs(lastSeqElsewhere, restamp);
+    }
+
+    @Override
     public void close() {
         inner.close();
     }

@@ -132,4 +132,30 @@ class OutboxConformanceTest {
         }
         assertThat(seen).containsExactly(ResultSink.Storage.OK, ResultSink.Storage.LOW, ResultSink.Storage.FULL);
     }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"memory", "file"})
+    void aCrossCheckThatKnewHigherSeqsGivesThisRunsRecordsSeqsAboveThemInTheirOrder(String kind) throws Exception {
+        Outbox box = open(kind);
+        add(box, MessageKind.JOINT, "j");
+        add(box, MessageKind.PART, "p");
+        add(box, MessageKind.JOINT, "j");
+        assertThat(box.raiseSeqs(new long[] {0, 0, 0}, (p, s) -> p)).isEmpty();
+        List<Outbox.Loss> found = box.raiseSeqs(new long[] {5, 0, 0},
+                (p, s) -> (new String(p, StandardCharsets.UTF_8) + s).getBytes(StandardCharsets.UTF_8));
+        assertThat(found).containsExactly(new Outbox.Loss(MessageKind.JOINT, 1, 5));
+        List<Outbox.Entry> all = box.pending(0, 10);
+        assertThat(all).extracting(e -> new String(e.payload(), StandardCharsets.UTF_8))
+                .containsExactly("j6", "p", "j7");
+        assertThat(all).extracting(Outbox.Entry::id).containsExactly("joint-1", "part-1", "joint-2");
+        assertThat(box.nextSeq(MessageKind.JOINT)).isEqualTo(8);
+        assertThat(box.losses()).containsExactly(new Outbox.Loss(MessageKind.JOINT, 1, 5));
+        assertThat(box.unreportedLosses()).containsExactly(new Outbox.Loss(MessageKind.JOINT, 1, 5));
+        box.lossesReported(box.unreportedLosses());
+        assertThat(box.unreportedLosses()).isEmpty();
+        assertThat(box.losses()).hasSize(1);
+        assertThat(box.raiseSeqs(new long[] {5, 0, 0}, (p, s) -> p)).as("the same check again finds nothing").isEmpty();
+        add(box, MessageKind.JOINT, "j");
+        assertThat(box.pending(0, 10)).extracting(Outbox.Entry::seq).containsExactly(6L, 1L, 7L, 8L);
+    }
 }

@@ -50,6 +50,16 @@ public final class FileOutbox implements Outbox {
     private final TreeMap<Long, Loc> jointsAfterLastPart = new TreeMap<>();
     private List<Entry> unfinishedPartJoints = List.of();
     private final long[] nextSeq = new long[MessageKind.values().length];
+    private final long[] floorSeq = new long[MessageKind.values().length];
+    private final List<Loss> losses = new ArrayList<>();
+    private final List<Loss> unreported = new ArrayList<>();
+    private HighWater highWater;
+    /** The counters as they stood when the store opened: what this run assigned lies at or above them. */
+    private final long[] runStartSeq = new long[MessageKind.values().length];
+    private long runStartPosition;
+    private long highWaterFailures;
+    /** The high-water file was written since it was last forced. */
+    private boolean highWaterDirty;
     private final CRC32C crc = new CRC32C();
     private ByteBuffer out = ByteBuffer.allocate(64 * 1024);
     private long nextPosition = 1;
@@ -65,6 +75,7 @@ public final class FileOutbox implements Outbox {
         this.lockChannel = lockChannel;
         this.lock = lock;
         java.util.Arrays.fill(nextSeq, 1L);
+        java.util.Arrays.fill(floorSeq, 1L);
     }
 
     /** Opens (or creates) the journal in {@code settings.dir()}, measuring free space on its volume. */
@@ -98,15 +109,27 @@ public final class FileOutbox implements Outbox {
     // ---- recovery --------------------------------------------------------------------------------
 
     private void recover() throws IOException, ResultStoreException {
-        List<Long> numbers = SegmentFile.numbersIn(settings.dir());
         List<String> notes = new ArrayList<>();
+        highWater = HighWater.open(settings.dir(), nextSeq.length);
+        HighWater.State state = highWater.read();
+        List<Long> numbers = SegmentFile.numbersIn(settings.dir());
+        if (state == null && !(highWater.created() && numbers.isEmpty())) {
+            notes.add(highWater.created()
+                    ? HighWater.NAME + " was missing: seq continues above the highest found in the journal"
+                    : HighWater.NAME + " was damaged: seq continues above the highest found in the journal");
+        }
         Index index = new Index();
         long records = 0;
         long torn = 0;
         for (int i = 0; i < numbers.size(); i++) {
             boolean newest = i == numbers.size() - 1;
+            if (i > 0 && numbers.get(i) != numbers.get(i - 1) + 1) {
+                notes.add("segments " + SegmentFile.name(numbers.get(i - 1) + 1) + " to "
+                        + SegmentFile.name(numbers.get(i) - 1) + " are missing");
+            }
             SegmentFile seg = SegmentFile.openExisting(settings.dir(), numbers.get(i));
             segments.add(seg);
+            index.oldest = i == 0;
             long[] counts = seg.scan(newest, notes, crc, nextSeq.length, index);
             records += counts[0];
             torn += counts[1];
@@ -114,6 +137,7 @@ public final class FileOutbox implements Outbox {
         for (SegmentFile s : segments) {
             totalBytes += s.size;
         }
+        List<Loss> found = reconcile(state, index);
         if (segments.isEmpty()) {
             startSegment(1);
         } else {
@@ -122,8 +146,13 @@ public final class FileOutbox implements Outbox {
                 writeStart(active);
             }
         }
+        highWater.write(nextPosition, nextSeq, -1, -1, floorSeq, true);
         refreshStorage();
-        recovery = new Recovery(numbers.size(), records, pending.size(), torn, notes);
+        losses.addAll(found);
+        unreported.addAll(found);
+        System.arraycopy(nextSeq, 0, runStartSeq, 0, nextSeq.length);
+        runStartPosition = nextPosition;
+        recovery = new Recovery(numbers.size(), records, pending.size(), torn, notes, found);
         List<Entry> unfinished = new ArrayList<>(jointsAfterLastPart.size());
         for (Map.Entry<Long, Loc> e : jointsAfterLastPart.entrySet()) {
             unfinished.add(read(e.getKey(), e.getValue()));
@@ -132,10 +161,72 @@ public final class FileOutbox implements Outbox {
         jointsAfterLastPart.clear();
     }
 
+    /**
+     * Sets the counters to the highest of the journal and the high-water file, the floor (the first
+     * seq retention still keeps) from the file or, without it, from the oldest segment; returns
+     * the ranges between the floor and the high water that no record and no earlier report covers.
+     */
+    private List<Loss> reconcile(HighWater.State state, Index index) {
+        if (state != null) {
+            nextPosition = Math.max(nextPosition, state.nextPosition());
+        }
+        List<Loss> found = new ArrayList<>();
+        for (MessageKind kind : MessageKind.values()) {
+            int k = kind.ordinal();
+            if (state != null) {
+                nextSeq[k] = Math.max(nextSeq[k], state.nextSeq()[k]);
+                floorSeq[k] = state.floorSeq()[k];
+            } else if (index.oldestStart != null) {
+                floorSeq[k] = index.oldestStart[k];
+            } else {
+                floorSeq[k] = Math.min(index.lowest[k], nextSeq[k]);
+            }
+            floorSeq[k] = Math.max(1, floorSeq[k]);
+            long[][] covered = index.covered(k);
+            long from = floorSeq[k];
+            long top = nextSeq[k] - 1;
+            for (long[] range : covered) {
+                if (range[0] > from) {
+                    found.add(new Loss(kind, from, Math.min(range[0] - 1, top)));
+                }
+                from = Math.max(from, range[1] + 1);
+                if (from > top) {
+                    break;
+                }
+            }
+            if (from <= top) {
+                found.add(new Loss(kind, from, top));
+            }
+        }
+        found.addAll(index.foundEarlier);
+        found.sort((a, b) -> a.kind() != b.kind() ? a.kind().compareTo(b.kind()) : Long.compare(a.firstSeq(), b.firstSeq()));
+        return found;
+    }
+
     /** Rebuilds the counters and the index of undelivered results from the records a scan finds. */
     private final class Index implements SegmentFile.Records {
+        boolean oldest;
+        /** The START counters of the oldest segment, when it has one. */
+        long[] oldestStart;
+        final long[] lowest = new long[nextSeq.length];
+        private final long[][] seen = new long[nextSeq.length][];
+        private final int[] seenCount = new int[nextSeq.length];
+        private final List<long[]> gone = new ArrayList<>();
+        /** Losses a cross check found in an earlier run and that were not reported yet. */
+        final List<Loss> foundEarlier = new ArrayList<>();
+
+        Index() {
+            java.util.Arrays.fill(lowest, Long.MAX_VALUE);
+            for (int k = 0; k < seen.length; k++) {
+                seen[k] = new long[64];
+            }
+        }
+
         @Override
         public void start(long position, long[] seqs) {
+            if (oldest && oldestStart == null) {
+                oldestStart = seqs.clone();
+            }
             nextPosition = Math.max(nextPosition, position);
             for (int k = 0; k < nextSeq.length; k++) {
                 nextSeq[k] = Math.max(nextSeq[k], seqs[k]);
@@ -153,8 +244,15 @@ public final class FileOutbox implements Outbox {
                 jointsAfterLastPart.put(position, loc);
             }
             seg.pending++;
+            int k = kind.ordinal();
+            seg.lastSeq[k] = Math.max(seg.lastSeq[k], seq);
             nextPosition = Math.max(nextPosition, position + 1);
-            nextSeq[kind.ordinal()] = Math.max(nextSeq[kind.ordinal()], seq + 1);
+            nextSeq[k] = Math.max(nextSeq[k], seq + 1);
+            lowest[k] = Math.min(lowest[k], seq);
+            if (seenCount[k] == seen[k].length) {
+                seen[k] = java.util.Arrays.copyOf(seen[k], seen[k].length * 2);
+            }
+            seen[k][seenCount[k]++] = seq;
         }
 
         @Override
@@ -163,6 +261,33 @@ public final class FileOutbox implements Outbox {
             if (loc != null) {
                 loc.segment.pending--;
             }
+        }
+
+        @Override
+        public void gone(MessageKind kind, long firstSeq, long lastSeq, boolean reported) {
+            gone.add(new long[] {kind.ordinal(), firstSeq, lastSeq});
+            Loss loss = new Loss(kind, firstSeq, lastSeq);
+            if (reported) {
+                foundEarlier.remove(loss);
+            } else if (!foundEarlier.contains(loss)) {
+                foundEarlier.add(loss);
+            }
+            nextSeq[kind.ordinal()] = Math.max(nextSeq[kind.ordinal()], lastSeq + 1);
+        }
+
+        /** The seq ranges of kind {@code k} that a record or a report covers, sorted by their start. */
+        long[][] covered(int k) {
+            List<long[]> ranges = new ArrayList<>(seenCount[k] + gone.size());
+            for (int i = 0; i < seenCount[k]; i++) {
+                ranges.add(new long[] {seen[k][i], seen[k][i]});
+            }
+            for (long[] g : gone) {
+                if (g[0] == k) {
+                    ranges.add(new long[] {g[1], g[2]});
+                }
+            }
+            ranges.sort((a, b) -> Long.compare(a[0], b[0]));
+            return ranges.toArray(new long[0][]);
         }
     }
 
@@ -187,23 +312,139 @@ public final class FileOutbox implements Outbox {
         }
         long position = nextPosition;
         try {
-            rotateIfFull(JournalFormat.FRAME + bodyLength);
-            ByteBuffer rec = body(JournalFormat.FRAME + bodyLength);
-            rec.put(JournalFormat.RESULT).putLong(position).put((byte) kind.ordinal()).putLong(seq)
-                    .putShort((short) idBytes.length).put(idBytes).put(payload);
-            JournalFormat.seal(rec, crc);
-            long at = active.size;
-            write(rec, true);
-            pending.put(position, new Loc(active, at + JournalFormat.FRAME + JournalFormat.RESULT_FIXED + idBytes.length,
-                    payload.length, kind, seq, id));
-            active.pending++;
+            writeResult(position, kind, seq, idBytes, id, payload);
         } catch (IOException e) {
             throw new ResultStoreException("cannot store " + kind.topic() + " " + seq + ": " + e.getMessage(), e);
+        }
+        try {
+            // after the record, before the caller shows it: a record lost once confirmed is seen as lost,
+            // one that power cut short before it was confirmed (never shown, never sent) is not
+            // not forced here (one forced write per result is the journal's): forced before it is sent
+            highWater.write(position + 1, nextSeq, kind.ordinal(), seq + 1, floorSeq, false);
+            highWaterDirty = true;
+        } catch (IOException e) {
+            // the record is stored and must not be stored again under its seq: the next write catches up
+            highWaterFailures++;
         }
         nextPosition = position + 1;
         nextSeq[kind.ordinal()] = seq + 1;
         refreshStorage();
         return position;
+    }
+
+    /** Appends one RESULT record, forced, and indexes it as pending. */
+    private void writeResult(long position, MessageKind kind, long seq, byte[] idBytes, String id, byte[] payload)
+            throws IOException {
+        int bodyLength = JournalFormat.RESULT_FIXED + idBytes.length + payload.length;
+        rotateIfFull(JournalFormat.FRAME + bodyLength);
+        ByteBuffer rec = body(JournalFormat.FRAME + bodyLength);
+        rec.put(JournalFormat.RESULT).putLong(position).put((byte) kind.ordinal()).putLong(seq)
+                .putShort((short) idBytes.length).put(idBytes).put(payload);
+        JournalFormat.seal(rec, crc);
+        long at = active.size;
+        write(rec, true);
+        pending.put(position, new Loc(active, at + JournalFormat.FRAME + JournalFormat.RESULT_FIXED + idBytes.length,
+                payload.length, kind, seq, id));
+        active.pending++;
+        active.lastSeq[kind.ordinal()] = Math.max(active.lastSeq[kind.ordinal()], seq);
+    }
+
+    // ---- losses ----------------------------------------------------------------------------------
+
+    @Override
+    public synchronized List<Loss> losses() {
+        return List.copyOf(losses);
+    }
+
+    @Override
+    public synchronized List<Loss> unreportedLosses() {
+        return unreported.isEmpty() ? List.of() : List.copyOf(unreported);
+    }
+
+    /** Writes a GONE record, forced, for each of {@code reported} still unreported. */
+    @Override
+    public synchronized void lossesReported(List<Loss> reported) throws ResultStoreException {
+        checkOpen();
+        for (Loss l : reported) {
+            if (!unreported.contains(l)) {
+                continue;
+            }
+            try {
+                writeGone(l, true);
+            } catch (IOException e) {
+                throw new ResultStoreException("cannot record that the loss of " + l.range() + " was reported: "
+                        + e.getMessage(), e);
+            }
+            unreported.remove(l);
+        }
+    }
+
+    private void writeGone(Loss l, boolean reported) throws IOException {
+        rotateIfFull(JournalFormat.FRAME + JournalFormat.GONE_BODY);
+        ByteBuffer rec = body(JournalFormat.FRAME + JournalFormat.GONE_BODY);
+        rec.put(JournalFormat.GONE).put((byte) l.kind().ordinal()).put((byte) (reported ? 1 : 0))
+                .putLong(l.firstSeq()).putLong(l.lastSeq());
+        JournalFormat.seal(rec, crc);
+        write(rec, true);
+        int k = l.kind().ordinal();
+        active.lastSeq[k] = Math.max(active.lastSeq[k], l.lastSeq());
+    }
+
+    /**
+     * Gives the kinds whose seqs {@code lastSeqElsewhere} (indexed by kind; 0 for unknown) says were
+     * assigned before this store knew them new seqs above those: the records of this run still
+     * pending are written again, in their order, under new positions (the raised kinds with new seqs
+     * through {@code restamp}), and the old records are marked done. Any thread.
+     */
+    @Override
+    public synchronized List<Loss> raiseSeqs(long[] lastSeqElsewhere, Restamp restamp) throws ResultStoreException {
+        checkOpen();
+        long[] delta = new long[nextSeq.length];
+        List<Loss> found = new ArrayList<>();
+        for (MessageKind kind : MessageKind.values()) {
+            int k = kind.ordinal();
+            if (lastSeqElsewhere[k] >= runStartSeq[k]) {
+                delta[k] = lastSeqElsewhere[k] + 1 - runStartSeq[k];
+                found.add(new Loss(kind, runStartSeq[k], lastSeqElsewhere[k]));
+            }
+        }
+        if (found.isEmpty()) {
+            return List.of();
+        }
+        List<Map.Entry<Long, Loc>> again = new ArrayList<>(pending.tailMap(runStartPosition, true).entrySet());
+        long[] newNext = nextSeq.clone();
+        for (int k = 0; k < newNext.length; k++) {
+            newNext[k] += delta[k];
+        }
+        try {
+            highWater.write(nextPosition + again.size(), newNext, -1, -1, floorSeq, true);
+            for (Loss l : found) {
+                writeGone(l, false);
+            }
+            for (Map.Entry<Long, Loc> e : again) {
+                Loc loc = e.getValue();
+                int k = loc.kind.ordinal();
+                byte[] payload = read(e.getKey(), loc).payload();
+                long seq = loc.seq + delta[k];
+                if (delta[k] != 0) {
+                    payload = restamp.apply(payload, seq);
+                }
+                writeResult(nextPosition, loc.kind, seq, loc.id.getBytes(StandardCharsets.UTF_8), loc.id, payload);
+                nextPosition++;
+                markDelivered(e.getKey());
+            }
+            active.force();
+        } catch (IOException e) {
+            throw new ResultStoreException("cannot give the results of this run new seqs: " + e.getMessage(), e);
+        }
+        System.arraycopy(newNext, 0, nextSeq, 0, nextSeq.length);
+        for (int k = 0; k < runStartSeq.length; k++) {
+            runStartSeq[k] += delta[k];
+        }
+        losses.addAll(found);
+        unreported.addAll(found);
+        refreshStorage();
+        return found;
     }
 
     @Override
@@ -230,6 +471,17 @@ public final class FileOutbox implements Outbox {
         }
     }
 
+    private void forceHighWater() throws ResultStoreException {
+        if (highWaterDirty) {
+            try {
+                highWater.force();
+                highWaterDirty = false;
+            } catch (IOException e) {
+                throw new ResultStoreException("cannot force " + HighWater.NAME + ": " + e.getMessage(), e);
+            }
+        }
+    }
+
     private ByteBuffer body(int size) {
         if (out.capacity() < size) {
             out = ByteBuffer.allocate(Math.max(size, out.capacity() * 2));
@@ -246,6 +498,10 @@ public final class FileOutbox implements Outbox {
     private void rotateIfFull(int recordLength) throws IOException {
         if (active.size + recordLength > settings.segmentBytes() && active.size > startLength()) {
             active.force();
+            if (highWaterDirty) {
+                highWater.force();
+                highWaterDirty = false;
+            }
             startSegment(active.number + 1);
             applyRetention();
         }
@@ -288,6 +544,7 @@ public final class FileOutbox implements Outbox {
         int n = 0;
         synchronized (this) {
             checkOpen();
+            forceHighWater(); // no record leaves the station before its seq is on the device as given
             int size = Math.min(max, pending.size());
             positions = new long[size];
             locs = new Loc[size];
@@ -340,6 +597,14 @@ public final class FileOutbox implements Outbox {
     /** Bytes the journal's segment files take now. */
     public synchronized long journalBytes() {
         return totalBytes;
+    }
+
+    /**
+     * High-water writes that failed after their record was stored (the record stands; the file is
+     * one result behind until the next append writes it).
+     */
+    public synchronized long highWaterFailures() {
+        return highWaterFailures;
     }
 
     /** Number of segment files now. */
@@ -395,6 +660,7 @@ public final class FileOutbox implements Outbox {
                 break;
             }
             try {
+                retire(oldest);
                 oldest.delete();
             } catch (IOException e) {
                 break;
@@ -407,6 +673,15 @@ public final class FileOutbox implements Outbox {
         return deleted;
     }
 
+    /** Raises the floor past the seqs of {@code seg} and makes that durable before the segment goes. */
+    private void retire(SegmentFile seg) throws IOException {
+        for (int k = 0; k < floorSeq.length; k++) {
+            floorSeq[k] = Math.max(floorSeq[k], seg.lastSeq[k] + 1);
+        }
+        highWater.write(nextPosition, nextSeq, -1, -1, floorSeq, true);
+        highWaterDirty = false;
+    }
+
     // ---- lifecycle -------------------------------------------------------------------------------
 
     @Override
@@ -417,11 +692,17 @@ public final class FileOutbox implements Outbox {
         closed = true;
         try {
             active.force();
+            if (highWaterDirty) {
+                highWater.force();
+            }
         } catch (IOException ignored) {
             // marks not forced are sent again: at least once
         }
         for (SegmentFile s : segments) {
             s.closeQuietly();
+        }
+        if (highWater != null) {
+            highWater.close();
         }
         try {
             lock.release();

@@ -10,6 +10,9 @@ import java.util.zip.CRC32C;
  *   <li>{@code START}: type u8, segment number u64, next position u64, next seq u64 per kind</li>
  *   <li>{@code RESULT}: type u8, position u64, kind u8, seq u64, id length u16, id UTF-8, payload</li>
  *   <li>{@code DELIVERED}: type u8, position u64</li>
+ *   <li>{@code GONE}: type u8, kind u8, reported u8, first seq u64, last seq u64: a range of
+ *       results found missing; reported 0 when found by a cross check and not yet reported (a
+ *       later start reports it), 1 once reported as an alarm (a later start does not report it again)</li>
  * </ul>
  * The magic lets a reader find the next whole record after damage.
  */
@@ -21,9 +24,11 @@ final class JournalFormat {
     static final byte START = 1;
     static final byte RESULT = 2;
     static final byte DELIVERED = 3;
+    static final byte GONE = 4;
     /** Bytes of a RESULT body before the id. */
     static final int RESULT_FIXED = 1 + 8 + 1 + 8 + 2;
     static final int DELIVERED_BODY = 1 + 8;
+    static final int GONE_BODY = 1 + 1 + 1 + 8 + 8;
 
     private JournalFormat() {
     }

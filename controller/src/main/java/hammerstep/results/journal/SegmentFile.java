@@ -33,6 +33,9 @@ final class SegmentFile {
 
         /** A DELIVERED record. */
         void delivered(long position);
+
+        /** A GONE record: seqs {@code firstSeq} to {@code lastSeq} of {@code kind} were found missing (and reported). */
+        void gone(MessageKind kind, long firstSeq, long lastSeq, boolean reported);
     }
 
     final long number;
@@ -42,12 +45,15 @@ final class SegmentFile {
     long size;
     /** RESULT records in this segment not yet marked delivered (kept by the outbox). */
     int pending;
+    /** The highest seq of each kind among this segment's RESULT records, 0 for none (kept by the outbox). */
+    long[] lastSeq;
 
     private SegmentFile(long number, Path path, FileChannel channel, long size) {
         this.number = number;
         this.path = path;
         this.channel = channel;
         this.size = size;
+        this.lastSeq = new long[MessageKind.values().length];
     }
 
     /** The segment numbers in {@code dir}, oldest first; files that only look like segments are left alone. */
@@ -82,7 +88,12 @@ final class SegmentFile {
     }
 
     private static Path path(Path dir, long number) {
-        return dir.resolve(String.format("seg-%010d.hsj", number));
+        return dir.resolve(name(number));
+    }
+
+    /** The file name of segment {@code number}. */
+    static String name(long number) {
+        return String.format("seg-%010d.hsj", number);
     }
 
     /**
@@ -155,6 +166,14 @@ final class SegmentFile {
                     body + length - payloadAt);
         } else if (type == JournalFormat.DELIVERED && length >= JournalFormat.DELIVERED_BODY) {
             records.delivered(buf.getLong(body + 1));
+        } else if (type == JournalFormat.GONE && length >= JournalFormat.GONE_BODY) {
+            MessageKind kind = MessageKind.ofCode(buf.get(body + 1));
+            boolean reported = buf.get(body + 2) != 0;
+            long first = buf.getLong(body + 3);
+            long last = buf.getLong(body + 11);
+            if (kind != null && first >= 1 && last >= first) {
+                records.gone(kind, first, last, reported);
+            }
         }
     }
 

@@ -233,6 +233,53 @@ class StationJournalFaultTest {
         }
     }
 
+    @Test
+    void theOnlySegmentLostIsReportedByKindAndRangeAndSeqGoesOnAboveIt() throws Exception {
+        List<Outbox.Entry> before;
+        try (FileOutbox box = openJournal()) {
+            start(box);
+            onePart("SN-40");
+            onePart("SN-41");
+            before = box.pending(0, 100);
+            for (Outbox.Entry e : before) {
+                box.markDelivered(e.position()); // all delivered: the subscriber has them
+            }
+        }
+        long lastJoint = lastSeq(before, MessageKind.JOINT);
+        long lastPart = lastSeq(before, MessageKind.PART);
+        assertThat(lastJoint).isEqualTo(4);
+        try (Stream<Path> s = Files.list(dir)) {
+            for (Path p : s.filter(p -> p.getFileName().toString().endsWith(".hsj")).toList()) {
+                Files.delete(p); // a restore that left the journal out
+            }
+        }
+        try (FileOutbox box = openJournal()) {
+            start(box);
+            onePart("SN-42");
+            List<Outbox.Entry> after = box.pending(0, 100);
+            List<String> alarms = after.stream().filter(e -> e.kind() == MessageKind.EVENT)
+                    .map(e -> new String(e.payload(), java.nio.charset.StandardCharsets.UTF_8))
+                    .filter(p -> p.contains("\"RESULTS_LOST\"")).toList();
+            assertThat(alarms).hasSize(2);
+            assertThat(alarms.get(0)).contains("\"ALARM\"", "joint seq 1 to " + lastJoint);
+            assertThat(alarms.get(1)).contains("\"ALARM\"", "part seq " + (lastPart == 1 ? "1" : "1 to " + lastPart));
+            assertThat(after.stream().filter(e -> e.kind() == MessageKind.JOINT).map(Outbox.Entry::seq))
+                    .containsExactly(lastJoint + 1, lastJoint + 2);
+            assertThat(after.stream().filter(e -> e.kind() == MessageKind.PART).map(Outbox.Entry::seq))
+                    .containsExactly(lastPart + 1);
+            for (Outbox.Entry e : after) {
+                hammerstep.results.MessageSchemas.assertValid(e.payload());
+            }
+        }
+        try (FileOutbox box = openJournal()) {
+            assertThat(box.recovery().losses()).as("reported once, not at every start").isEmpty();
+        }
+    }
+
+    private static long lastSeq(List<Outbox.Entry> entries, MessageKind kind) {
+        return entries.stream().filter(e -> e.kind() == kind).mapToLong(Outbox.Entry::seq).max().orElse(0);
+    }
+
     /** An in-memory outbox whose appends can be made to fail. */
     private static final class FailingOutbox extends ForwardingOutbox {
         boolean failing;

@@ -1,10 +1,15 @@
 package hammerstep.sim.broker;
 
+import hammerstep.mqtt.BrokerSettings;
+import hammerstep.mqtt.Link;
 import hammerstep.mqtt.RecordingStation;
+import hammerstep.mqtt.Topics;
+import hammerstep.mqtt.paho.PahoLink;
 import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.paho.QualityClient;
 import hammerstep.results.MessageSchemas;
 import hammerstep.results.ResultSink;
+import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
@@ -30,6 +35,35 @@ class EmbeddedBrokerDeliveryIT {
 
     @TempDir
     Path state;
+
+    /**
+     * Every test starts a new station (a new store) under the same identity on the one broker: the
+     * retained status an earlier test left would make the station's seq cross check (rightly) give
+     * seqs above it. Each test here is a first start of its station, so that status is cleared.
+     */
+    @BeforeEach
+    void noStatusLeftByAnEarlierTest() throws Exception {
+        PahoLink l = new PahoLink(BrokerSettings.plain(BROKER.url(), "clear-status"));
+        try {
+            l.connect(new Link.Will("test/clear-status", new byte[0]), new Link.Events() {
+                @Override
+                public void connectionLost(String cause) {
+                }
+
+                @Override
+                public void acknowledged(long tag, boolean ok, String detail) {
+                }
+
+                @Override
+                public void message(String topic, byte[] payload, Long expiryS, String responseTopic,
+                                    byte[] correlation) {
+                }
+            });
+            l.publishAndWait(new Topics(TestResults.STATION).status(), new byte[0], true, 10_000);
+        } finally {
+            l.disconnect();
+        }
+    }
 
     private static QualityClient subscriber(Received got, String name) throws Exception {
         QualityClient q = QualityClient.connect(BROKER.url(), name, got::add);
