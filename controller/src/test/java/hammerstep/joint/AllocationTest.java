@@ -31,22 +31,25 @@ class AllocationTest {
         JointMonitor m = new JointMonitor(p, JointMonitor.replayConditioning(p), 50_000, 512, events);
         long tid = Thread.currentThread().getId();
         // a first pass warms up class loading and the counters themselves
-        feed(m, x);
+        feed(m, x, 0);
         long before = threads.getThreadAllocatedBytes(tid);
         for (int pass = 0; pass < 10; pass++) {
-            feed(m, x);
+            feed(m, x, pass + 1);
         }
         long allocated = threads.getThreadAllocatedBytes(tid) - before;
         assertThat(rundowns[0]).isZero();
         assertThat(m.blowsSoFar()).isEqualTo(660);
+        assertThat(m.inputStage().gapsDuringRundowns()).as("the passes follow each other without a gap").isZero();
         // one object per block would be at least 16 B × 1750 blocks; the counter itself and the JIT's
         // bookkeeping account for a few hundred bytes at most
         assertThat(allocated).as("bytes allocated over %d blocks", 10 * (x.length / 512)).isLessThan(1024);
     }
 
-    private static void feed(JointMonitor m, float[] x) {
+    /** One pass over {@code x}, in time after the passes before it (the blocks follow without a gap). */
+    private static void feed(JointMonitor m, float[] x, int pass) {
+        long passStart = (long) pass * (x.length / 512) * 512;
         for (int off = 0; off + 512 <= x.length; off += 512) {
-            m.onSamples(x, off, 512, off * 20_000L);
+            m.onSamples(x, off, 512, (passStart + off) * 20_000L);
         }
     }
 }
