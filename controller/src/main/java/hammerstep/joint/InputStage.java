@@ -18,7 +18,8 @@ import hammerstep.signal.SignalFaults;
  * While a rundown is under way, or when the rundown starts at the block's very first sample (its
  * start may be in the lost samples), the gap is the {@link SignalFaults#DATA_GAP} fault of that
  * rundown: it is judged {@code SENSOR_FAULT}, never GO. Outside a rundown a gap only counts
- * ({@link #gapsOutsideRundowns()}, shown in the station's status).
+ * ({@link #gapsOutsideRundowns()}, shown in the station's status). Gap blocks in a row count as one
+ * gap (missed conversions inside a block are announced for it and show in the next block's stamp).
  *
  * <p>The current monitor tells the stage whether a rundown is under way: auto-zero follows the
  * signal only while it is idle. Allocation-free per block. Single-threaded: the thread that feeds
@@ -34,6 +35,7 @@ public final class InputStage {
     private boolean any;
     private long expectedNs;
     private boolean gapAnnounced;
+    private boolean lastWasGap;
     private int reportedFaults;
     private long gapsOutside;
     private long gapsDuring;
@@ -80,13 +82,15 @@ public final class InputStage {
             faults |= SignalFaults.DATA_GAP;
         }
         boolean taken = monitor.onConditioned(scratch, 0, length, firstSampleNs, faults, rising);
-        if (gap) {
+        // a loss announced for a block also shows in the next block's stamp: one gap, counted once
+        if (gap && !lastWasGap) {
             if (taken) {
                 gapsDuring++;
             } else {
                 gapsOutside++;
             }
         }
+        lastWasGap = gap;
     }
 
     /**
