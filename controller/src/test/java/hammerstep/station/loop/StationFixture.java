@@ -101,6 +101,26 @@ final class StationFixture {
 
     /** One block of the tool's samples into the ring, the clock one block on, one duty cycle of the loop. */
     void cycle() {
+        produce();
+        boolean was = tool.enabled;
+        agent.doWork();
+        if (was && !tool.enabled) {
+            disabledAtNs = clock.nanoTime();
+        }
+    }
+
+    /**
+     * The station thread stalls for {@code blocks} blocks: the tool runs on and its samples go to the
+     * ring, which drops the blocks it has no room for.
+     */
+    void stall(int blocks) {
+        for (int k = 0; k < blocks; k++) {
+            produce();
+        }
+    }
+
+    /** One block of the tool's samples into the ring (dropped there when it is full), the clock one block on. */
+    private void produce() {
         long t0 = clock.nanoTime();
         float[] block = new float[BLOCK];
         for (int i = 0; i < BLOCK; i++) {
@@ -120,11 +140,6 @@ final class StationFixture {
         }
         ring.offer(block, 0, BLOCK, t0);
         clock.advanceNs(BLOCK_NS);
-        boolean was = tool.enabled;
-        agent.doWork();
-        if (was && !tool.enabled) {
-            disabledAtNs = clock.nanoTime();
-        }
     }
 
     void cycles(int n) {
