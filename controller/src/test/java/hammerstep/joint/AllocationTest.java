@@ -45,6 +45,51 @@ class AllocationTest {
         assertThat(allocated).as("bytes allocated over %d blocks", 10 * (x.length / 512)).isLessThan(1024);
     }
 
+    @Test
+    void aSharedStageFeedingTwoProgramsAndItsGapChecksAllocateNothing() {
+        com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+        float[] quiet = PulseTrain.render(50_000, 0.5, List.of(), 0.3, 0.2, 9);
+        JointProgram p = Programs.hubFinal();
+        JointProgram q = Programs.withMaxMs(Programs.hubFinal(), 9000);
+        InputStage stage = new InputStage(JointMonitor.replayConditioning(p), 50_000, 512);
+        int[] faults = new int[1];
+        JointEvents events = new JointEvents() {
+            @Override
+            public void onFault(int f, long atNs) {
+                faults[0] |= f;
+            }
+
+            @Override
+            public void onRundown(JointResult result) {
+            }
+        };
+        JointMonitor a = new JointMonitor(p, stage, 50_000, events);
+        JointMonitor b = new JointMonitor(q, stage, 50_000, events);
+        long tid = Thread.currentThread().getId();
+        long ns = 0;
+        long before = 0;
+        for (int pass = 0; pass < 11; pass++) {
+            if (pass == 1) {
+                before = threads.getThreadAllocatedBytes(tid); // the first pass warms up
+            }
+            for (int off = 0; off + 512 <= quiet.length; off += 512) {
+                JointMonitor m = (off / 512) % 2 == 0 ? a : b;
+                if (off == 1024) {
+                    stage.gap(); // announced by the ring
+                }
+                if (off == 2048) {
+                    ns += 512 * 20_000L; // a block lost, seen in the stamps
+                }
+                m.onSamples(quiet, off, 512, ns);
+                ns += 512 * 20_000L;
+            }
+        }
+        long allocated = threads.getThreadAllocatedBytes(tid) - before;
+        assertThat(stage.gapsOutsideRundowns()).isEqualTo(22);
+        assertThat(faults[0]).isZero();
+        assertThat(allocated).as("bytes allocated over %d blocks", 10 * (quiet.length / 512)).isLessThan(1024);
+    }
+
     /** One pass over {@code x}, in time after the passes before it (the blocks follow without a gap). */
     private static void feed(JointMonitor m, float[] x, int pass) {
         long passStart = (long) pass * (x.length / 512) * 512;
