@@ -126,6 +126,11 @@ public final class InputStage {
         return reportedFaults;
     }
 
+    /** Sample rate in Hz. */
+    public double rateHz() {
+        return conditioner.rateHz();
+    }
+
     public Conditioner conditioner() {
         return conditioner;
     }

@@ -80,21 +80,16 @@ public final class JointMonitor implements PulseSink {
      */
     public JointMonitor(JointProgram program, Conditioning conditioning, double rateHz, int maxBlockLength,
                         JointEvents events) {
-        this(program, new InputStage(conditioning, rateHz, maxBlockLength), rateHz, events);
+        this(program, new InputStage(conditioning, rateHz, maxBlockLength), events);
     }
 
     /**
      * A monitor fed by {@code stage}, the transducer's input stage that the monitors of the other
      * programs share (the station). Feed it through {@link #onSamples} while it is the current one;
      * a monitor not fed misses nothing, since the stage runs on in the current monitor.
-     *
-     * @param rateHz the stage's sample rate
      */
-    public JointMonitor(JointProgram program, InputStage stage, double rateHz, JointEvents events) {
-        if (Math.abs(stage.conditioner().rateHz() - rateHz) > 1e-9 * rateHz) {
-            throw new IllegalArgumentException("input stage rate " + stage.conditioner().rateHz()
-                    + " Hz differs from " + rateHz + " Hz");
-        }
+    public JointMonitor(JointProgram program, InputStage stage, JointEvents events) {
+        double rateHz = stage.rateHz();
         this.program = program;
         this.stage = stage;
         JointProgram.Blows b = program.blows();

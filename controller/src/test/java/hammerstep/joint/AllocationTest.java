@@ -63,8 +63,8 @@ class AllocationTest {
             public void onRundown(JointResult result) {
             }
         };
-        JointMonitor a = new JointMonitor(p, stage, 50_000, events);
-        JointMonitor b = new JointMonitor(q, stage, 50_000, events);
+        JointMonitor a = new JointMonitor(p, stage, events);
+        JointMonitor b = new JointMonitor(q, stage, events);
         long tid = Thread.currentThread().getId();
         long ns = 0;
         long before = 0;

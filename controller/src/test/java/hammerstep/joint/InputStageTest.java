@@ -57,8 +57,8 @@ class InputStageTest {
         RecordingJointEvents snugEvents = new RecordingJointEvents();
         RecordingJointEvents finalEvents = new RecordingJointEvents();
         InputStage stage = new InputStage(CONDITIONING, RATE, BLOCK);
-        JointMonitor snug = new JointMonitor(SNUG, stage, RATE, snugEvents);
-        JointMonitor pass = new JointMonitor(FINAL, stage, RATE, finalEvents);
+        JointMonitor snug = new JointMonitor(SNUG, stage, snugEvents);
+        JointMonitor pass = new JointMonitor(FINAL, stage, finalEvents);
         for (int off = 0; off < x.length; off += BLOCK) {
             (off < switchAt ? snug : pass).onSamples(x, off, BLOCK, ns(off));
         }

@@ -5,7 +5,6 @@ import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.sequence.Pattern;
-import hammerstep.station.TorqueInput;
 
 import java.util.HashMap;
 import java.util.Map;
@@ -33,14 +32,13 @@ final class PatternMonitors {
      * found in {@code before} (equal content and revision) keeps its monitor.
      */
     static Map<JointProgram, JointMonitor> of(Map<String, Pattern> patterns, Map<JointProgram, JointMonitor> before,
-                                              InputStage stage, TorqueInput torque, JointEvents events) {
-        double rate = torque.rateHz();
+                                              InputStage stage, JointEvents events) {
         Map<JointProgram, JointMonitor> next = new HashMap<>();
         for (Pattern pattern : patterns.values()) {
             for (Pattern.Pass pass : pattern.passes()) {
                 JointMonitor kept = before.get(pass.program());
                 next.computeIfAbsent(pass.program(),
-                        p -> kept != null ? kept : new JointMonitor(p, stage, rate, events));
+                        p -> kept != null ? kept : new JointMonitor(p, stage, events));
             }
         }
         return next;

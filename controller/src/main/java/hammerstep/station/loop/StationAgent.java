@@ -102,7 +102,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         if (problem != null) {
             throw new IllegalArgumentException(problem);
         }
-        this.monitors = PatternMonitors.of(this.patternsByModel, Map.of(), stage, ports.torque(), this);
+        this.monitors = PatternMonitors.of(this.patternsByModel, Map.of(), stage, this);
         this.watch = monitors.get(PatternMonitors.firstProgram(this.patternsByModel));
         this.current = watch;
         this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
@@ -420,7 +420,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             return problem;
         }
         patternsByModel = new LinkedHashMap<>(next);
-        monitors = PatternMonitors.of(patternsByModel, monitors, stage, ports.torque(), this);
+        monitors = PatternMonitors.of(patternsByModel, monitors, stage, this);
         watch = monitors.get(PatternMonitors.firstProgram(patternsByModel));
         current = watch;
         return null;
