@@ -86,10 +86,16 @@ final class StationFixture {
     }
 
     StationAgent start(Outbox outbox, Conditioning conditioning, ErrorHandler errorHandler) {
+        return start(outbox, conditioning, Map.of("M", PATTERN), errorHandler);
+    }
+
+    /** Builds the loop for part model → pattern {@code patterns}. */
+    StationAgent start(Outbox outbox, Conditioning conditioning, Map<String, Pattern> patterns,
+                       ErrorHandler errorHandler) {
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
                 Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
+                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), patterns,
                 conditioning, 1_000_000_000L, reports, errorHandler);
         return agent;
     }
