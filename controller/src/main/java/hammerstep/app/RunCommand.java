@@ -9,6 +9,7 @@ import hammerstep.hardware.HardwareSettings;
 import hammerstep.hardware.TransducerSettings;
 import hammerstep.hardware.pi4j.Pi4jHardware;
 import hammerstep.mqtt.ResultPublisher;
+import hammerstep.mqtt.StationCommands;
 import hammerstep.results.StationId;
 import hammerstep.sequence.Sequence;
 import hammerstep.signal.Conditioning;
@@ -156,11 +157,11 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
                         || (exitAfterS > 0 && endNs - clock.nanoTime() <= 0)) {
                     break; // the closing status line follows
                 }
-                logStatus(acquisition, delivery, errors.get());
+                logStatus(acquisition, desk, delivery, errors.get());
             }
         } finally {
             acquisitionRunner.close();
-            logStatus(acquisition, delivery, errors.get());
+            logStatus(acquisition, desk, delivery, errors.get());
             delivery.close(); // after the station loop: offline status, clean disconnect, journal closed
             stopped.countDown();
             if (exitAfterS > 0) {
@@ -180,10 +181,13 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         return new Conditioning(0.01 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0);
     }
 
-    private static void logStatus(Acquisition a, ResultDelivery d, long errors) {
+    private static void logStatus(Acquisition a, CommandDesk desk, ResultDelivery d, long errors) {
         ResultPublisher.Figures f = d.figures();
-        LOG.info("status: {} samples, {} missed, {} blocks dropped, {} errors; results: {} not yet delivered{}",
-                a.samples(), a.missedSamples(), a.droppedBlocks(), errors, d.outbox().backlog(),
+        StationCommands.DataGaps gaps = desk.dataGaps();
+        LOG.info("status: {} samples, {} missed, {} blocks dropped, data gaps {} outside rundowns and {} during,"
+                        + " {} errors; results: {} not yet delivered{}",
+                a.samples(), a.missedSamples(), a.droppedBlocks(), gaps.outsideRundowns(), gaps.duringRundowns(),
+                errors, d.outbox().backlog(),
                 f == null ? " (no broker)" : f.connected() ? ", broker connected, " + f.acknowledged() + " acknowledged"
                         : ", broker not connected");
     }

@@ -11,8 +11,15 @@ import org.agrona.concurrent.NanoClock;
  * block by block, each block stamped with the clock time of its first sample.
  *
  * <p>Overruns are counted, never waited for: a conversion that came and went unread (the time since
- * the previous one exceeds 1.5 sample periods) counts as missed; a block that finds the ring full is
- * discarded whole and counted by the ring. Runs on its own thread (an Agrona {@code AgentRunner}
+ * the previous one exceeds 1.5 sample periods) counts as missed and is reported to the ring
+ * ({@link SampleRing#lost()}), so the station sees a data gap at the block that holds or follows
+ * it; a block that finds the ring full is discarded whole and counted by the ring.
+ *
+ * <p>Time stamps follow the conversions, not the moment the thread happened to read them: each
+ * conversion is one period after the one before (plus the periods missed), pulled a sixteenth of
+ * the way toward the clock at every read so that the stamps follow the clock without taking up
+ * its jitter. A read late by less than a missed conversion thus never looks like a gap in
+ * {@code firstSampleNs}, and a missed conversion always does. Runs on its own thread (an Agrona {@code AgentRunner}
  * with a busy-spin idle strategy on the Pi); in tests {@link #doWork()} is called by hand with a
  * fake clock. Allocation-free after construction.
  */
@@ -33,6 +40,7 @@ public final class Acquisition implements Agent {
     private int fill;
     private long blockFirstNs;
     private long lastNs;
+    private long stampNs;
     private boolean any;
     private volatile long samples;
     private volatile long missedSamples;
@@ -70,16 +78,23 @@ public final class Acquisition implements Agent {
         dataReady.taken(now);
         if (any) {
             long gap = now - lastNs;
+            long missed = 0;
             if (gap > lateNs) {
-                missedSamples += (gap + periodNs / 2) / periodNs - 1;
+                missed = (gap + periodNs / 2) / periodNs - 1;
+                missedSamples += missed;
+                ring.lost();
             }
+            stampNs += (1 + missed) * periodNs;
+            stampNs += (now - stampNs) >> 4;
+        } else {
+            stampNs = now;
         }
         any = true;
         lastNs = now;
         lastCounts = counts;
         samples++;
         if (fill == 0) {
-            blockFirstNs = now;
+            blockFirstNs = stampNs;
             block = ring.claim();
             discarding = block == null;
             if (discarding) {

@@ -15,6 +15,13 @@ import java.util.List;
  * {@link JointEvents}. This is the same object in the station, in replay and in the simulator's
  * cross-checks.
  *
+ * <p>Conditioning is done by an {@link InputStage}: a monitor either builds its own (replay, the
+ * simulator's cross-checks) or shares the transducer's one with the monitors of the other programs
+ * (the station), so that zero, filter and fault memory carry on across program switches. Either way
+ * {@link #onSamples} takes raw N·m samples; the stage calls {@link #onConditioned} back. Blocks must
+ * follow each other in time: a block that does not start where the one before ended is a data gap
+ * ({@link SignalFaults#DATA_GAP}; see {@link InputStage}).
+ *
  * <p>A rundown starts at the first sample at or above {@code rundown.start_above} and ends once
  * torque has stayed below it for {@code end_after_ms}; its duration runs to the last sample above.
  * A rundown reaching {@code max_ms} is cut there and judged {@code TIME_LONG}; a new rundown can then
@@ -36,10 +43,9 @@ public final class JointMonitor implements PulseSink {
     private enum State { IDLE, ACTIVE, QUIET }
 
     private final JointProgram program;
-    private final Conditioner conditioner;
+    private final InputStage stage;
     private final PulseDetector detector;
     private final JointEvents events;
-    private final float[] scratch;
     private final double periodNs;
     private final float startAbove;
     private final float shutoffNm;
@@ -54,7 +60,6 @@ public final class JointMonitor implements PulseSink {
     private long lastAboveNs;
     private long shutoffNs;
     private int rundownFaults;
-    private int reportedFaults;
 
     private int blows;
     private int narrowPulses;
@@ -69,16 +74,27 @@ public final class JointMonitor implements PulseSink {
     private final double[] impulses = new double[MAX_STORED_BLOWS];
 
     /**
+     * A monitor with its own input stage (replay, the simulator's cross-checks).
+     *
      * @param maxBlockLength the longest block that {@link #onSamples} will be given
      */
     public JointMonitor(JointProgram program, Conditioning conditioning, double rateHz, int maxBlockLength,
                         JointEvents events) {
+        this(program, new InputStage(conditioning, rateHz, maxBlockLength), events);
+    }
+
+    /**
+     * A monitor fed by {@code stage}, the transducer's input stage that the monitors of the other
+     * programs share (the station). Feed it through {@link #onSamples} while it is the current one;
+     * a monitor not fed misses nothing, since the stage runs on in the current monitor.
+     */
+    public JointMonitor(JointProgram program, InputStage stage, JointEvents events) {
+        double rateHz = stage.rateHz();
         this.program = program;
-        this.conditioner = new Conditioner(conditioning, rateHz);
+        this.stage = stage;
         JointProgram.Blows b = program.blows();
         this.detector = new PulseDetector(b.countAboveNm(), b.releaseBelowNm(), b.deadTimeMs(), rateHz, this);
         this.events = events;
-        this.scratch = new float[maxBlockLength];
         this.periodNs = 1e9 / rateHz;
         this.startAbove = (float) program.rundown().startAboveNm();
         this.shutoffNm = program.hasShutoff() ? (float) program.shutoffAtNm() : Float.POSITIVE_INFINITY;
@@ -91,36 +107,74 @@ public final class JointMonitor implements PulseSink {
         return Conditioning.forReplay(0.5 * program.rundown().startAboveNm());
     }
 
-    /** Processes {@code samples[offset, offset+length)}; the first was taken at {@code firstSampleNs}. */
+    /**
+     * Processes raw samples {@code samples[offset, offset+length)}, the first taken at
+     * {@code firstSampleNs}: the input stage conditions them and calls {@link #onConditioned} back.
+     */
     public void onSamples(float[] samples, int offset, int length, long firstSampleNs) {
-        if (length > scratch.length) {
-            throw new IllegalArgumentException("block of " + length + " samples exceeds " + scratch.length);
+        stage.onSamples(samples, offset, length, firstSampleNs, this);
+    }
+
+    /**
+     * The input stage's entry: conditioned samples {@code x[offset, offset+length)} with the fault
+     * bits standing for the block ({@code faults}; {@link SignalFaults#DATA_GAP} when samples are
+     * missing just before the block) and those of them that began with it ({@code risingFaults},
+     * reported through {@link JointEvents#onFault}).
+     *
+     * @return true when the block's data gap fell into a rundown (the rundown is then a SENSOR_FAULT);
+     *     false when there was none or no rundown was under way
+     */
+    public boolean onConditioned(float[] x, int offset, int length, long firstSampleNs, int faults,
+                                 int risingFaults) {
+        if (risingFaults != 0) {
+            events.onFault(risingFaults, firstSampleNs);
         }
-        int faults = conditioner.process(samples, offset, length, scratch, state == State.IDLE);
-        int rising = faults & ~reportedFaults;
-        reportedFaults = faults;
-        if (rising != 0) {
-            events.onFault(rising, firstSampleNs);
+        int gap = faults & SignalFaults.DATA_GAP;
+        boolean gapTaken = false;
+        if (state == State.ACTIVE && gap != 0) {
+            gapTaken = true;
+            rundownGap(firstSampleNs);
         }
         if (state != State.IDLE) {
-            rundownFaults |= faults;
+            rundownFaults |= faults & ~SignalFaults.DATA_GAP;
         }
-        float[] x = scratch;
-        int i = 0;
-        while (i < length) {
+        int i = offset;
+        int end = offset + length;
+        long blockNs = firstSampleNs - (long) (offset * periodNs);
+        // sample indices below run over x[offset, end); sampleBase counts from x[0] for this block
+        sampleBase -= offset;
+        while (i < end) {
             switch (state) {
                 case IDLE:
-                    i = scanIdle(x, i, length, firstSampleNs, faults);
+                    i = scanIdle(x, i, end, blockNs, faults);
+                    if (i == offset && state == State.ACTIVE && gap != 0) {
+                        // the rundown began at the first sample after the gap: its start may be lost
+                        gapTaken = true;
+                        rundownGap(firstSampleNs);
+                    }
                     break;
                 case ACTIVE:
-                    i = scanActive(x, i, length, firstSampleNs);
+                    i = scanActive(x, i, end, blockNs);
                     break;
                 default:
-                    i = scanQuiet(x, i, length);
+                    i = scanQuiet(x, i, end);
                     break;
             }
         }
-        sampleBase += length;
+        sampleBase += end;
+        return gapTaken;
+    }
+
+    private void rundownGap(long atNs) {
+        if ((rundownFaults & SignalFaults.DATA_GAP) == 0) {
+            rundownFaults |= SignalFaults.DATA_GAP;
+            events.onFault(SignalFaults.DATA_GAP, atNs);
+        }
+    }
+
+    /** True while the monitor waits for a rundown: auto-zero may follow the signal (see {@link InputStage}). */
+    boolean idle() {
+        return state == State.IDLE;
     }
 
     private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
@@ -135,7 +189,7 @@ public final class JointMonitor implements PulseSink {
             startNs = firstNs + (long) (i * periodNs);
             lastAboveNs = startNs;
             shutoffNs = Long.MIN_VALUE;
-            rundownFaults = faults;
+            rundownFaults = faults & ~SignalFaults.DATA_GAP;
             blows = 0;
             narrowPulses = 0;
             blowsAfterShutoff = 0;
@@ -265,7 +319,7 @@ public final class JointMonitor implements PulseSink {
      * (the split replay relies on it).
      */
     public IdleState idleState() {
-        return state == State.IDLE ? new IdleState(conditioner.state(), reportedFaults) : null;
+        return state == State.IDLE ? new IdleState(stage.conditioner().state(), stage.reportedFaults()) : null;
     }
 
     /** See {@link #idleState()}. */
@@ -287,6 +341,11 @@ public final class JointMonitor implements PulseSink {
     }
 
     public Conditioner conditioner() {
-        return conditioner;
+        return stage.conditioner();
+    }
+
+    /** The input stage this monitor is fed by (its own, or the transducer's shared one). */
+    public InputStage inputStage() {
+        return stage;
     }
 }

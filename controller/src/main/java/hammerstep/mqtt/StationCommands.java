@@ -54,6 +54,21 @@ public interface StationCommands {
     /** A snapshot of the station's activity; thread-safe. */
     Activity activity();
 
+    /**
+     * Gaps in the torque samples since the station started (blocks the sample ring dropped,
+     * conversions the acquisition missed, blocks out of time), for status messages.
+     *
+     * @param outsideRundowns gaps while no rundown was under way: counted, not a fault
+     * @param duringRundowns  gaps that fell into a rundown: each made its joint NO-GO {@code SENSOR_FAULT}
+     */
+    record DataGaps(long outsideRundowns, long duringRundowns) {
+    }
+
+    /** The data gaps counted so far, or null when this station does not count them; thread-safe. */
+    default DataGaps dataGaps() {
+        return null;
+    }
+
     /** A station that takes no commands (before one is wired in). */
     StationCommands NONE = new StationCommands() {
         private CompletionStage<Reply> none() {

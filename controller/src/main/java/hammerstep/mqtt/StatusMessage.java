@@ -93,7 +93,22 @@ final class StatusMessage {
         act.put("part_model", a.partModel());
         act.put("pattern", a.pattern());
         m.put("activity", act);
+        StationCommands.DataGaps gaps = dataGaps();
+        if (gaps != null) {
+            Map<String, Object> g = new LinkedHashMap<>();
+            g.put("outside_rundowns", gaps.outsideRundowns());
+            g.put("during_rundowns", gaps.duringRundowns());
+            m.put("data_gaps", g);
+        }
         return m;
+    }
+
+    private StationCommands.DataGaps dataGaps() {
+        try {
+            return commands.dataGaps();
+        } catch (RuntimeException e) {
+            return null;
+        }
     }
 
     private StationCommands.Activity activity() {

@@ -20,6 +20,14 @@ public final class SignalFaults {
      * any tool strikes: electrical noise, not blows.
      */
     public static final int NOISE = 1 << 4;
+    /**
+     * Samples of a rundown are missing: a block the station thread could not take in time (sample
+     * ring full), conversions the ADC made and nobody read, or a block that does not start where
+     * the one before ended. Set by the input stage ({@code hammerstep.joint.InputStage}), not by
+     * the conditioner; outside a rundown a gap is only counted. (Bit 8 leaves room below for
+     * further conditioner faults.)
+     */
+    public static final int DATA_GAP = 1 << 8;
 
     private SignalFaults() {
     }
@@ -41,6 +49,9 @@ public final class SignalFaults {
         }
         if ((faults & NOISE) != 0) {
             names.add("NOISE");
+        }
+        if ((faults & DATA_GAP) != 0) {
+            names.add("DATA_GAP");
         }
         return names;
     }

@@ -8,4 +8,12 @@ package hammerstep.station;
 @FunctionalInterface
 public interface SampleBlockHandler {
     void onBlock(float[] samples, int offset, int length, long firstSampleNs);
+
+    /**
+     * Samples were lost between the block handed out before and the next one (a block dropped
+     * because the ring was full, conversions the acquisition missed): called just before that next
+     * block. Ignored by default.
+     */
+    default void onGap() {
+    }
 }

@@ -10,6 +10,12 @@ import java.util.concurrent.atomic.AtomicLong;
  * <p>Writer side (one acquisition thread): either {@link #claim()}, fill the returned array from
  * index 0, then {@link #commit(int, long)}; or {@link #offer}, which copies. Reader side (the
  * station thread): {@link #poll}, which lends each block's array to the handler for the call.
+ *
+ * <p>Losses reach the reader in order: the writer counts every block it drops and every loss it
+ * reports ({@link #lost()}, e.g. missed conversions), and stamps each block it commits with that
+ * count; the reader calls {@link SampleBlockHandler#onGap()} before the first block whose stamp
+ * differs from the one before. So the consumer learns of a gap at the block that follows it, on its
+ * own thread, without comparing counters.
  */
 public final class SampleRing implements TorqueInput {
 
@@ -19,10 +25,13 @@ public final class SampleRing implements TorqueInput {
     private final float[][] blocks;
     private final int[] lengths;
     private final long[] firstNs;
+    private final long[] lossStamps;
     private final AtomicLong head = new AtomicLong(); // next block to read; written by the reader
     private final AtomicLong tail = new AtomicLong(); // next block to write; written by the writer
     private final AtomicLong dropped = new AtomicLong();
     private long cachedHead; // writer's view of head
+    private long losses; // writer only: blocks dropped and losses reported so far
+    private long lossesSeen; // reader only: the stamp of the last block handed out
 
     /**
      * @param capacity number of blocks, a power of two
@@ -43,6 +52,7 @@ public final class SampleRing implements TorqueInput {
         this.blocks = new float[capacity][blockLength];
         this.lengths = new int[capacity];
         this.firstNs = new long[capacity];
+        this.lossStamps = new long[capacity];
     }
 
     @Override
@@ -69,6 +79,7 @@ public final class SampleRing implements TorqueInput {
             cachedHead = head.get();
             if (t - cachedHead > mask) {
                 dropped.incrementAndGet();
+                losses++;
                 return null;
             }
         }
@@ -84,7 +95,16 @@ public final class SampleRing implements TorqueInput {
         int slot = (int) t & mask;
         lengths[slot] = length;
         firstNs[slot] = firstSampleNs;
+        lossStamps[slot] = losses;
         tail.lazySet(t + 1);
+    }
+
+    /**
+     * Writer: samples were lost other than by a full ring (e.g. conversions the ADC made and nobody
+     * read); the next block committed carries the gap to the reader.
+     */
+    public void lost() {
+        losses++;
     }
 
     /** Writer: copies a block in; false when the ring was full and the block was dropped. */
@@ -108,6 +128,11 @@ public final class SampleRing implements TorqueInput {
         int n = (int) Math.min(available, maxBlocks);
         for (int k = 0; k < n; k++) {
             int slot = (int) (h + k) & mask;
+            long stamp = lossStamps[slot];
+            if (stamp != lossesSeen) {
+                lossesSeen = stamp;
+                handler.onGap();
+            }
             handler.onBlock(blocks[slot], 0, lengths[slot], firstNs[slot]);
             head.lazySet(h + k + 1);
         }

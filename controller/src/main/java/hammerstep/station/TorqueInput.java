@@ -7,7 +7,8 @@ package hammerstep.station;
  *
  * <p>Threading: {@link #poll} is called by the station thread only. The acquisition side (an SPI
  * reader thread, or the simulator) writes on its own thread, usually into a {@link SampleRing}; a
- * block it cannot place because the ring is full is dropped and counted, never waited for.
+ * block it cannot place because the ring is full is dropped and counted, never waited for, and the
+ * handler hears of it ({@link SampleBlockHandler#onGap()}) before the block that follows.
  */
 public interface TorqueInput {
 

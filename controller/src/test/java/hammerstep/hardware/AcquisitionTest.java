@@ -81,6 +81,56 @@ class AcquisitionTest {
     }
 
     @Test
+    void missedConversionsShowInTheStampsAndAreAnnouncedToTheStation() {
+        SampleRing ring = new SampleRing(RATE, 2, 8);
+        Acquisition acq = new Acquisition(at(RATE), new PacedDataReady(RATE), clock, cal, 0, ring);
+        acq.onStart();
+        clock.nowNs = 1_000_000;
+        for (int i = 0; i < 4; i++) {
+            acq.doWork();
+            clock.advanceNs(i == 2 ? 4 * PERIOD : PERIOD); // three conversions missed after the third read
+        }
+        acq.doWork();
+        clock.advanceNs(PERIOD);
+        acq.doWork();
+
+        List<String> seen = new ArrayList<>();
+        ring.poll(new hammerstep.station.SampleBlockHandler() {
+            @Override
+            public void onBlock(float[] samples, int offset, int length, long firstSampleNs) {
+                seen.add(Long.toString(firstSampleNs));
+            }
+
+            @Override
+            public void onGap() {
+                seen.add("gap");
+            }
+        }, 10);
+        // reads at 0, 1, 2, 6, 7, 8 periods in blocks of two: the second block (2 and 6) holds the gap
+        assertThat(seen).containsExactly("1000000", "gap", "1200000", "1700000");
+        assertThat(acq.missedSamples()).isEqualTo(3);
+    }
+
+    @Test
+    void aReadLateByLessThanAConversionDoesNotMoveTheStampsByHalfAPeriod() {
+        SampleRing ring = new SampleRing(RATE, 4, 8);
+        Acquisition acq = new Acquisition(at(RATE), new PacedDataReady(RATE), clock, cal, 0, ring);
+        acq.onStart();
+        clock.nowNs = 2_000_000;
+        long[] late = {0, 0, 0, 0, 40_000, 0, 0, 0, 0, 0, 0, 0}; // the fifth read comes 40 µs late
+        for (int i = 0; i < late.length; i++) {
+            clock.nowNs = 2_000_000 + i * PERIOD + late[i];
+            acq.doWork();
+        }
+        List<Long> stamps = new ArrayList<>();
+        ring.poll((s, off, len, first) -> stamps.add(first), 10);
+        assertThat(stamps).hasSize(3);
+        assertThat(stamps.get(1) - stamps.get(0) - 4 * PERIOD).isBetween(-PERIOD / 2, PERIOD / 2);
+        assertThat(stamps.get(2) - stamps.get(1) - 4 * PERIOD).isBetween(-PERIOD / 2, PERIOD / 2);
+        assertThat(acq.missedSamples()).isZero();
+    }
+
+    @Test
     void discardsAWholeBlockWhenTheRingIsFull() {
         SampleRing ring = new SampleRing(RATE, 2, 2);
         Acquisition acq = new Acquisition(at(RATE), new PacedDataReady(RATE), clock, cal, 0, ring);

@@ -22,8 +22,12 @@ class MonitorEdgesTest {
     private final RecordingJointEvents ev = new RecordingJointEvents();
     private final JointMonitor m = new JointMonitor(P, Conditioning.forReplay(0), RATE, 256, ev);
 
+    private long fed;
+
+    /** Blocks that follow each other in time (a block out of time would be a data gap). */
     private void feed(float... x) {
-        m.onSamples(x, 0, x.length, 0);
+        m.onSamples(x, 0, x.length, Math.round(fed * 1e9 / RATE));
+        fed += x.length;
     }
 
     private static float[] zeros(int n) {

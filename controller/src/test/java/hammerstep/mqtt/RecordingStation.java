@@ -34,4 +34,9 @@ public final class RecordingStation implements StationCommands {
     public Activity activity() {
         return new Activity("READY", null, null, null);
     }
+
+    @Override
+    public DataGaps dataGaps() {
+        return new DataGaps(3, 1);
+    }
 }

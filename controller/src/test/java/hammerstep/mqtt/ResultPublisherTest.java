@@ -224,6 +224,8 @@ class ResultPublisherTest {
         JsonNode status = json(reply).get("status");
         assertThat(status.get("last_seq").get("joint").asLong()).isEqualTo(1);
         assertThat(status.get("activity").get("mode").asText()).isEqualTo("READY");
+        assertThat(status.get("data_gaps").get("outside_rundowns").asLong()).isEqualTo(3);
+        assertThat(status.get("data_gaps").get("during_rundowns").asLong()).isEqualTo(1);
     }
 
     @Test

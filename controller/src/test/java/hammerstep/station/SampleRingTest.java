@@ -37,6 +37,47 @@ class SampleRingTest {
         assertThat(seen).extracting(s -> s.split("@")[1].split(":")[0]).containsExactly("0", "1", "3");
     }
 
+    /** Records blocks and the gaps announced before them. */
+    private final SampleBlockHandler gapRecorder = new SampleBlockHandler() {
+        @Override
+        public void onBlock(float[] samples, int offset, int length, long firstSampleNs) {
+            seen.add(Long.toString(firstSampleNs));
+        }
+
+        @Override
+        public void onGap() {
+            seen.add("gap");
+        }
+    };
+
+    @Test
+    void aDroppedBlockIsAnnouncedOnceBeforeTheBlockThatFollowsIt() {
+        SampleRing ring = new SampleRing(10_000, 2, 2);
+        float[] b = {1, 2};
+        ring.offer(b, 0, 2, 0);
+        ring.offer(b, 0, 2, 1);
+        assertThat(ring.offer(b, 0, 2, 2)).isFalse();
+        assertThat(ring.offer(b, 0, 2, 3)).isFalse();
+        ring.poll(gapRecorder, 1);
+        ring.offer(b, 0, 2, 4);
+        ring.poll(gapRecorder, 1);
+        ring.offer(b, 0, 2, 5);
+        ring.poll(gapRecorder, 5);
+        assertThat(seen).containsExactly("0", "1", "gap", "4", "5");
+    }
+
+    @Test
+    void aLossTheWriterReportsIsAnnouncedBeforeItsNextBlock() {
+        SampleRing ring = new SampleRing(10_000, 2, 4);
+        float[] b = {1, 2};
+        ring.offer(b, 0, 2, 0);
+        ring.lost(); // e.g. conversions missed while this block filled
+        ring.offer(b, 0, 2, 1);
+        ring.offer(b, 0, 2, 2);
+        ring.poll(gapRecorder, 5);
+        assertThat(seen).containsExactly("0", "gap", "1", "2");
+    }
+
     @Test
     void claimAndCommitFillTheSlotInPlace() {
         SampleRing ring = new SampleRing(10_000, 3, 2);

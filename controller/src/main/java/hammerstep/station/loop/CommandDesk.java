@@ -1,5 +1,6 @@
 package hammerstep.station.loop;
 
+import hammerstep.joint.InputStage;
 import hammerstep.mqtt.StationCommands;
 import hammerstep.results.ResultSink;
 import hammerstep.sequence.Pattern;
@@ -53,6 +54,8 @@ public final class CommandDesk implements StationCommands {
     private final AtomicBoolean reloading = new AtomicBoolean();
     private volatile Activity activity = new Activity(Phase.WAITING.name(), null, null, null);
     private volatile boolean closed;
+    private volatile long gapsOutside;
+    private volatile long gapsDuring;
 
     // station thread only
     private Reload pendingReload;
@@ -182,7 +185,25 @@ public final class CommandDesk implements StationCommands {
             }
         }
         observe(agent.sequence());
+        observeGaps(agent.inputStage());
         return work;
+    }
+
+    /** Keeps the data-gap counts for status messages (writes only when one changed). */
+    private void observeGaps(InputStage stage) {
+        long outside = stage.gapsOutsideRundowns();
+        long during = stage.gapsDuringRundowns();
+        if (outside != gapsOutside) {
+            gapsOutside = outside;
+        }
+        if (during != gapsDuring) {
+            gapsDuring = during;
+        }
+    }
+
+    @Override
+    public DataGaps dataGaps() {
+        return new DataGaps(gapsOutside, gapsDuring);
     }
 
     private static Reply start(StationAgent agent, PartIdentity id, long nowNs) {

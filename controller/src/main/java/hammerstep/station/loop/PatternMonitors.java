@@ -1,11 +1,10 @@
 package hammerstep.station.loop;
 
+import hammerstep.joint.InputStage;
 import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.sequence.Pattern;
-import hammerstep.signal.Conditioning;
-import hammerstep.station.TorqueInput;
 
 import java.util.HashMap;
 import java.util.Map;
@@ -28,19 +27,18 @@ final class PatternMonitors {
     }
 
     /**
-     * A monitor for every program of {@code patterns}; a program found in {@code before} (equal
-     * content and revision) keeps its monitor, and so its auto-zero state.
+     * A monitor for every program of {@code patterns}, all fed by the transducer's one input
+     * {@code stage} (zero, filter and fault memory carry on across program switches); a program
+     * found in {@code before} (equal content and revision) keeps its monitor.
      */
     static Map<JointProgram, JointMonitor> of(Map<String, Pattern> patterns, Map<JointProgram, JointMonitor> before,
-                                              Conditioning conditioning, TorqueInput torque, JointEvents events) {
-        double rate = torque.rateHz();
-        int block = torque.maxBlockLength();
+                                              InputStage stage, JointEvents events) {
         Map<JointProgram, JointMonitor> next = new HashMap<>();
         for (Pattern pattern : patterns.values()) {
             for (Pattern.Pass pass : pattern.passes()) {
                 JointMonitor kept = before.get(pass.program());
                 next.computeIfAbsent(pass.program(),
-                        p -> kept != null ? kept : new JointMonitor(p, conditioning, rate, block, events));
+                        p -> kept != null ? kept : new JointMonitor(p, stage, events));
             }
         }
         return next;

@@ -1,5 +1,6 @@
 package hammerstep.station.loop;
 
+import hammerstep.joint.InputStage;
 import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
@@ -34,8 +35,10 @@ import java.util.Map;
 
 /**
  * The station's duty cycle: reads the clock once, polls the operator inputs and the part identity,
- * feeds waiting sample blocks through the current pass's {@link JointMonitor}, hands the sequence's
- * records to the {@link JournalWriter}, then drives the tool enable and the lamps from the sequence.
+ * feeds waiting sample blocks through the transducer's one {@link InputStage} into the current
+ * pass's {@link JointMonitor} (a block the sample ring lost is a data gap, see {@link #onGap}),
+ * hands the sequence's records to the {@link JournalWriter}, then drives the tool enable and the
+ * lamps from the sequence.
  * After every block the tool output is brought up to date, so tool enable drops within one block of
  * the shut-off crossing.
  *
@@ -64,7 +67,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private Map<String, Pattern> patternsByModel;
     private Map<JointProgram, JointMonitor> monitors = new HashMap<>();
     private JointMonitor watch;
-    private final Conditioning conditioning;
+    private final InputStage stage;
     private final LampDriver lampDriver;
     private final StationListener listener;
     private final ErrorHandler errorHandler;
@@ -134,12 +137,12 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         this.patternsByModel = new LinkedHashMap<>(patternsByModel);
         this.listener = listener;
         this.errorHandler = errorHandler;
-        this.conditioning = conditioning;
+        this.stage = new InputStage(conditioning, ports.torque().rateHz(), ports.torque().maxBlockLength());
         String problem = PatternMonitors.lampProblem(this.patternsByModel, ports.lamps().positionLamps());
         if (problem != null) {
             throw new IllegalArgumentException(problem);
         }
-        this.monitors = PatternMonitors.of(this.patternsByModel, Map.of(), conditioning, ports.torque(), this);
+        this.monitors = PatternMonitors.of(this.patternsByModel, Map.of(), stage, this);
         this.watch = monitors.get(PatternMonitors.firstProgram(this.patternsByModel));
         this.current = watch;
         this.lampDriver = new LampDriver(ports.lamps(), blinkPeriodNs);
@@ -269,6 +272,17 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             }
         }
         selectMonitor();
+    }
+
+    /** The ring lost samples before the next block: that block follows a data gap. */
+    @Override
+    public void onGap() {
+        stage.gap();
+    }
+
+    /** The transducer's input stage (its data-gap counts feed the status). */
+    public InputStage inputStage() {
+        return stage;
     }
 
     // ---- JointEvents from the current monitor, during onSamples ---------------------------------
@@ -513,7 +527,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             return problem;
         }
         patternsByModel = new LinkedHashMap<>(next);
-        monitors = PatternMonitors.of(patternsByModel, monitors, conditioning, ports.torque(), this);
+        monitors = PatternMonitors.of(patternsByModel, monitors, stage, this);
         watch = monitors.get(PatternMonitors.firstProgram(patternsByModel));
         current = watch;
         return null;

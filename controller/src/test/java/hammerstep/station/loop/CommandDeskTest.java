@@ -3,6 +3,7 @@ package hammerstep.station.loop;
 import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
+import hammerstep.mqtt.StationCommands;
 import hammerstep.mqtt.StationCommands.Reply;
 import hammerstep.results.JointOutcome;
 import hammerstep.results.MemoryOutbox;
@@ -107,6 +108,17 @@ class CommandDeskTest {
             Thread.onSpinWait();
         }
         return now(f);
+    }
+
+    @Test
+    void showsTheDataGapsTheStationCountedForTheStatus() {
+        cycle();
+        assertThat(desk.dataGaps()).isEqualTo(new StationCommands.DataGaps(0, 0));
+        float[] quiet = new float[64];
+        agent.onBlock(quiet, 0, 64, 0);
+        agent.onBlock(quiet, 0, 64, 6_400_000L); // the block from 3.2 ms was lost
+        cycle();
+        assertThat(desk.dataGaps()).isEqualTo(new StationCommands.DataGaps(1, 0));
     }
 
     @Test

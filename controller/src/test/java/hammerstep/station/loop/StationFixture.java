@@ -93,10 +93,16 @@ final class StationFixture {
     }
 
     StationAgent start(Outbox outbox, Conditioning conditioning, ErrorHandler errorHandler) {
+        return start(outbox, conditioning, Map.of("M", PATTERN), errorHandler);
+    }
+
+    /** Builds the loop for part model → pattern {@code patterns}. */
+    StationAgent start(Outbox outbox, Conditioning conditioning, Map<String, Pattern> patterns,
+                       ErrorHandler errorHandler) {
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
                 Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
+                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), patterns,
                 conditioning, 1_000_000_000L, reports, errorHandler);
         return agent;
     }
@@ -141,6 +147,29 @@ final class StationFixture {
 
     /** One block of the tool's samples into the ring, the clock one block on, one duty cycle of the loop. */
     void cycle() {
+        produce();
+        boolean was = tool.enabled;
+        agent.doWork();
+        if (writer != null) {
+            stepWriter();
+        }
+        if (was && !tool.enabled) {
+            disabledAtNs = clock.nanoTime();
+        }
+    }
+
+    /**
+     * The station thread stalls for {@code blocks} blocks: the tool runs on and its samples go to the
+     * ring, which drops the blocks it has no room for.
+     */
+    void stall(int blocks) {
+        for (int k = 0; k < blocks; k++) {
+            produce();
+        }
+    }
+
+    /** One block of the tool's samples into the ring (dropped there when it is full), the clock one block on. */
+    private void produce() {
         long t0 = clock.nanoTime();
         float[] block = new float[BLOCK];
         for (int i = 0; i < BLOCK; i++) {
@@ -160,14 +189,6 @@ final class StationFixture {
         }
         ring.offer(block, 0, BLOCK, t0);
         clock.advanceNs(BLOCK_NS);
-        boolean was = tool.enabled;
-        agent.doWork();
-        if (writer != null) {
-            stepWriter();
-        }
-        if (was && !tool.enabled) {
-            disabledAtNs = clock.nanoTime();
-        }
     }
 
     void cycles(int n) {

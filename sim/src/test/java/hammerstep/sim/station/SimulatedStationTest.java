@@ -86,6 +86,8 @@ class SimulatedStationTest {
             assertThat(j.result().blowsAfterShutoff()).isZero();
         });
         assertThat(joints.subList(0, 5)).extracting(JointOutcome::positionIndex).containsExactly(1, 3, 5, 2, 4);
+        assertThat(s.agent().inputStage().gapsOutsideRundowns() + s.agent().inputStage().gapsDuringRundowns())
+                .as("data gaps in a simulated shift whose station keeps up").isZero();
     }
 
     @ParameterizedTest(name = "seed {0}")
