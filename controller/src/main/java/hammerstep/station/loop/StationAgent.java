@@ -14,6 +14,7 @@ import hammerstep.results.UnfinishedPart;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
 import hammerstep.sequence.Store;
+import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
 import hammerstep.signal.SignalFaults;
 import hammerstep.station.OperatorInputs;
@@ -199,7 +200,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     @Override
     public void onBlock(float[] samples, int offset, int length, long firstSampleNs) {
         if (traces != null) {
-            traces.onSamples(samples, offset, length, firstSampleNs);
+            traces.onBlock(samples, offset, length, firstSampleNs, inputConditioner());
         }
         current.onSamples(samples, offset, length, firstSampleNs);
         if (shutoffPending) {
@@ -214,10 +215,21 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         selectMonitor();
     }
 
+    /**
+     * The conditioner that conditions the next block (the input stage): the stored trace keeps its
+     * state at a rundown's start, so that replay starts where the station did.
+     */
+    private Conditioner inputConditioner() {
+        return current.conditioner();
+    }
+
     // ---- JointEvents from the current monitor, during onSamples ---------------------------------
 
     @Override
     public void onRundownStart(long startNs) {
+        if (traces != null) {
+            traces.rundownStarted(startNs);
+        }
         sequence.rundownStarted(startNs);
         listener.onRundownStart(startNs);
     }
@@ -244,6 +256,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     @Override
     public void onRundown(JointResult result) {
+        if (traces != null) {
+            traces.rundownJudged(result.startNs());
+        }
         sequence.jointJudged(result, nowNs);
         drainStores();
     }
