@@ -72,8 +72,9 @@ public final class StationReplay {
 
     /**
      * The lines a replay of {@code h} with {@code program} should print before its results: a program
-     * or revision other than the one the joint was judged with, a trace read unchecked, a trace
-     * without chain state. Empty when the replay reproduces the station.
+     * or revision other than the one the joint was judged with, a trace read unchecked, a station's
+     * trace (one naming its program) without chain state. Empty when the replay reproduces the
+     * station, and for a trace written by a tool rather than kept by a station.
      */
     public static List<String> warnings(Path path, StoredTrace.Header h, JointProgram program, Chain chain) {
         List<String> lines = new ArrayList<>(2);
@@ -89,7 +90,7 @@ public final class StationReplay {
         if (!h.checked()) {
             lines.add(path + ": stored trace format " + h.version() + ", no checksum and no chain state: read"
                     + " unchecked and judged from a fresh chain (may differ from the station)");
-        } else if (chain == null) {
+        } else if (chain == null && id != null) {
             lines.add(path + ": no chain state stored with this trace: judged from a fresh chain"
                     + " (may differ from the station)");
         }
