@@ -44,6 +44,13 @@ class ConditionerStateTest {
         return c;
     }
 
+    /** A state as its text: compares array components by content, which a record's equals does not. */
+    private static Map<String, String> text(Conditioner.State state) {
+        Map<String, String> m = new LinkedHashMap<>();
+        ConditionerText.write(SETTINGS, state, m);
+        return m;
+    }
+
     @Test
     void aConditionerPutBackIntoAStateConditionsTheRestAlike() {
         float[] x = signal(3, 4096);
@@ -51,7 +58,7 @@ class ConditionerStateTest {
             Conditioner original = fedWith(x, split);
             Conditioner restored = new Conditioner(SETTINGS, RATE);
             restored.restore(original.state());
-            assertThat(restored.state()).isEqualTo(original.state());
+            assertThat(text(restored.state())).isEqualTo(text(original.state()));
 
             float[] a = new float[BLOCK];
             float[] b = new float[BLOCK];
@@ -73,7 +80,7 @@ class ConditionerStateTest {
 
         original.copyStateTo(copy);
 
-        assertThat(copy.state()).isEqualTo(original.state());
+        assertThat(text(copy.state())).isEqualTo(text(original.state()));
         assertThat(original.state().zeroSet()).isTrue();
         assertThat(original.state().z1()).isNotZero();
     }
@@ -89,7 +96,7 @@ class ConditionerStateTest {
             ConditionerText.Snapshot back = ConditionerText.read(text, null, RATE);
 
             assertThat(back.settings()).isEqualTo(SETTINGS);
-            assertThat(back.state()).isEqualTo(c.state());
+            assertThat(text(back.state())).isEqualTo(text(c.state()));
             assertThat(text).containsKey("conditioning.lowPassHz").containsKey("conditioner.zeroNm");
         }
     }
