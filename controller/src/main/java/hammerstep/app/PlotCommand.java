@@ -11,6 +11,8 @@ import hammerstep.plot.Picture;
 import hammerstep.plot.TraceChart;
 import hammerstep.signal.Conditioning;
 import hammerstep.trace.TraceException;
+import hammerstep.trace.StationReplay;
+import hammerstep.trace.StoredTrace;
 import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
 import picocli.CommandLine.Command;
@@ -80,11 +82,17 @@ public final class PlotCommand implements Callable<Integer> {
         JointMonitor monitor = new JointMonitor(program, conditioning, rate, ReplayCommand.BLOCK, events);
         Recording rec = new Recording();
         float[] block = new float[ReplayCommand.BLOCK];
-        TraceFiles.read(trace, rate, block, (s, o, l, t) -> {
-            rec.add(s, o, l, t);
-            monitor.onSamples(s, o, l, t);
-        });
-        monitor.finish();
+        if (StoredTrace.isStored(trace)) {
+            // judged as the station judged it; every sample, lead included, drawn
+            StationReplay.replay(trace, program, c -> lowPassHz > 0 ? c.withLowPass(lowPassHz) : c,
+                    ReplayCommand.BLOCK, events, rec::add, System.err::println);
+        } else {
+            TraceFiles.read(trace, rate, block, (s, o, l, t) -> {
+                rec.add(s, o, l, t);
+                monitor.onSamples(s, o, l, t);
+            });
+            monitor.finish();
+        }
         if (rec.length == 0) {
             throw new UserError(trace + ": no samples to draw");
         }

@@ -12,6 +12,8 @@ import hammerstep.results.JointFields;
 import hammerstep.results.JsonLines;
 import hammerstep.signal.Conditioning;
 import hammerstep.trace.F32Trace;
+import hammerstep.trace.StationReplay;
+import hammerstep.trace.StoredTrace;
 import hammerstep.trace.TraceException;
 import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
@@ -74,8 +76,7 @@ public final class ReplayCommand implements Callable<Integer> {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
         }
         double rate = TraceFiles.rateOf(trace, rateHz);
-        Conditioning conditioning = JointMonitor.replayConditioning(program)
-                .withLowPass(lowPassHz).withOverRange(overRangeNm).withFlatLine(flatLineMs);
+        Conditioning conditioning = withOptions(JointMonitor.replayConditioning(program));
         if (lowPassHz >= rate / 2) {
             throw new UserError("--low-pass " + lowPassHz + " Hz must be below half the sample rate (" + rate / 2 + " Hz)");
         }
@@ -101,6 +102,9 @@ public final class ReplayCommand implements Callable<Integer> {
                 return 1;
             }
             judged.forEach(events::onRundown);
+        } else if (StoredTrace.isStored(trace)) {
+            // the station's chain state, conditioning and block length as the trace carries them
+            StationReplay.replay(trace, program, this::withOptions, BLOCK, events, null, System.err::println);
         } else {
             JointMonitor monitor = new JointMonitor(program, conditioning, rate, BLOCK, events);
             TraceFiles.read(trace, rate, new float[BLOCK], monitor::onSamples);
@@ -111,6 +115,24 @@ public final class ReplayCommand implements Callable<Integer> {
         }
         out.flush();
         return 0;
+    }
+
+    /**
+     * The conditioning options given on the command line applied over {@code base} (a stored trace's
+     * conditioning, or the program's replay conditioning): an option not given keeps base's value.
+     */
+    Conditioning withOptions(Conditioning base) {
+        Conditioning c = base;
+        if (lowPassHz > 0) {
+            c = c.withLowPass(lowPassHz);
+        }
+        if (!Double.isNaN(overRangeNm)) {
+            c = c.withOverRange(overRangeNm);
+        }
+        if (flatLineMs > 0) {
+            c = c.withFlatLine(flatLineMs);
+        }
+        return c;
     }
 
     /** Replays a random-access trace on every core; the results are those of one monitor. */

@@ -220,6 +220,38 @@ public final class Conditioner {
         return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2);
     }
 
+    /**
+     * Puts this conditioner in {@code state} (taken from one with the same settings and rate), so that
+     * it turns the samples that follow into what that one did: a stored trace's replay starts here.
+     * Every component of {@link State} is set ({@code ConditionerStateTest} checks the round trip).
+     */
+    public void restore(State state) {
+        zeroNm = state.zeroNm();
+        zeroSet = state.zeroSet();
+        flatSamples = state.flatSamples();
+        lastValue = state.lastValue();
+        lastGood = state.lastGood();
+        faults = state.faults();
+        z1 = state.z1();
+        z2 = state.z2();
+    }
+
+    /**
+     * Copies everything this conditioner carries from one block to the next into {@code into}, so that
+     * {@code into.state()} equals {@code state()}. Allocation-free: the station calls it before every
+     * block to keep the state a rundown starts from.
+     */
+    public void copyStateTo(Conditioner into) {
+        into.zeroNm = zeroNm;
+        into.zeroSet = zeroSet;
+        into.flatSamples = flatSamples;
+        into.lastValue = lastValue;
+        into.lastGood = lastGood;
+        into.faults = faults;
+        into.z1 = z1;
+        into.z2 = z2;
+    }
+
     /** The offset currently subtracted, N·m. */
     public double zeroNm() {
         return zeroNm;

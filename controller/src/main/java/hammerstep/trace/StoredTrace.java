@@ -12,13 +12,14 @@ import java.nio.file.StandardOpenOption;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
+import java.util.zip.CRC32C;
 
 /**
  * The compact binary trace the station keeps for every joint ({@code .hst}). Little-endian:
  * <pre>
  * offset  size  field
  *      0     4  magic "HSTR"
- *      4     2  format version (1)
+ *      4     2  format version (2; 1 for traces written before the checksum)
  *      6     2  sample encoding: 1 = int16 counts × scale, 2 = float32 N·m
  *      8     8  sample rate, Hz (float64)
  *     16     8  time of the first sample, ns (int64, the station's clock)
@@ -27,16 +28,26 @@ import java.util.Map;
  *     36     2  metadata length m in bytes (uint16)
  *     38     m  metadata, UTF-8 lines "key=value\n" (joint id, program, revision, position, ...)
  *   38+m        samples
+ *    end     4  CRC32C of every byte before it (version 2 only)
  * </pre>
  * int16 keeps a joint's trace at 2 bytes a sample with a resolution of the trace's largest
  * |torque| / 32767 (the scale is chosen per trace); float32 is lossless for N·m samples.
+ *
+ * <p>Version 2 ends in a CRC32C (Castagnoli) over header, metadata and samples. A file whose
+ * checksum does not match, which is cut short or has bytes after its checksum is refused with one
+ * line naming it ({@link TraceException}); no sample of it reaches a chain. A single flipped bit can
+ * not turn version 2 into 1. Version 1 files (no checksum) are still read, unchecked:
+ * {@link Header#checked()} is false and the tools say so.
  */
 public final class StoredTrace {
 
     public static final String EXTENSION = ".hst";
     static final int MAGIC = 0x52545348; // "HSTR" read little-endian
-    static final int VERSION = 1;
+    static final int VERSION = 2;
+    /** The format before the checksum: still read, unchecked. */
+    static final int VERSION_UNCHECKED = 1;
     static final int HEADER_BYTES = 38;
+    static final int CHECKSUM_BYTES = 4;
     static final int MAX_METADATA_BYTES = 4096;
 
     /** How samples are stored. */
@@ -61,9 +72,48 @@ public final class StoredTrace {
         }
     }
 
-    /** What a stored trace's header says. */
+    /**
+     * What a stored trace's header says.
+     *
+     * @param version the file's format version; below {@link #VERSION} there was no checksum to check
+     */
     public record Header(Encoding encoding, double rateHz, long firstSampleNs, double scaleNm, int samples,
-                         Map<String, String> metadata) {
+                         Map<String, String> metadata, int version) {
+
+        public Header(Encoding encoding, double rateHz, long firstSampleNs, double scaleNm, int samples,
+                      Map<String, String> metadata) {
+            this(encoding, rateHz, firstSampleNs, scaleNm, samples, metadata, VERSION);
+        }
+
+        /** True when the file's checksum was verified (version 2 and later). */
+        public boolean checked() {
+            return version >= VERSION;
+        }
+
+        /** The id of the program the joint was judged with, or null when the trace does not say. */
+        public String programId() {
+            return metadata.get("program");
+        }
+
+        /** The revision (content hash) of that program, or null when the trace does not say. */
+        public String programRevision() {
+            return metadata.get("program_revision");
+        }
+
+        /** The transducer's range in N·m the station judged over-range against, or NaN when not stored. */
+        public double rangeNm() {
+            String v = metadata.get("range_nm");
+            try {
+                return v == null ? Double.NaN : Double.parseDouble(v);
+            } catch (NumberFormatException e) {
+                return Double.NaN;
+            }
+        }
+
+        /** One sample's step in N·m: the int16 scale, 0 for float32 (exact). */
+        public double resolutionNm() {
+            return encoding == Encoding.INT16 ? scaleNm : 0;
+        }
     }
 
     private StoredTrace() {
@@ -75,7 +125,7 @@ public final class StoredTrace {
 
     /** Bytes a trace of {@code samples} samples takes, for the retention arithmetic. */
     public static long sizeOf(Encoding encoding, int samples, int metadataBytes) {
-        return HEADER_BYTES + metadataBytes + (long) samples * encoding.bytes;
+        return HEADER_BYTES + metadataBytes + (long) samples * encoding.bytes + CHECKSUM_BYTES;
     }
 
     /**
@@ -98,7 +148,7 @@ public final class StoredTrace {
             scale = maxAbs > 0 ? maxAbs / 32767.0 : 1e-3;
         }
         long size = sizeOf(encoding, length, meta.length);
-        if (size > Integer.MAX_VALUE) {
+        if (size > Integer.MAX_VALUE - 8) {
             throw new IOException("trace of " + length + " samples is too long to store");
         }
         ByteBuffer b = scratch != null && scratch.capacity() >= size ? scratch.clear()
@@ -118,52 +168,80 @@ public final class StoredTrace {
                 b.putFloat(samples[i]);
             }
         }
+        CRC32C crc = new CRC32C();
+        crc.update(b.array(), 0, b.position());
+        b.putInt((int) crc.getValue());
         out.write(b.array(), 0, b.position());
         return b;
     }
 
-    /** Reads only the header (and metadata) of a stored trace. */
+    /** Reads the header (and metadata) of a stored trace, after checking the file's checksum. */
     public static Header readHeader(Path path) throws TraceException {
-        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
-            return header(path, ch);
-        } catch (NoSuchFileException e) {
-            throw new TraceException(path + ": no such file");
-        } catch (IOException e) {
-            throw new TraceException(path + ": cannot read: " + e.getMessage());
-        }
+        return parse(path, bytes(path));
     }
 
-    /** Streams a stored trace through {@code sink} in blocks of up to {@code block.length} samples. */
+    /**
+     * Streams a stored trace through {@code sink} in blocks of up to {@code block.length} samples. The
+     * whole file is checked first: a damaged trace is refused before its first sample is handed on.
+     */
     public static Header read(Path path, float[] block, SampleSink sink) throws TraceException {
-        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
-            Header h = header(path, ch);
-            int unit = h.encoding().bytes;
-            ByteBuffer buf = ByteBuffer.allocate(block.length * unit).order(ByteOrder.LITTLE_ENDIAN);
-            double periodNs = 1e9 / h.rateHz();
-            long done = 0;
-            while (done < h.samples()) {
-                int k = (int) Math.min(block.length, h.samples() - done);
-                buf.clear().limit(k * unit);
-                while (buf.hasRemaining()) {
-                    if (ch.read(buf) < 0) {
-                        throw new TraceException(path + ": ends after " + (done + (k * unit - buf.remaining()) / unit)
-                                + " of " + h.samples() + " samples (cut short)");
-                    }
-                }
-                buf.flip();
-                if (h.encoding() == Encoding.INT16) {
-                    for (int i = 0; i < k; i++) {
-                        block[i] = (float) (buf.getShort() * h.scaleNm());
-                    }
-                } else {
-                    for (int i = 0; i < k; i++) {
-                        block[i] = buf.getFloat();
-                    }
-                }
-                sink.onSamples(block, 0, k, h.firstSampleNs() + Math.round(done * periodNs));
-                done += k;
+        ByteBuffer file = bytes(path);
+        Header h = parse(path, file);
+        double periodNs = 1e9 / h.rateHz();
+        int done = 0;
+        while (done < h.samples()) {
+            int k = Math.min(block.length, h.samples() - done);
+            decode(h, file, done, block, k);
+            sink.onSamples(block, 0, k, h.firstSampleNs() + Math.round(done * periodNs));
+            done += k;
+        }
+        return h;
+    }
+
+    /** A checked stored trace held whole in memory: its header and its samples in N·m. */
+    public record Loaded(Header header, float[] samples) {
+
+        /** Time of sample {@code index} on the station's clock. */
+        public long timeOf(long index) {
+            return header.firstSampleNs() + Math.round(index * 1e9 / header.rateHz());
+        }
+    }
+
+    /** Reads a whole stored trace into memory, after checking it. */
+    public static Loaded load(Path path) throws TraceException {
+        ByteBuffer file = bytes(path);
+        Header h = parse(path, file);
+        float[] samples = new float[h.samples()];
+        decode(h, file, 0, samples, h.samples());
+        return new Loaded(h, samples);
+    }
+
+    private static void decode(Header h, ByteBuffer file, int from, float[] into, int count) {
+        int at = file.position() + from * h.encoding().bytes;
+        if (h.encoding() == Encoding.INT16) {
+            double scale = h.scaleNm();
+            for (int i = 0; i < count; i++) {
+                into[i] = (float) (file.getShort(at + 2 * i) * scale);
             }
-            return h;
+        } else {
+            for (int i = 0; i < count; i++) {
+                into[i] = file.getFloat(at + 4 * i);
+            }
+        }
+    }
+
+    private static ByteBuffer bytes(Path path) throws TraceException {
+        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
+            long size = ch.size();
+            if (size > Integer.MAX_VALUE - 8) {
+                throw new TraceException(path + ": " + size + " bytes is too long for a stored trace");
+            }
+            ByteBuffer b = ByteBuffer.allocate((int) size).order(ByteOrder.LITTLE_ENDIAN);
+            while (b.hasRemaining() && ch.read(b) >= 0) {
+                // reads until the end
+            }
+            b.flip();
+            return b;
         } catch (NoSuchFileException e) {
             throw new TraceException(path + ": no such file");
         } catch (IOException e) {
@@ -171,58 +249,89 @@ public final class StoredTrace {
         }
     }
 
-    private static Header header(Path path, FileChannel ch) throws IOException, TraceException {
-        ByteBuffer h = ByteBuffer.allocate(HEADER_BYTES).order(ByteOrder.LITTLE_ENDIAN);
-        while (h.hasRemaining()) {
-            if (ch.read(h) < 0) {
-                throw new TraceException(path + ": too short for a stored trace header (" + h.position() + " bytes)");
-            }
+    /**
+     * Checks and parses a whole file; leaves {@code file}'s position at the first sample. The checksum
+     * is checked before any header field is trusted, so a damaged count or scale is never acted on.
+     */
+    private static Header parse(Path path, ByteBuffer file) throws TraceException {
+        int size = file.limit();
+        if (size < HEADER_BYTES) {
+            throw new TraceException(path + ": too short for a stored trace header (" + size + " bytes)");
         }
-        h.flip();
-        if (h.getInt() != MAGIC) {
+        if (file.getInt(0) != MAGIC) {
             throw new TraceException(path + ": not a stored hammerstep trace (no HSTR mark)");
         }
-        int version = h.getShort() & 0xffff;
-        if (version != VERSION) {
-            throw new TraceException(path + ": stored trace version " + version + ", this build reads " + VERSION);
+        int version = file.getShort(4) & 0xffff;
+        if (version != VERSION && version != VERSION_UNCHECKED) {
+            throw new TraceException(path + ": stored trace version " + version + ", this build reads "
+                    + VERSION_UNCHECKED + " and " + VERSION + " (damaged, or written by a newer build)");
         }
-        int code = h.getShort() & 0xffff;
+        boolean checked = version == VERSION;
+        int trailer = checked ? CHECKSUM_BYTES : 0;
+        if (checked) {
+            CRC32C crc = new CRC32C();
+            crc.update(file.array(), 0, size - CHECKSUM_BYTES);
+            if ((int) crc.getValue() != file.getInt(size - CHECKSUM_BYTES)) {
+                throw new TraceException(path + ": checksum does not match: damaged" + sizeHint(file, size)
+                        + ", refused");
+            }
+        }
+        file.position(8);
+        int code = file.getShort(6) & 0xffff;
         Encoding encoding = Encoding.of(code);
         if (encoding == null) {
             throw new TraceException(path + ": unknown sample encoding " + code);
         }
-        double rate = h.getDouble();
-        long first = h.getLong();
-        double scale = h.getDouble();
-        int samples = h.getInt();
-        int metaLength = h.getShort() & 0xffff;
+        double rate = file.getDouble();
+        long first = file.getLong();
+        double scale = file.getDouble();
+        int samples = file.getInt();
+        int metaLength = file.getShort() & 0xffff;
         if (!(rate > 0) || !Double.isFinite(rate)) {
             throw new TraceException(path + ": sample rate " + rate + " Hz is not positive");
         }
-        if (samples < 0 || (encoding == Encoding.INT16 && !(scale > 0))) {
+        if (samples < 0 || (encoding == Encoding.INT16 && !(scale > 0 && Double.isFinite(scale)))) {
             throw new TraceException(path + ": damaged header (samples " + samples + ", scale " + scale + ")");
         }
         if (metaLength > MAX_METADATA_BYTES) {
             throw new TraceException(path + ": metadata of " + metaLength + " bytes is longer than " + MAX_METADATA_BYTES);
         }
-        ByteBuffer m = ByteBuffer.allocate(metaLength);
-        while (m.hasRemaining()) {
-            if (ch.read(m) < 0) {
-                throw new TraceException(path + ": cut short inside its metadata");
-            }
+        long expected = HEADER_BYTES + metaLength + (long) samples * encoding.bytes + trailer;
+        if (size < expected) {
+            throw new TraceException(path + ": " + size + " bytes, its header announces " + expected + " (cut short)");
         }
-        long expected = sizeOf(encoding, samples, metaLength);
-        if (ch.size() < expected) {
-            throw new TraceException(path + ": " + ch.size() + " bytes, its header announces " + expected + " (cut short)");
+        if (checked && size != expected) {
+            throw new TraceException(path + ": " + size + " bytes, its header announces " + expected
+                    + " (bytes after its end), refused");
         }
         Map<String, String> meta = new LinkedHashMap<>();
-        for (String line : new String(m.array(), StandardCharsets.UTF_8).split("\n")) {
+        String text = new String(file.array(), HEADER_BYTES, metaLength, StandardCharsets.UTF_8);
+        for (String line : text.split("\n")) {
             int eq = line.indexOf('=');
             if (eq > 0) {
                 meta.put(line.substring(0, eq), line.substring(eq + 1));
             }
         }
-        return new Header(encoding, rate, first, scale, samples, meta);
+        file.position(HEADER_BYTES + metaLength);
+        return new Header(encoding, rate, first, scale, samples, meta, version);
+    }
+
+    /** What the (unchecked) header's length says about a damaged file, for the one line. */
+    private static String sizeHint(ByteBuffer file, int size) {
+        Encoding e = Encoding.of(file.getShort(6) & 0xffff);
+        int samples = file.getInt(32);
+        int meta = file.getShort(36) & 0xffff;
+        if (e == null || samples < 0) {
+            return "";
+        }
+        long expected = sizeOf(e, samples, meta);
+        if (size < expected) {
+            return " or cut short (" + size + " bytes, its header announces " + expected + ")";
+        }
+        if (size > expected) {
+            return " or appended to (" + size + " bytes, its header announces " + expected + ")";
+        }
+        return "";
     }
 
     private static byte[] metadata(Map<String, String> metadata) {

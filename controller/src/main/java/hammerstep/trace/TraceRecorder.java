@@ -88,6 +88,42 @@ public final class TraceRecorder implements SampleSink {
         return new Span(timeOf(a), count);
     }
 
+    /**
+     * Copies samples {@code [from, toExclusive)}, counted from the first sample ever recorded (see
+     * {@link #written()}) and clipped to what the ring still holds and to {@code dst.length} (the
+     * latest kept), into {@code dst}. Returns the span copied; {@code from} is the index of its first
+     * sample when the ring still held it.
+     */
+    public Span copyIndices(long from, long toExclusive, float[] dst) {
+        long a = Math.max(oldest(), from);
+        long b = Math.min(written, toExclusive) - 1;
+        if (!started || b < a) {
+            return new Span(timeOf(Math.max(a, 0)), 0);
+        }
+        if (b - a + 1 > dst.length) {
+            a = b - dst.length + 1;
+        }
+        int count = (int) (b - a + 1);
+        int n = ring.length;
+        int at = (int) (a % n);
+        int first = Math.min(count, n - at);
+        System.arraycopy(ring, at, dst, 0, first);
+        if (first < count) {
+            System.arraycopy(ring, 0, dst, first, count - first);
+        }
+        return new Span(timeOf(a), count);
+    }
+
+    /** Samples recorded so far: the index the next sample will have. */
+    public long written() {
+        return written;
+    }
+
+    /** Index of the oldest sample the ring still holds. */
+    public long oldest() {
+        return Math.max(0, written - ring.length);
+    }
+
     /** Samples copied by {@link #copy}, the first taken at {@code firstSampleNs}. */
     public record Span(long firstSampleNs, int samples) { }
 

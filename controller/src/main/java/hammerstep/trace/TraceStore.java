@@ -104,6 +104,19 @@ public final class TraceStore {
         return save(jointId, metadata, export, span.samples(), recorder.rateHz(), span.firstSampleNs());
     }
 
+    /**
+     * Stores the recorder's samples {@code [fromIndex, toIndexExclusive)} (counted as
+     * {@link TraceRecorder#written()} counts) as one joint's trace.
+     */
+    public Path saveIndices(String jointId, Map<String, String> metadata, TraceRecorder recorder, long fromIndex,
+                            long toIndexExclusive) throws IOException {
+        if (export == null || export.length < recorder.capacity()) {
+            export = new float[recorder.capacity()];
+        }
+        TraceRecorder.Span span = recorder.copyIndices(fromIndex, toIndexExclusive, export);
+        return save(jointId, metadata, export, span.samples(), recorder.rateHz(), span.firstSampleNs());
+    }
+
     public int count() {
         return kept.size();
     }

@@ -47,7 +47,7 @@ class StoredTraceTest {
         for (int i = 0; i < x.length; i++) {
             assertThat((double) back[i]).isCloseTo(x[i], within(halfStep * 1.001 + 1e-6));
         }
-        assertThat(Files.size(f)).isEqualTo(38 + 2L * x.length);
+        assertThat(Files.size(f)).isEqualTo(38 + 2L * x.length + 4);
     }
 
     @Test

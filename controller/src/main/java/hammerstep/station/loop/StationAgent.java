@@ -15,6 +15,7 @@ import hammerstep.results.UnfinishedPart;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
 import hammerstep.sequence.Store;
+import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
 import hammerstep.signal.SignalFaults;
 import hammerstep.station.OperatorInputs;
@@ -259,7 +260,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     @Override
     public void onBlock(float[] samples, int offset, int length, long firstSampleNs) {
         if (traces != null) {
-            traces.onSamples(samples, offset, length, firstSampleNs);
+            traces.onBlock(samples, offset, length, firstSampleNs, inputConditioner());
         }
         current.onSamples(samples, offset, length, firstSampleNs);
         if (shutoffPending) {
@@ -285,10 +286,21 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         return stage;
     }
 
+    /**
+     * The conditioner that conditions the next block (the input stage): the stored trace keeps its
+     * state at a rundown's start, so that replay starts where the station did.
+     */
+    private Conditioner inputConditioner() {
+        return stage.conditioner();
+    }
+
     // ---- JointEvents from the current monitor, during onSamples ---------------------------------
 
     @Override
     public void onRundownStart(long startNs) {
+        if (traces != null) {
+            traces.rundownStarted(startNs);
+        }
         sequence.rundownStarted(startNs);
         listener.onRundownStart(startNs);
     }
@@ -315,6 +327,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
 
     @Override
     public void onRundown(JointResult result) {
+        if (traces != null) {
+            traces.rundownJudged(result.startNs());
+        }
         sequence.jointJudged(result, nowNs);
         drainStores();
     }
