@@ -15,10 +15,18 @@ import java.util.List;
  * {@link JointEvents}. This is the same object in the station, in replay and in the simulator's
  * cross-checks.
  *
- * <p>A rundown starts at the first sample at or above {@code rundown.start_above} and ends once
- * torque has stayed below it for {@code end_after_ms}; its duration runs to the last sample above.
+ * <p>A rundown starts at the first sample whose |torque| reaches {@code rundown.start_above} and ends
+ * once |torque| has stayed below it for {@code end_after_ms}; its duration runs to the last sample above.
  * A rundown reaching {@code max_ms} is cut there and judged {@code TIME_LONG}; a new rundown can then
  * start only after the signal has been quiet for {@code end_after_ms}.
+ *
+ * <p>Direction: blows are found in either sense. Those in the tightening sense (positive; negative for
+ * a {@linkplain JointProgram#leftHand() left-hand} program, whose signal is read with its sign flipped)
+ * are the rundown's blows. Reverse strikes (main lobe at least {@link #MIN_STRIKE_MS} wide, so that
+ * no interference spike counts) are kept apart; when they carry more impulse than the tightening
+ * blows, the rundown is a loosening: {@link Direction#LOOSEN}, its reverse strikes as negative peaks,
+ * NO-GO {@link Reason#LOOSENED}. A lone reverse contact after the blows of a tightening (the hammer
+ * thrown back when the tool stops) carries far less impulse than they do and leaves it a tightening.
  *
  * <p>Allocation-free per block; allocates one {@link JointResult} per rundown. Single-threaded.
  */
@@ -42,6 +50,7 @@ public final class JointMonitor implements PulseSink {
     private final float[] scratch;
     private final double periodNs;
     private final float startAbove;
+    private final float sense;
     private final float shutoffNm;
     private final long endAfterSamples;
     private final long maxSamples;
@@ -67,6 +76,14 @@ public final class JointMonitor implements PulseSink {
     private final long[] peakTimes = new long[MAX_STORED_BLOWS];
     private final double[] widths = new double[MAX_STORED_BLOWS];
     private final double[] impulses = new double[MAX_STORED_BLOWS];
+    private double tightenImpulse;
+    private int reverseStrikes;
+    private double reverseImpulse;
+    private double reversePeak;
+    private final double[] reversePeaks = new double[MAX_STORED_BLOWS];
+    private final long[] reverseTimes = new long[MAX_STORED_BLOWS];
+    private final double[] reverseWidths = new double[MAX_STORED_BLOWS];
+    private final double[] reverseImpulses = new double[MAX_STORED_BLOWS];
 
     /**
      * @param maxBlockLength the longest block that {@link #onSamples} will be given
@@ -81,6 +98,7 @@ public final class JointMonitor implements PulseSink {
         this.scratch = new float[maxBlockLength];
         this.periodNs = 1e9 / rateHz;
         this.startAbove = (float) program.rundown().startAboveNm();
+        this.sense = program.tighteningSign();
         this.shutoffNm = program.hasShutoff() ? (float) program.shutoffAtNm() : Float.POSITIVE_INFINITY;
         this.endAfterSamples = Math.max(1, (long) Math.ceil(program.rundown().endAfterMs() * 1e-3 * rateHz));
         this.maxSamples = Math.max(1, (long) Math.ceil(program.rundown().maxMs() * 1e-3 * rateHz));
@@ -125,7 +143,8 @@ public final class JointMonitor implements PulseSink {
 
     private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
         float level = startAbove;
-        while (i < length && x[i] < level) {
+        float low = -startAbove;
+        while (i < length && x[i] < level && x[i] > low) {
             i++;
         }
         if (i < length) {
@@ -141,6 +160,10 @@ public final class JointMonitor implements PulseSink {
             blowsAfterShutoff = 0;
             firstBlowAtMin = 0;
             maxPeak = 0;
+            tightenImpulse = 0;
+            reverseStrikes = 0;
+            reverseImpulse = 0;
+            reversePeak = 0;
             detector.reset();
             events.onRundownStart(startNs);
         }
@@ -149,6 +172,8 @@ public final class JointMonitor implements PulseSink {
 
     private int scanActive(float[] x, int from, int length, long firstNs) {
         float level = startAbove;
+        float low = -startAbove;
+        float sign = sense;
         long base = sampleBase;
         // block-relative indices: the rundown is cut at cutIdx and ends at the first sample below
         // the level once endAfter samples have passed since the last one above it
@@ -160,10 +185,10 @@ public final class JointMonitor implements PulseSink {
         boolean ended = false;
         for (; i < stop; i++) {
             float v = x[i];
-            if (v >= level) {
+            if (v >= level || v <= low) {
                 lastAboveRel = i;
                 endRel = i + endAfterSamples;
-                if (v >= shutoffNm && shutoffNs == Long.MIN_VALUE) {
+                if (sign * v >= shutoffNm && shutoffNs == Long.MIN_VALUE) {
                     shutoffNs = firstNs + (long) (i * periodNs);
                     events.onShutoff(shutoffNs);
                 }
@@ -188,9 +213,10 @@ public final class JointMonitor implements PulseSink {
 
     private int scanQuiet(float[] x, int i, int length) {
         float level = startAbove;
+        float low = -startAbove;
         long base = sampleBase;
         for (; i < length; i++) {
-            if (x[i] >= level) {
+            if (x[i] >= level || x[i] <= low) {
                 lastAboveSample = base + i;
             } else if (base + i - lastAboveSample >= endAfterSamples) {
                 state = State.IDLE;
@@ -201,7 +227,14 @@ public final class JointMonitor implements PulseSink {
     }
 
     @Override
-    public void onPulse(long pulseStartNs, double peakNm, long peakNs, double widthMs, double impulseNms) {
+    public void onPulse(long pulseStartNs, double signedPeakNm, long peakNs, double widthMs, double signedImpulseNms) {
+        double peakNm = sense * signedPeakNm;
+        double impulseNms = sense * signedImpulseNms;
+        if (peakNm < 0) {
+            reverseStrike(peakNm, peakNs, widthMs, impulseNms);
+            return;
+        }
+        tightenImpulse += impulseNms;
         int n = blows;
         // a spike narrower than any strike that follows the previous pulse sooner than any tool
         // strikes (the dead time is half the shortest interval between blows) is noise; three such
@@ -235,8 +268,31 @@ public final class JointMonitor implements PulseSink {
         events.onBlow(n, peakNm, peakNs);
     }
 
+    /** A strike against the tightening sense; one narrower than any strike is interference and ignored. */
+    private void reverseStrike(double peakNm, long peakNs, double widthMs, double impulseNms) {
+        if (widthMs < MIN_STRIKE_MS) {
+            return;
+        }
+        int n = reverseStrikes;
+        if (n < MAX_STORED_BLOWS) {
+            reversePeaks[n] = peakNm;
+            reverseTimes[n] = peakNs;
+            reverseWidths[n] = widthMs;
+            reverseImpulses[n] = impulseNms;
+        }
+        if (peakNm < reversePeak) {
+            reversePeak = peakNm;
+        }
+        reverseImpulse -= impulseNms;
+        reverseStrikes = n + 1;
+    }
+
     private void finishRundown(boolean cut) {
         detector.flush();
+        if (reverseStrikes > 0 && reverseImpulse > tightenImpulse) {
+            finishLoosening(cut);
+            return;
+        }
         double finalNm = Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
         double durationMs = (lastAboveNs - startNs) * 1e-6;
         List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults);
@@ -246,6 +302,30 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(widths, stored), Arrays.copyOf(impulses, stored),
                 finalNm, durationMs, shutoffNs, blowsAfterShutoff, rundownFaults,
                 reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons);
+        events.onRundown(result);
+    }
+
+    /**
+     * A loosening: the reverse strikes are its blows (negative peaks), its final torque the strongest of
+     * them (negative); NO-GO {@code LOOSENED}, with {@code TIME_LONG} and {@code SENSOR_FAULT} as for a
+     * tightening. The program's windows do not apply.
+     */
+    private void finishLoosening(boolean cut) {
+        double durationMs = (lastAboveNs - startNs) * 1e-6;
+        List<Reason> reasons = new java.util.ArrayList<>(3);
+        reasons.add(Reason.LOOSENED);
+        if (cut) {
+            reasons.add(Reason.TIME_LONG);
+        }
+        if (rundownFaults != 0) {
+            reasons.add(Reason.SENSOR_FAULT);
+        }
+        int stored = Math.min(reverseStrikes, MAX_STORED_BLOWS);
+        JointResult result = new JointResult(program, startNs, lastAboveNs, reverseStrikes,
+                Arrays.copyOf(reversePeaks, stored), Arrays.copyOf(reverseTimes, stored),
+                Arrays.copyOf(reverseWidths, stored), Arrays.copyOf(reverseImpulses, stored),
+                reversePeak, durationMs, shutoffNs, 0, rundownFaults, Verdict.NO_GO, List.copyOf(reasons),
+                Direction.LOOSEN);
         events.onRundown(result);
     }
 
