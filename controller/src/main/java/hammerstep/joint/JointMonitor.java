@@ -15,15 +15,18 @@ import java.util.List;
  * {@link JointEvents}. This is the same object in the station, in replay and in the simulator's
  * cross-checks.
  *
- * <p>A rundown starts at the first sample whose |torque| reaches {@code rundown.start_above} and ends
- * once |torque| has stayed below it for {@code end_after_ms}; its duration runs to the last sample above.
+ * <p>A rundown starts at the first sample that reaches {@code rundown.start_above} in the tightening
+ * sense or {@code blows.count_above} against it (a loosening begins with a reverse strike; smaller
+ * reverse wiggles, such as the contact of a free-running tool's hammer when it is braked, start
+ * nothing), and ends once |torque| has stayed below {@code start_above} for {@code end_after_ms}; its
+ * duration runs to the last sample above.
  * A rundown reaching {@code max_ms} is cut there and judged {@code TIME_LONG}; a new rundown can then
  * start only after the signal has been quiet for {@code end_after_ms}.
  *
  * <p>Direction: blows are found in either sense. Those in the tightening sense (positive; negative for
  * a {@linkplain JointProgram#leftHand() left-hand} program, whose signal is read with its sign flipped)
- * are the rundown's blows. Reverse strikes (main lobe at least {@link #MIN_STRIKE_MS} wide, so that
- * no interference spike counts) are kept apart; when they carry more impulse than the tightening
+ * are the rundown's blows. Reverse strikes (main lobe at least {@link #MIN_REVERSE_STRIKE_MS} and
+ * {@link #MIN_REVERSE_STRIKE_SAMPLES} samples wide, so that no interference spike counts) are kept apart; when they carry more impulse than the tightening
  * blows, the rundown is a loosening: {@link Direction#LOOSEN}, its reverse strikes as negative peaks,
  * NO-GO {@link Reason#LOOSENED}. A lone reverse contact after the blows of a tightening (the hammer
  * thrown back when the tool stops) carries far less impulse than they do and leaves it a tightening.
@@ -40,6 +43,14 @@ public final class JointMonitor implements PulseSink {
      * before than any tool strikes, mean electrical noise: the {@code NOISE} fault (SENSOR_FAULT).
      */
     public static final double MIN_STRIKE_MS = 0.25;
+    /**
+     * A reverse pulse counts as a reverse strike only when its main lobe lasts this long and at least
+     * {@link #MIN_REVERSE_STRIKE_SAMPLES} samples: a one- or two-sample spike never does. Lower than
+     * {@link #MIN_STRIKE_MS} because the last strikes of a loosening, on a nut that already turns,
+     * are short (0.2 ms above the release level in the simulator's cam-and-ball tool).
+     */
+    public static final double MIN_REVERSE_STRIKE_MS = 0.1;
+    public static final int MIN_REVERSE_STRIKE_SAMPLES = 3;
 
     private enum State { IDLE, ACTIVE, QUIET }
 
@@ -51,6 +62,10 @@ public final class JointMonitor implements PulseSink {
     private final double periodNs;
     private final float startAbove;
     private final float sense;
+    private final double minReverseWidthMs;
+    /** Idle: a sample at or above {@code idleHigh} or at or below {@code idleLow} starts a rundown. */
+    private final float idleHigh;
+    private final float idleLow;
     private final float shutoffNm;
     private final long endAfterSamples;
     private final long maxSamples;
@@ -99,6 +114,10 @@ public final class JointMonitor implements PulseSink {
         this.periodNs = 1e9 / rateHz;
         this.startAbove = (float) program.rundown().startAboveNm();
         this.sense = program.tighteningSign();
+        this.minReverseWidthMs = Math.max(MIN_REVERSE_STRIKE_MS, (MIN_REVERSE_STRIKE_SAMPLES - 0.5) * 1e3 / rateHz);
+        float reverseStart = (float) Math.max(program.rundown().startAboveNm(), b.countAboveNm());
+        this.idleHigh = sense > 0 ? startAbove : reverseStart;
+        this.idleLow = sense > 0 ? -reverseStart : -startAbove;
         this.shutoffNm = program.hasShutoff() ? (float) program.shutoffAtNm() : Float.POSITIVE_INFINITY;
         this.endAfterSamples = Math.max(1, (long) Math.ceil(program.rundown().endAfterMs() * 1e-3 * rateHz));
         this.maxSamples = Math.max(1, (long) Math.ceil(program.rundown().maxMs() * 1e-3 * rateHz));
@@ -142,9 +161,9 @@ public final class JointMonitor implements PulseSink {
     }
 
     private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
-        float level = startAbove;
-        float low = -startAbove;
-        while (i < length && x[i] < level && x[i] > low) {
+        float high = idleHigh;
+        float low = idleLow;
+        while (i < length && x[i] < high && x[i] > low) {
             i++;
         }
         if (i < length) {
@@ -270,7 +289,7 @@ public final class JointMonitor implements PulseSink {
 
     /** A strike against the tightening sense; one narrower than any strike is interference and ignored. */
     private void reverseStrike(double peakNm, long peakNs, double widthMs, double impulseNms) {
-        if (widthMs < MIN_STRIKE_MS) {
+        if (widthMs < minReverseWidthMs) {
             return;
         }
         int n = reverseStrikes;
