@@ -42,7 +42,8 @@ public final class Rig {
     private boolean trigger;
     private boolean enabled = true;
     private boolean reverse;
-    private double mirrorRad;
+    /** The nut's angle at the last direction switch: the mechanism's zero in the tool's sense. */
+    private double switchRad;
     private long samples;
     private long steps;
     private double blowThresholdNm = DEFAULT_BLOW_THRESHOLD_NM;
@@ -138,13 +139,13 @@ public final class Rig {
 
     private void step() {
         // the mechanism works in the tool's sense: the nut's angle mirrored while in reverse
-        double nutAngle = reverse ? mirrorRad - fastener.angleRad() : fastener.angleRad();
+        double nutAngle = toolSense(fastener.angleRad());
         double nutSpeed = fastener.speedRadS();
         double t = mechanism.trainTorque(nutAngle, nutSpeed);
         double striker = mechanism.strikerAngle();
         mechanism.advance(h, t, nutAngle, nutSpeed);
         fastener.advance(h, t);
-        double nutAfter = reverse ? mirrorRad - fastener.angleRad() : fastener.angleRad();
+        double nutAfter = toolSense(fastener.angleRad());
         trainWorkJ += t * ((mechanism.strikerAngle() - striker) - (nutAfter - nutAngle));
         double shaft = reverse ? -t : t;
         transducer.filter(shaft);
@@ -178,11 +179,16 @@ public final class Rig {
             return;
         }
         this.reverse = reverse;
-        mirrorRad = fastener.angleRad();
+        switchRad = fastener.angleRad();
         fastener.setReverse(reverse);
         mechanism.resetSwitched();
         seenReleases = mechanism.releases();
         blowPeakNm = 0;
+    }
+
+    /** The nut's angle as the mechanism sees it: from the last switch, mirrored in reverse. */
+    private double toolSense(double nutRad) {
+        return reverse ? switchRad - nutRad : nutRad - switchRad;
     }
 
     /** True while the tool runs in reverse (loosening). */
@@ -193,6 +199,7 @@ public final class Rig {
     /** The next bolt: the joint reset to loose, the striker at rest against the anvil, blow count zero. */
     public void newFastener(JointSpec joint) {
         reverse = false;
+        switchRad = 0;
         fastener.renew(joint);
         mechanism.reset();
         seenReleases = mechanism.releases();
@@ -261,7 +268,7 @@ public final class Rig {
 
     /** Turns of the mechanism's input relative to the fastener since the present fastener was started. */
     public double relativeTurns() {
-        return (mechanism.inputAngleRad() - fastener.angleRad()) / (2.0 * Math.PI);
+        return (mechanism.inputAngleRad() - toolSense(fastener.angleRad())) / (2.0 * Math.PI);
     }
 
     /** Free speed of the mechanism's input under the present supply, rpm. */
@@ -298,7 +305,7 @@ public final class Rig {
     /** The energy ledger since the rig was created (see docs/simulator.md). */
     public Energy energy() {
         return new Energy(mechanism.driveWorkJ(), mechanism.storedJ(), fastener.kineticJ(),
-                mechanism.trainElasticJ(reverse ? mirrorRad - fastener.angleRad() : fastener.angleRad()), trainWorkJ,
+                mechanism.trainElasticJ(toolSense(fastener.angleRad())), trainWorkJ,
                 fastener.jointWorkJ());
     }
 
