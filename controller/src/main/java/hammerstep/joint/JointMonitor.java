@@ -27,9 +27,10 @@ import java.util.List;
  * a {@linkplain JointProgram#leftHand() left-hand} program, whose signal is read with its sign flipped)
  * are the rundown's blows. Reverse strikes (main lobe at least {@link #MIN_REVERSE_STRIKE_MS} and
  * {@link #MIN_REVERSE_STRIKE_SAMPLES} samples wide, so that no interference spike counts) are kept apart; when they carry more impulse than the tightening
- * blows, the rundown is a loosening: {@link Direction#LOOSEN}, its reverse strikes as negative peaks,
- * NO-GO {@link Reason#LOOSENED}. A lone reverse contact after the blows of a tightening (the hammer
- * thrown back when the tool stops) carries far less impulse than they do and leaves it a tightening.
+ * blows (and, when there are tightening blows, number at least {@link #MIN_REVERSE_STRIKES_AFTER_BLOWS}),
+ * the rundown is a loosening: {@link Direction#LOOSEN}, its reverse strikes as negative peaks, NO-GO
+ * {@link Reason#LOOSENED}. The lone reverse contact after the blows of a tightening (the hammer thrown
+ * back when the tool stops) therefore leaves it a tightening, even after a single snug blow.
  *
  * <p>Allocation-free per block; allocates one {@link JointResult} per rundown. Single-threaded.
  */
@@ -51,6 +52,12 @@ public final class JointMonitor implements PulseSink {
      */
     public static final double MIN_REVERSE_STRIKE_MS = 0.1;
     public static final int MIN_REVERSE_STRIKE_SAMPLES = 3;
+    /**
+     * After tightening blows, a loosening needs this many reverse strikes: a tool that stops after
+     * hammering throws its hammer back onto the jaw behind it once (one reverse contact), which after
+     * a single snug blow can carry more impulse than that blow.
+     */
+    public static final int MIN_REVERSE_STRIKES_AFTER_BLOWS = 2;
 
     private enum State { IDLE, ACTIVE, QUIET }
 
@@ -308,7 +315,8 @@ public final class JointMonitor implements PulseSink {
 
     private void finishRundown(boolean cut) {
         detector.flush();
-        if (reverseStrikes > 0 && reverseImpulse > tightenImpulse) {
+        if (reverseStrikes > 0 && reverseImpulse > tightenImpulse
+                && (blows == 0 || reverseStrikes >= MIN_REVERSE_STRIKES_AFTER_BLOWS)) {
             finishLoosening(cut);
             return;
         }

@@ -167,6 +167,25 @@ class LooseningTest {
         }
     }
 
+    /** A snug pass: one blow cut at the shut-off, then the tool's back contact, stronger than that blow. */
+    @ParameterizedTest(name = "{0} Hz")
+    @ValueSource(doubles = {20_000, 50_000, 100_000})
+    void theBackStrikeAfterASingleSnugBlowLeavesATightening(double rate) {
+        JointProgram snug = new JointProgram("snug-like", "", new JointProgram.Torque(120, 200, 320),
+                FinalTorque.MAX_PEAK, new JointProgram.Blows(100, 50, 1, 8, 7.5), new JointProgram.Rundown(15, 150, 3000),
+                Double.NaN, 0);
+        for (int seed = 0; seed < 4; seed++) {
+            double back = -(195 + 9 * seed);
+            List<Strike> strikes = List.of(new Strike(0.1, 0.0012, 160, 0.3, 0.1, 0.1),
+                    new Strike(0.1 + 0.040 + 0.003 * seed, 0.0025, back, 0.3, 0.0, 0.1));
+            List<JointResult> results = replay(snug, rate, PulseTrain.render(rate, 0.5, strikes, 0, 1.0, 20 + seed));
+            assertThat(results).as("back contact %.0f N·m", back).hasSize(1);
+            assertThat(results.get(0).direction()).isEqualTo(Direction.TIGHTEN);
+            assertThat(results.get(0).blows()).isEqualTo(1);
+            assertThat(results.get(0).verdict()).isEqualTo(Verdict.GO);
+        }
+    }
+
     @ParameterizedTest(name = "{0} Hz")
     @ValueSource(doubles = {20_000, 50_000, 100_000})
     void negativeSpikesOfOneSampleAreNoReverseStrikes(double rate) {
