@@ -19,6 +19,7 @@ import java.util.List;
  * receives the joint messages ({@code schema} {@value #JOINT_SCHEMA}). Lines of other schemas
  * (part, event, status messages) are skipped and counted; a line without {@code schema} that
  * carries {@code final_torque_nm} (the output of {@code hammerstep replay}) is read as a joint.
+ * A loosening ({@code "direction": "loosen"}) is no tightening of the joint: skipped and counted too.
  * A line that is not JSON, or a joint line missing a field, is an error naming file and line.
  */
 public final class ResultsFile {
@@ -56,7 +57,8 @@ public final class ResultsFile {
                 }
                 JsonNode schema = node.get("schema");
                 boolean joint = schema == null ? node.has("final_torque_nm") : JOINT_SCHEMA.equals(schema.asText());
-                if (!joint) {
+                JsonNode direction = node.get("direction");
+                if (!joint || direction != null && "loosen".equals(direction.asText())) {
                     skipped++;
                     continue;
                 }

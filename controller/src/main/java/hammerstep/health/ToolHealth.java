@@ -98,9 +98,9 @@ public final class ToolHealth {
         this.settings = settings;
     }
 
-    /** Takes one judged joint; returns the figures that changed state (usually none). */
+    /** Takes one judged joint; returns the figures that changed state (usually none). A loosening is not learnt. */
     public List<Change> observe(String tool, String program, JointResult r) {
-        if (r.blows() < settings.minBlows() || r.faults() != 0 || r.peaksNm().length == 0) {
+        if (r.loosening() || r.blows() < settings.minBlows() || r.faults() != 0 || r.peaksNm().length == 0) {
             return List.of();
         }
         double peaks = 0;

@@ -22,10 +22,22 @@ import java.util.List;
  * follow each other in time: a block that does not start where the one before ended is a data gap
  * ({@link SignalFaults#DATA_GAP}; see {@link InputStage}).
  *
- * <p>A rundown starts at the first sample at or above {@code rundown.start_above} and ends once
- * torque has stayed below it for {@code end_after_ms}; its duration runs to the last sample above.
+ * <p>A rundown starts at the first sample that reaches {@code rundown.start_above} in the tightening
+ * sense or {@code blows.count_above} against it (a loosening begins with a reverse strike; smaller
+ * reverse wiggles, such as the contact of a free-running tool's hammer when it is braked, start
+ * nothing), and ends once |torque| has stayed below {@code start_above} for {@code end_after_ms}; its
+ * duration runs to the last sample above.
  * A rundown reaching {@code max_ms} is cut there and judged {@code TIME_LONG}; a new rundown can then
  * start only after the signal has been quiet for {@code end_after_ms}.
+ *
+ * <p>Direction: blows are found in either sense. Those in the tightening sense (positive; negative for
+ * a {@linkplain JointProgram#leftHand() left-hand} program, whose signal is read with its sign flipped)
+ * are the rundown's blows. Reverse strikes (main lobe at least {@link #MIN_REVERSE_STRIKE_MS} and
+ * {@link #MIN_REVERSE_STRIKE_SAMPLES} samples wide, so that no interference spike counts) are kept apart; when they carry more impulse than the tightening
+ * blows (and, when there are tightening blows, number at least {@link #MIN_REVERSE_STRIKES_AFTER_BLOWS}),
+ * the rundown is a loosening: {@link Direction#LOOSEN}, its reverse strikes as negative peaks, NO-GO
+ * {@link Reason#LOOSENED}. The lone reverse contact after the blows of a tightening (the hammer thrown
+ * back when the tool stops) therefore leaves it a tightening, even after a single snug blow.
  *
  * <p>Allocation-free per block; allocates one {@link JointResult} per rundown. Single-threaded.
  */
@@ -39,6 +51,20 @@ public final class JointMonitor implements PulseSink {
      * before than any tool strikes, mean electrical noise: the {@code NOISE} fault (SENSOR_FAULT).
      */
     public static final double MIN_STRIKE_MS = 0.25;
+    /**
+     * A reverse pulse counts as a reverse strike only when its main lobe lasts this long and at least
+     * {@link #MIN_REVERSE_STRIKE_SAMPLES} samples: a one- or two-sample spike never does. Lower than
+     * {@link #MIN_STRIKE_MS} because the last strikes of a loosening, on a nut that already turns,
+     * are short (0.2 ms above the release level in the simulator's cam-and-ball tool).
+     */
+    public static final double MIN_REVERSE_STRIKE_MS = 0.1;
+    public static final int MIN_REVERSE_STRIKE_SAMPLES = 3;
+    /**
+     * After tightening blows, a loosening needs this many reverse strikes: a tool that stops after
+     * hammering throws its hammer back onto the jaw behind it once (one reverse contact), which after
+     * a single snug blow can carry more impulse than that blow.
+     */
+    public static final int MIN_REVERSE_STRIKES_AFTER_BLOWS = 2;
 
     private enum State { IDLE, ACTIVE, QUIET }
 
@@ -48,6 +74,11 @@ public final class JointMonitor implements PulseSink {
     private final JointEvents events;
     private final double periodNs;
     private final float startAbove;
+    private final float sense;
+    private final double minReverseWidthMs;
+    /** Idle: a sample at or above {@code idleHigh} or at or below {@code idleLow} starts a rundown. */
+    private final float idleHigh;
+    private final float idleLow;
     private final float shutoffNm;
     private final long endAfterSamples;
     private final long maxSamples;
@@ -72,6 +103,14 @@ public final class JointMonitor implements PulseSink {
     private final long[] peakTimes = new long[MAX_STORED_BLOWS];
     private final double[] widths = new double[MAX_STORED_BLOWS];
     private final double[] impulses = new double[MAX_STORED_BLOWS];
+    private double tightenImpulse;
+    private int reverseStrikes;
+    private double reverseImpulse;
+    private double reversePeak;
+    private final double[] reversePeaks = new double[MAX_STORED_BLOWS];
+    private final long[] reverseTimes = new long[MAX_STORED_BLOWS];
+    private final double[] reverseWidths = new double[MAX_STORED_BLOWS];
+    private final double[] reverseImpulses = new double[MAX_STORED_BLOWS];
 
     /**
      * A monitor with its own input stage (replay, the simulator's cross-checks).
@@ -97,6 +136,11 @@ public final class JointMonitor implements PulseSink {
         this.events = events;
         this.periodNs = 1e9 / rateHz;
         this.startAbove = (float) program.rundown().startAboveNm();
+        this.sense = program.tighteningSign();
+        this.minReverseWidthMs = Math.max(MIN_REVERSE_STRIKE_MS, (MIN_REVERSE_STRIKE_SAMPLES - 0.5) * 1e3 / rateHz);
+        float reverseStart = (float) Math.max(program.rundown().startAboveNm(), b.countAboveNm());
+        this.idleHigh = sense > 0 ? startAbove : reverseStart;
+        this.idleLow = sense > 0 ? -reverseStart : -startAbove;
         this.shutoffNm = program.hasShutoff() ? (float) program.shutoffAtNm() : Float.POSITIVE_INFINITY;
         this.endAfterSamples = Math.max(1, (long) Math.ceil(program.rundown().endAfterMs() * 1e-3 * rateHz));
         this.maxSamples = Math.max(1, (long) Math.ceil(program.rundown().maxMs() * 1e-3 * rateHz));
@@ -178,8 +222,9 @@ public final class JointMonitor implements PulseSink {
     }
 
     private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
-        float level = startAbove;
-        while (i < length && x[i] < level) {
+        float high = idleHigh;
+        float low = idleLow;
+        while (i < length && x[i] < high && x[i] > low) {
             i++;
         }
         if (i < length) {
@@ -195,6 +240,10 @@ public final class JointMonitor implements PulseSink {
             blowsAfterShutoff = 0;
             firstBlowAtMin = 0;
             maxPeak = 0;
+            tightenImpulse = 0;
+            reverseStrikes = 0;
+            reverseImpulse = 0;
+            reversePeak = 0;
             detector.reset();
             events.onRundownStart(startNs);
         }
@@ -203,6 +252,8 @@ public final class JointMonitor implements PulseSink {
 
     private int scanActive(float[] x, int from, int length, long firstNs) {
         float level = startAbove;
+        float low = -startAbove;
+        float sign = sense;
         long base = sampleBase;
         // block-relative indices: the rundown is cut at cutIdx and ends at the first sample below
         // the level once endAfter samples have passed since the last one above it
@@ -214,10 +265,10 @@ public final class JointMonitor implements PulseSink {
         boolean ended = false;
         for (; i < stop; i++) {
             float v = x[i];
-            if (v >= level) {
+            if (v >= level || v <= low) {
                 lastAboveRel = i;
                 endRel = i + endAfterSamples;
-                if (v >= shutoffNm && shutoffNs == Long.MIN_VALUE) {
+                if (sign * v >= shutoffNm && shutoffNs == Long.MIN_VALUE) {
                     shutoffNs = firstNs + (long) (i * periodNs);
                     events.onShutoff(shutoffNs);
                 }
@@ -242,9 +293,10 @@ public final class JointMonitor implements PulseSink {
 
     private int scanQuiet(float[] x, int i, int length) {
         float level = startAbove;
+        float low = -startAbove;
         long base = sampleBase;
         for (; i < length; i++) {
-            if (x[i] >= level) {
+            if (x[i] >= level || x[i] <= low) {
                 lastAboveSample = base + i;
             } else if (base + i - lastAboveSample >= endAfterSamples) {
                 state = State.IDLE;
@@ -255,7 +307,14 @@ public final class JointMonitor implements PulseSink {
     }
 
     @Override
-    public void onPulse(long pulseStartNs, double peakNm, long peakNs, double widthMs, double impulseNms) {
+    public void onPulse(long pulseStartNs, double signedPeakNm, long peakNs, double widthMs, double signedImpulseNms) {
+        double peakNm = sense * signedPeakNm;
+        double impulseNms = sense * signedImpulseNms;
+        if (peakNm < 0) {
+            reverseStrike(peakNm, peakNs, widthMs, impulseNms);
+            return;
+        }
+        tightenImpulse += impulseNms;
         int n = blows;
         // a spike narrower than any strike that follows the previous pulse sooner than any tool
         // strikes (the dead time is half the shortest interval between blows) is noise; three such
@@ -289,8 +348,32 @@ public final class JointMonitor implements PulseSink {
         events.onBlow(n, peakNm, peakNs);
     }
 
+    /** A strike against the tightening sense; one narrower than any strike is interference and ignored. */
+    private void reverseStrike(double peakNm, long peakNs, double widthMs, double impulseNms) {
+        if (widthMs < minReverseWidthMs) {
+            return;
+        }
+        int n = reverseStrikes;
+        if (n < MAX_STORED_BLOWS) {
+            reversePeaks[n] = peakNm;
+            reverseTimes[n] = peakNs;
+            reverseWidths[n] = widthMs;
+            reverseImpulses[n] = impulseNms;
+        }
+        if (peakNm < reversePeak) {
+            reversePeak = peakNm;
+        }
+        reverseImpulse -= impulseNms;
+        reverseStrikes = n + 1;
+    }
+
     private void finishRundown(boolean cut) {
         detector.flush();
+        if (reverseStrikes > 0 && reverseImpulse > tightenImpulse
+                && (blows == 0 || reverseStrikes >= MIN_REVERSE_STRIKES_AFTER_BLOWS)) {
+            finishLoosening(cut);
+            return;
+        }
         double finalNm = Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
         double durationMs = (lastAboveNs - startNs) * 1e-6;
         List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults);
@@ -300,6 +383,30 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(widths, stored), Arrays.copyOf(impulses, stored),
                 finalNm, durationMs, shutoffNs, blowsAfterShutoff, rundownFaults,
                 reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons);
+        events.onRundown(result);
+    }
+
+    /**
+     * A loosening: the reverse strikes are its blows (negative peaks), its final torque the strongest of
+     * them (negative); NO-GO {@code LOOSENED}, with {@code TIME_LONG} and {@code SENSOR_FAULT} as for a
+     * tightening. The program's windows do not apply.
+     */
+    private void finishLoosening(boolean cut) {
+        double durationMs = (lastAboveNs - startNs) * 1e-6;
+        List<Reason> reasons = new java.util.ArrayList<>(3);
+        reasons.add(Reason.LOOSENED);
+        if (cut) {
+            reasons.add(Reason.TIME_LONG);
+        }
+        if (rundownFaults != 0) {
+            reasons.add(Reason.SENSOR_FAULT);
+        }
+        int stored = Math.min(reverseStrikes, MAX_STORED_BLOWS);
+        JointResult result = new JointResult(program, startNs, lastAboveNs, reverseStrikes,
+                Arrays.copyOf(reversePeaks, stored), Arrays.copyOf(reverseTimes, stored),
+                Arrays.copyOf(reverseWidths, stored), Arrays.copyOf(reverseImpulses, stored),
+                reversePeak, durationMs, shutoffNs, 0, rundownFaults, Verdict.NO_GO, List.copyOf(reasons),
+                Direction.LOOSEN);
         events.onRundown(result);
     }
 

@@ -8,6 +8,9 @@ package hammerstep.joint;
  * @param revision    content hash of the program file as loaded ("" for programs built in code)
  * @param shutoffAtNm torque at which tool enable drops; {@code NaN} when the program sets none
  * @param rehitBlows  reaching {@code torque.min} within this many blows marks a rehit; 0 disables
+ * @param leftHand    a left-hand thread ({@code thread: left}): the fastener tightens counter-clockwise, so
+ *                    the transducer reads its strikes negative. The monitor flips the sign: torques,
+ *                    peaks and windows stay in the tightening sense (positive), a loosening's peaks negative
  */
 public record JointProgram(
         String id,
@@ -17,7 +20,19 @@ public record JointProgram(
         Blows blows,
         Rundown rundown,
         double shutoffAtNm,
-        int rehitBlows) {
+        int rehitBlows,
+        boolean leftHand) {
+
+    /** A program for a right-hand thread (the common case). */
+    public JointProgram(String id, String revision, Torque torque, FinalTorque finalTorque, Blows blows,
+                        Rundown rundown, double shutoffAtNm, int rehitBlows) {
+        this(id, revision, torque, finalTorque, blows, rundown, shutoffAtNm, rehitBlows, false);
+    }
+
+    /** +1 for a right-hand thread, -1 for a left-hand one: the transducer's sign of a tightening strike. */
+    public float tighteningSign() {
+        return leftHand ? -1f : 1f;
+    }
 
     /** Default fastest plausible blow rate, per minute, from which the dead time follows. */
     public static final double DEFAULT_MAX_RATE_PER_MIN = 4000.0;

@@ -18,6 +18,9 @@ import java.util.List;
  * @param shutoffAtNs       time the shut-off level was first reached; {@link Long#MIN_VALUE} when not
  * @param blowsAfterShutoff blows that began after the shut-off crossing
  * @param faults            sensor faults seen during the rundown (bits of {@link hammerstep.signal.SignalFaults})
+ * @param direction         {@link Direction#LOOSEN} when the rundown's strikes went against the tightening
+ *                          sense; its peaks are then those reverse strikes, negative, and it is NO-GO
+ *                          ({@link Reason#LOOSENED})
  */
 public record JointResult(
         JointProgram program,
@@ -34,7 +37,22 @@ public record JointResult(
         int blowsAfterShutoff,
         int faults,
         Verdict verdict,
-        List<Reason> reasons) {
+        List<Reason> reasons,
+        Direction direction) {
+
+    /** A tightening rundown (the direction of every result before loosening was told apart). */
+    public JointResult(JointProgram program, long startNs, long endNs, int blows, double[] peaksNm,
+                       long[] peakTimesNs, double[] widthsMs, double[] impulsesNms, double finalTorqueNm,
+                       double durationMs, long shutoffAtNs, int blowsAfterShutoff, int faults, Verdict verdict,
+                       List<Reason> reasons) {
+        this(program, startNs, endNs, blows, peaksNm, peakTimesNs, widthsMs, impulsesNms, finalTorqueNm,
+                durationMs, shutoffAtNs, blowsAfterShutoff, faults, verdict, reasons, Direction.TIGHTEN);
+    }
+
+    /** True for a loosening (the tool in reverse). */
+    public boolean loosening() {
+        return direction == Direction.LOOSEN;
+    }
 
     public boolean shutoffReached() {
         return shutoffAtNs != Long.MIN_VALUE;

@@ -94,9 +94,10 @@ public final class ProgramFile {
             root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is below blows.count_above (" + countAbove + ")");
         }
         int rehit = root.integer("rehit_blows", 0, 0, 1000);
+        boolean leftHand = "left".equals(root.choice("thread", "right", java.util.List.of("right", "left")));
 
         return new JointProgram(id, revision, new JointProgram.Torque(min, target, max), finalTorque,
                 new JointProgram.Blows(countAbove, releaseBelow, blowsMin, blowsMax, deadTime),
-                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit);
+                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit, leftHand);
     }
 }

@@ -10,5 +10,7 @@ public enum Reason {
     REHIT,
     SENSOR_FAULT,
     /** Set by the station: a rundown on a position other than the prompted one (position confirm sensors). */
-    OUT_OF_SEQUENCE
+    OUT_OF_SEQUENCE,
+    /** The rundown's strikes went against the tightening sense: the tool ran in reverse (a loosening). */
+    LOOSENED
 }

@@ -13,7 +13,8 @@ import java.util.Map;
 /**
  * The figures of a judged joint under the field names that replay output and the MQTT joint
  * message share ({@code blows}, {@code peaks_nm}, {@code final_torque_nm}, {@code duration_ms},
- * {@code verdict}, {@code reasons}, {@code limits}, ...). Values are rounded for reading:
+ * {@code verdict}, {@code reasons}, {@code limits}, ...). {@code direction} is {@code tighten} or
+ * {@code loosen}; a loosening's peaks and final torque are negative (against the tightening sense). Values are rounded for reading:
  * torques to 0.01 N·m, times to 0.1 ms.
  */
 public final class JointFields {
@@ -26,6 +27,7 @@ public final class JointFields {
         JointProgram p = r.program();
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("program", p.id());
+        m.put("direction", r.direction().key());
         m.put("blows", r.blows());
         List<Double> peaks = new ArrayList<>(r.peaksNm().length);
         for (double v : r.peaksNm()) {

@@ -24,6 +24,7 @@ final class PartProgress {
     private boolean[] leftOut = new boolean[0];
     private final List<String> jointIds = new ArrayList<>();
     private boolean failed;
+    private int lastPassed = -1;
 
     /** A new part with {@code positions} positions: nothing done, nothing failed, no joints. */
     void startPart(int positions) {
@@ -32,12 +33,14 @@ final class PartProgress {
         leftOut = new boolean[positions];
         jointIds.clear();
         failed = false;
+        lastPassed = -1;
     }
 
     /** A new pass: its positions pending (those left out skipped), attempts from zero. */
     void startPass(Pattern.Pass pass) {
         Arrays.fill(status, NOT_IN_PASS);
         Arrays.fill(attempts, 0);
+        lastPassed = -1;
         for (int k = 0; k < pass.orderLength(); k++) {
             int pos = pass.orderAt(k);
             status[pos] = leftOut[pos] ? SKIPPED : PENDING;
@@ -81,6 +84,23 @@ final class PartProgress {
 
     void passed(int pos) {
         status[pos] = DONE;
+        lastPassed = pos;
+    }
+
+    /** The position judged GO most recently in the current pass and not voided since, or -1. */
+    int lastPassed() {
+        return lastPassed;
+    }
+
+    /**
+     * A position judged GO was loosened: it is pending again, so it is prompted again and the pass
+     * (and the part) cannot complete until it is tightened again. Its attempts stand.
+     */
+    void voided(int pos) {
+        status[pos] = PENDING;
+        if (lastPassed == pos) {
+            lastPassed = -1;
+        }
     }
 
     void retry(int pos) {

@@ -31,6 +31,16 @@ import java.time.LocalDate;
  * that position; it drops at the shut-off crossing. A verdict lamp shows only after its result was
  * stored.
  *
+ * <p>A loosening (the tool in reverse, {@link JointResult#loosening()}) is stored as a joint result
+ * (NO-GO, {@code LOOSENED}) of the position it undid, counts no attempt and needs no acknowledge. On a
+ * position judged GO in the current pass it voids that position (alarm {@code LOOSENED}): the position
+ * is pending again, its lamp prompts it again, and the part cannot complete until it is tightened
+ * again. Which position: the confirm sensors' reading at the rundown's start; without sensors the
+ * prompted one, except when the prompted position has no rundown yet in this pass (there is nothing on
+ * it to loosen): then the position judged GO last, the bolt an operator backs off. A loosening of a
+ * position not judged GO (not yet tightened, or backing out a NO-GO bolt) voids nothing: a notice
+ * {@code LOOSENED}, and the prompt stands (docs/patterns.md).
+ *
  * <p>Single-threaded: the station thread owns it.
  */
 public final class Sequence {
@@ -74,6 +84,8 @@ public final class Sequence {
     private Verdict lastVerdict;
     private int judgedPosition = -1;
     private Verdict judgedVerdict;
+    private boolean judgedLoosening;
+    private boolean judgedVoids;
     private long completeAtNs;
     /** The finished part's GO record is on disk: only then does COMPLETE show, and its hold run. */
     private boolean completeOnDisk;
@@ -225,6 +237,10 @@ public final class Sequence {
             unexpectedRundown = false;
             return;
         }
+        if (result.loosening()) {
+            loosened(result, nowNs);
+            return;
+        }
         int pos = rundownPosition;
         JointResult r = result;
         if (pos != prompted) {
@@ -239,6 +255,32 @@ public final class Sequence {
         records.joint(part, pattern, pos, pass.name(), attempt, r, nowNs);
         judgedPosition = pos;
         judgedVerdict = r.verdict();
+        judgedLoosening = false;
+        go(Phase.STORING);
+    }
+
+    /** A loosening was judged: stored against the position it undid; voids that position if it was GO. */
+    private void loosened(JointResult result, long nowNs) {
+        int pos = rundownPosition;
+        boolean inferred = false;
+        if (!confirmSensors && pos == prompted && progress.attempts(pos) == 0 && progress.lastPassed() >= 0) {
+            pos = progress.lastPassed();
+            inferred = true;
+        }
+        boolean voids = progress.done(pos);
+        if (voids) {
+            records.event(StationEvent.Severity.ALARM, "LOOSENED", "position " + label(pos) + ", judged GO, was loosened"
+                    + (inferred ? " (no confirm sensors: taken as the position judged GO last)" : "")
+                    + ": it is prompted again and must be tightened again", part.serial(), nowNs);
+        } else {
+            records.event(StationEvent.Severity.NOTICE, "LOOSENED", "position " + label(pos)
+                    + " was loosened; it was not judged GO, so nothing is voided", part.serial(), nowNs);
+        }
+        records.joint(part, pattern, pos, pass().name(), Math.max(1, progress.attempts(pos)), result, nowNs);
+        judgedPosition = pos;
+        judgedVerdict = result.verdict();
+        judgedLoosening = true;
+        judgedVoids = voids;
         go(Phase.STORING);
     }
 
@@ -467,6 +509,17 @@ public final class Sequence {
     private void applyVerdict(long nowNs) {
         int pos = judgedPosition;
         lastVerdict = judgedVerdict;
+        if (judgedLoosening) {
+            if (judgedVoids) {
+                progress.voided(pos);
+            }
+            if (abandonAfterStore) {
+                abandon(nowNs);
+            } else {
+                advance(nowNs);
+            }
+            return;
+        }
         if (judgedVerdict == Verdict.GO) {
             progress.passed(pos);
             if (abandonAfterStore) {

@@ -1,11 +1,14 @@
 package hammerstep.signal;
 
 /**
- * Finds blows in a conditioned torque signal. A blow starts when torque reaches {@code countAbove}
- * and closes once torque is below {@code releaseBelow} (hysteresis) and the dead time since its
- * start has passed. Everything within the dead time — rebound lobes, ringing, re-contact humps of
+ * Finds blows in a conditioned torque signal, of either sign. A blow starts when |torque| reaches
+ * {@code countAbove}; its sign is that of the crossing, and from then on the detector follows the
+ * signal in that sense: the blow closes once torque (in its sense) is below {@code releaseBelow}
+ * (hysteresis) and the dead time since its start has passed. Everything within the dead time — rebound lobes, ringing, re-contact humps of
  * the same strike — belongs to that one blow, so no strike counts twice. The dead time follows from
- * the fastest plausible blow rate (half the shortest interval between blows).
+ * the fastest plausible blow rate (half the shortest interval between blows). A reverse strike
+ * (the tool loosening) is a negative blow whose positive rebound lobes belong to it in the same way;
+ * its peak and impulse are reported negative.
  *
  * <p>Allocation-free; single-threaded. State carries across blocks, so a blow may span blocks.
  */
@@ -19,6 +22,8 @@ public final class PulseDetector {
     private final PulseSink sink;
 
     private boolean inPulse;
+    /** +1 for a blow that crossed {@code countAbove}, -1 for one that crossed {@code -countAbove}. */
+    private float sign = 1f;
     private boolean lobeOpen;
     private long sampleIndex;
     private long startIndex;
@@ -48,7 +53,8 @@ public final class PulseDetector {
             if (!inPulse) {
                 // idle: find the next crossing
                 float level = countAbove;
-                while (i < end && x[i] < level) {
+                float low = -countAbove;
+                while (i < end && x[i] < level && x[i] > low) {
                     i++;
                 }
                 if (i == end) {
@@ -57,16 +63,17 @@ public final class PulseDetector {
                 long k = sampleIndex + (i - offset);
                 inPulse = true;
                 lobeOpen = true;
+                sign = x[i] >= level ? 1f : -1f;
                 startIndex = k;
                 startNs = firstNs + (long) ((i - offset) * periodNs);
-                peak = x[i];
+                peak = sign * x[i];
                 peakNs = startNs;
                 mainLobeSamples = -1;
-                impulseSum = x[i];
+                impulseSum = peak;
                 i++;
                 continue;
             }
-            float v = x[i];
+            float v = sign * x[i];
             if (v > peak) {
                 peak = v;
                 peakNs = firstNs + (long) ((i - offset) * periodNs);
@@ -96,7 +103,7 @@ public final class PulseDetector {
         inPulse = false;
         lobeOpen = false;
         long width = mainLobeSamples < 0 ? 0 : mainLobeSamples;
-        sink.onPulse(startNs, peak, peakNs, width * periodS * 1e3, impulseSum * periodS);
+        sink.onPulse(startNs, sign * peak, peakNs, width * periodS * 1e3, sign * impulseSum * periodS);
     }
 
     /** Closes a blow still open (end of a rundown or of the stream). */

@@ -43,6 +43,21 @@ class ProgramFileTest {
     }
 
     @Test
+    void aLeftHandThreadIsNamedByItsKey() throws Exception {
+        assertThat(ProgramFile.load(DIR.resolve("good.yaml")).leftHand()).isFalse();
+        Path a = Files.createTempFile("program", ".yaml");
+        try {
+            Files.writeString(a, Files.readString(DIR.resolve("good.yaml")) + "\nthread: left\n");
+            assertThat(ProgramFile.load(a).leftHand()).isTrue();
+            assertThat(ProgramFile.load(a).tighteningSign()).isEqualTo(-1f);
+            Files.writeString(a, Files.readString(DIR.resolve("good.yaml")) + "\nthread: right\n");
+            assertThat(ProgramFile.load(a).leftHand()).isFalse();
+        } finally {
+            Files.deleteIfExists(a);
+        }
+    }
+
+    @Test
     void revisionChangesWithTheContent() throws Exception {
         Path a = Files.createTempFile("program", ".yaml");
         try {
@@ -85,6 +100,6 @@ class ProgramFileTest {
                 .isInstanceOfSatisfying(ConfigException.class, e -> assertThat(e.problems()).extracting(Problem::message)
                         .containsExactly("'torque.min': expected a number, got \"x\"",
                                 "'blows.min' (9) is above 'blows.max' (3)",
-                                "unknown key 'extra' (expected one of: id, torque, final_torque, blows, rundown, shutoff_at, rehit_blows)"));
+                                "unknown key 'extra' (expected one of: id, torque, final_torque, blows, rundown, shutoff_at, rehit_blows, thread)"));
     }
 }

@@ -27,7 +27,8 @@ import java.util.concurrent.Callable;
  */
 @Command(name = "simulate", mixinStandardHelpOptions = true,
         description = {"Simulates rundowns of a tool on a joint and writes the transducer trace and the ground truth.",
-                "Each rundown: the trigger held --hold-ms, released, then --gap-ms of quiet; a new fastener each time."})
+                "Each rundown: the trigger held --hold-ms, released, then --gap-ms of quiet; a new fastener each time.",
+                "With --reverse each fastener is first tightened so (not written), then loosened so: the tool in reverse."})
 public final class SimulateCommand implements Callable<Integer> {
 
     static final int BLOCK = 4096;
@@ -73,6 +74,9 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--battery-v", paramLabel = "V", description = "battery open-circuit voltage (default: the tool's nominal)")
     Double batteryV;
 
+    @Option(names = "--reverse", description = "the tool in reverse: loosen each fastener after tightening it unrecorded")
+    boolean reverse;
+
     @Option(names = "--out", required = true, paramLabel = "FILE", description = "trace to write: CSV (time_s,torque_nm), or raw float32 N·m if FILE ends in .f32")
     Path out;
 
@@ -107,7 +111,11 @@ public final class SimulateCommand implements Callable<Integer> {
         meta.put("joint", jointSpec.name());
         meta.put("transducer", transducerSpec.name());
         meta.put("seed", Long.toString(seed));
+        if (reverse) {
+            meta.put("direction", "loosen");
+        }
         List<Map<String, Object>> results = new ArrayList<>();
+        long skippedSamples = 0;
         float[] block = new float[BLOCK];
         try (TraceWriter writer = new TraceWriter(out, rateHz, meta)) {
             run(rig, writer, block, samplesFor(leadMs));
@@ -115,12 +123,23 @@ public final class SimulateCommand implements Callable<Integer> {
                 if (r > 0) {
                     rig.newFastener(jointSpec);
                 }
-                double startS = rig.samplesElapsed() / rateHz;
+                int firstBlow = 0;
+                if (reverse) {
+                    // the bolt is tightened by the same tool first, off the record, then loosened
+                    rig.setTrigger(true);
+                    skip(rig, block, samplesFor(holdMs));
+                    rig.setTrigger(false);
+                    skip(rig, block, samplesFor(gapMs));
+                    skippedSamples += samplesFor(holdMs) + samplesFor(gapMs);
+                    rig.setReverse(true);
+                    firstBlow = rig.blows();
+                }
+                double startS = (rig.samplesElapsed() - skippedSamples) / rateHz;
                 rig.setTrigger(true);
                 run(rig, writer, block, samplesFor(holdMs));
                 rig.setTrigger(false);
                 run(rig, writer, block, samplesFor(gapMs));
-                results.add(Truth.rundown(rig, startS));
+                results.add(Truth.rundown(rig, startS, firstBlow, skippedSamples / rateHz));
             }
         }
         Map<String, Object> doc = new LinkedHashMap<>();
@@ -130,6 +149,7 @@ public final class SimulateCommand implements Callable<Integer> {
         doc.put("rate_hz", rateHz);
         doc.put("seed", seed);
         doc.put("count_above_nm", countAboveNm);
+        doc.put("direction", reverse ? "loosen" : "tighten");
         doc.put("rundowns", results);
         new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(truth.toFile(), doc);
         return 0;
@@ -137,6 +157,16 @@ public final class SimulateCommand implements Callable<Integer> {
 
     private long samplesFor(double ms) {
         return Math.round(ms * 1e-3 * rateHz);
+    }
+
+    /** Advances the rig without writing: virtual time that the trace does not show. */
+    private static void skip(Rig rig, float[] block, long samples) {
+        long left = samples;
+        while (left > 0) {
+            int n = (int) Math.min(block.length, left);
+            rig.fill(block, 0, n);
+            left -= n;
+        }
     }
 
     private static void run(Rig rig, TraceWriter writer, float[] block, long samples) throws IOException {

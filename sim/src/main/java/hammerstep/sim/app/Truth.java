@@ -14,19 +14,29 @@ final class Truth {
     }
 
     static Map<String, Object> rundown(Rig rig, double startS) {
-        int n = rig.blows();
+        return rundown(rig, startS, 0, 0.0);
+    }
+
+    /**
+     * The rundown of the present fastener's blows from {@code firstBlow} on; times less {@code skippedS},
+     * the virtual time that was not written to the trace (the unrecorded tightening before a loosening).
+     * A loosening ({@code direction} {@code loosen}) has negative peaks.
+     */
+    static Map<String, Object> rundown(Rig rig, double startS, int firstBlow, double skippedS) {
+        int n = rig.blows() - firstBlow;
         List<Double> times = new ArrayList<>(n);
         List<Double> peaks = new ArrayList<>(n);
         List<Integer> cutShort = new ArrayList<>();
-        for (int i = 0; i < Math.min(n, Rig.MAX_BLOWS); i++) {
-            times.add(round(rig.blowTimeS(i), 1e6));
+        for (int i = firstBlow; i < Math.min(firstBlow + n, Rig.MAX_BLOWS); i++) {
+            times.add(round(rig.blowTimeS(i) - skippedS, 1e6));
             peaks.add(round(rig.blowPeakNm(i), 100));
             if (rig.blowCutShort(i)) {
-                cutShort.add(i);
+                cutShort.add(i - firstBlow);
             }
         }
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("start_s", round(startS, 1e6));
+        m.put("direction", rig.reverse() ? "loosen" : "tighten");
         m.put("blows", n);
         m.put("blow_times_s", times);
         m.put("peaks_nm", peaks);
@@ -35,18 +45,23 @@ final class Truth {
         m.put("angle_deg", round(rig.angleDeg(), 100));
         m.put("angle_after_snug_deg", round(rig.angleAfterSnugDeg(), 100));
         m.put("clamp_load_kn", round(rig.clampLoadN() * 1e-3, 100));
-        m.put("blow_rate_per_min", round(blowRatePerMin(rig), 10));
+        m.put("blow_rate_per_min", round(blowRatePerMin(rig, firstBlow), 10));
         return m;
     }
 
     /** Blows per minute from first to last peak, as the controller reports it; 0 with fewer than two. */
     static double blowRatePerMin(Rig rig) {
-        int n = Math.min(rig.blows(), Rig.MAX_BLOWS);
-        if (n < 2) {
+        return blowRatePerMin(rig, 0);
+    }
+
+    /** As {@link #blowRatePerMin(Rig)} over the blows from {@code firstBlow} on. */
+    static double blowRatePerMin(Rig rig, int firstBlow) {
+        int last = Math.min(rig.blows(), Rig.MAX_BLOWS) - 1;
+        if (last - firstBlow < 1) {
             return 0.0;
         }
-        double span = rig.blowTimeS(n - 1) - rig.blowTimeS(0);
-        return span > 0 ? (n - 1) * 60.0 / span : 0.0;
+        double span = rig.blowTimeS(last) - rig.blowTimeS(firstBlow);
+        return span > 0 ? (last - firstBlow) * 60.0 / span : 0.0;
     }
 
     static double round(double v, double scale) {

@@ -95,17 +95,19 @@ public final class SimulationSection implements StationSection<SimulationSection
         double supervisor = o.number("supervisor_ms", 5000, 0, 600_000);
         double forgetMs = o.number("forget_ack_ms", 8000, 0, 600_000);
         MapReader m = o.optionalMap("mistakes");
-        double skip = 0, rehit = 0, early = 0, longHold = 0, forget = 0;
+        double skip = 0, rehit = 0, early = 0, longHold = 0, forget = 0, loosen = 0;
         if (m != null) {
             skip = m.number("skip", 0, 0, 1);
             rehit = m.number("rehit", 0, 0, 1);
             early = m.number("release_early", 0, 0, 1);
             longHold = m.number("hold_too_long", 0, 0, 1);
             forget = m.number("forget_ack", 0, 0, 1);
+            loosen = m.number("loosen", 0, 0, 1);
             m.finish();
         }
         o.finish();
-        return new Habits(reaction, move, release, hold, supervisor, skip, rehit, early, longHold, forget, forgetMs);
+        return new Habits(reaction, move, release, hold, supervisor, skip, rehit, early, longHold, forget, forgetMs,
+                loosen);
     }
 
     private interface Loader<T> {

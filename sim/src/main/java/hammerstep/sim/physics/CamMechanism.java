@@ -153,6 +153,12 @@ final class CamMechanism extends Mechanism {
         engaged = true;
     }
 
+    @Override
+    void resetSwitched() {
+        reset();
+        face = pitch - arc;
+    }
+
     boolean engaged() {
         return engaged;
     }

@@ -6,13 +6,25 @@ import java.util.SplittableRandom;
  * The nut (with socket, extension, transducer rotor and anvil lumped on it) turning on its joint.
  * Stuck, it stays put until the train torque exceeds its holding torque (static friction:
  * {@code staticFrictionRatio} times the running torque, scattered from blow to blow); turning, it
- * accelerates under train torque less running torque and sticks again when it stops. Turning
- * backwards is not modelled: threads are self-locking and the tools push only forwards.
+ * accelerates under train torque less running torque and sticks again when it stops. Threads are
+ * self-locking: nothing but the tool turns it backwards.
+ *
+ * <p>Loosening (the tool in reverse): the train torque then acts backwards. The nut resists with
+ * {@link #LOOSENING_RATIO} of the running torque at its angle (the thread's pitch helps it off), held by
+ * static friction as when tightening; turning back, it gives up its clamp angle, so the resistance
+ * falls to the prevailing torque once the clamp load is gone.
  *
  * <p>Relaxation: while the fastener rests, embedding takes back a part of the angle that makes
  * clamp load, approaching {@code relaxationLoss} of it with the relaxation time constant.
  */
 final class Fastener {
+
+    /**
+     * Loosening torque over tightening torque at the same clamp load: T = F·(±P/2π + μ·d₂/(2 cos 30°) +
+     * μ_b·D_b/2), the pitch term changing sign. With M12×1.75, μ = μ_b = 0.14 it comes to about 0.76
+     * (thread-torque relation, textbook; figures ours, from memory of the usual coefficients).
+     */
+    static final double LOOSENING_RATIO = 0.76;
 
     private final double inertia;
     private final double invInertia;
@@ -24,6 +36,7 @@ final class Fastener {
     private double angle;
     private double speed;
     private boolean stuck = true;
+    private boolean reverse;
     private double frictionScale = 1.0;
     private double holdScale = 1.0;
     private double embeddedRad;
@@ -45,6 +58,7 @@ final class Fastener {
         angle = 0;
         speed = 0;
         stuck = true;
+        reverse = false;
         embeddedRad = 0;
         jointWorkJ = 0;
         restS = 0;
@@ -63,8 +77,19 @@ final class Fastener {
         return frictionScale * nominal;
     }
 
+    /** Which way the tool turns the nut from now on; the nut must be at rest. */
+    void setReverse(boolean reverse) {
+        this.reverse = reverse;
+        speed = 0;
+        stuck = true;
+    }
+
+    /**
+     * Advances by {@code h} under {@code trainNm}, the train torque in the tool's sense (forward when
+     * tightening, backward in reverse): the nut's {@link #speedRadS()} is in that sense too.
+     */
     void advance(double h, double trainNm) {
-        double running = runningTorqueNm();
+        double running = reverse ? LOOSENING_RATIO * runningTorqueNm() : runningTorqueNm();
         if (stuck) {
             if (trainNm <= joint.staticFrictionRatio() * holdScale * running) {
                 restS += h;
@@ -81,7 +106,7 @@ final class Fastener {
             drawHold();
             return;
         }
-        angle += h * speed;
+        angle += reverse ? -h * speed : h * speed;
         jointWorkJ += running * speed * h;
     }
 
@@ -98,8 +123,13 @@ final class Fastener {
         return angle;
     }
 
+    /** Speed in the tool's sense (never negative). */
     double speedRadS() {
         return speed;
+    }
+
+    boolean reverse() {
+        return reverse;
     }
 
     /** Torque to start the fastener turning further now (first movement), N·m. */

@@ -69,6 +69,15 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     /** At rest, the striking body against the anvil jaw, all angles zero (a new fastener). */
     abstract void reset();
 
+    /**
+     * At rest after the tool's direction was switched, angles zero: the striking dogs rest against the
+     * backs of the jaws they last struck, so in the new sense they have the free travel between the
+     * jaws ahead of them before they strike. Without dogs (the oil-pulse unit), as {@link #reset()}.
+     */
+    void resetSwitched() {
+        reset();
+    }
+
     /** Blow boundaries so far (releases and re-strikes after long free flight). */
     final int releases() {
         return releases;

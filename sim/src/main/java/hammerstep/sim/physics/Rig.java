@@ -10,6 +10,12 @@ import java.util.SplittableRandom;
  * <p>Ground truth: every blow of the mechanism (release to release, see {@link Mechanism}) whose
  * highest shaft torque reaches the blow threshold counts, timed at that peak; per fastener.
  *
+ * <p>Reverse ({@link #setReverse}): the tool loosens. The mechanism runs as it does forward (its dogs
+ * first cross the free travel between the jaws), on the
+ * nut's angle mirrored at the moment of the switch; the shaft torque and hence the transducer reading
+ * are negated, so strikes come out negative with positive rebound lobes and ringing, and the truth's
+ * peaks of reverse blows are negative.
+ *
  * <p>Single-threaded. {@link #fill} allocates nothing; the same seed gives the same samples.
  */
 public final class Rig {
@@ -35,6 +41,9 @@ public final class Rig {
 
     private boolean trigger;
     private boolean enabled = true;
+    private boolean reverse;
+    /** The nut's angle at the last direction switch: the mechanism's zero in the tool's sense. */
+    private double switchRad;
     private long samples;
     private long steps;
     private double blowThresholdNm = DEFAULT_BLOW_THRESHOLD_NM;
@@ -129,15 +138,18 @@ public final class Rig {
     }
 
     private void step() {
-        double nutAngle = fastener.angleRad();
+        // the mechanism works in the tool's sense: the nut's angle mirrored while in reverse
+        double nutAngle = toolSense(fastener.angleRad());
         double nutSpeed = fastener.speedRadS();
         double t = mechanism.trainTorque(nutAngle, nutSpeed);
         double striker = mechanism.strikerAngle();
         mechanism.advance(h, t, nutAngle, nutSpeed);
         fastener.advance(h, t);
-        trainWorkJ += t * ((mechanism.strikerAngle() - striker) - (fastener.angleRad() - nutAngle));
-        transducer.filter(t);
-        lastShaftNm = t;
+        double nutAfter = toolSense(fastener.angleRad());
+        trainWorkJ += t * ((mechanism.strikerAngle() - striker) - (nutAfter - nutAngle));
+        double shaft = reverse ? -t : t;
+        transducer.filter(shaft);
+        lastShaftNm = shaft;
         if (t > blowPeakNm) {
             blowPeakNm = t;
             blowPeakStep = steps;
@@ -146,7 +158,7 @@ public final class Rig {
             seenReleases = mechanism.releases();
             if (blowPeakNm >= blowThresholdNm) {
                 if (closedBlows < MAX_BLOWS) {
-                    blowPeaksNm[closedBlows] = blowPeakNm;
+                    blowPeaksNm[closedBlows] = reverse ? -blowPeakNm : blowPeakNm;
                     blowTimesS[closedBlows] = blowPeakStep * h;
                     blowCutShort[closedBlows] = t >= CUT_SHORT_FRACTION * blowPeakNm;
                 }
@@ -157,8 +169,37 @@ public final class Rig {
         steps++;
     }
 
+    /**
+     * The tool's direction switch: true to loosen. Switch with the tool at rest (trigger released and
+     * run down): the mechanism starts again at rest against the anvil in the new sense. The fastener
+     * keeps its state and its blows.
+     */
+    public void setReverse(boolean reverse) {
+        if (reverse == this.reverse) {
+            return;
+        }
+        this.reverse = reverse;
+        switchRad = fastener.angleRad();
+        fastener.setReverse(reverse);
+        mechanism.resetSwitched();
+        seenReleases = mechanism.releases();
+        blowPeakNm = 0;
+    }
+
+    /** The nut's angle as the mechanism sees it: from the last switch, mirrored in reverse. */
+    private double toolSense(double nutRad) {
+        return reverse ? switchRad - nutRad : nutRad - switchRad;
+    }
+
+    /** True while the tool runs in reverse (loosening). */
+    public boolean reverse() {
+        return reverse;
+    }
+
     /** The next bolt: the joint reset to loose, the striker at rest against the anvil, blow count zero. */
     public void newFastener(JointSpec joint) {
+        reverse = false;
+        switchRad = 0;
         fastener.renew(joint);
         mechanism.reset();
         seenReleases = mechanism.releases();
@@ -176,7 +217,7 @@ public final class Rig {
         return Math.toDegrees(fastener.angleRad());
     }
 
-    /** Angle turned past the joint's snug point, degrees (0 before seating). */
+    /** Angle turned past the joint's snug point, degrees (0 before seating or once loosened). */
     public double angleAfterSnugDeg() {
         return Math.max(0.0, Math.toDegrees(fastener.angleRad() - fastener.joint().freeAngleRad()));
     }
@@ -191,9 +232,9 @@ public final class Rig {
         return closedBlows + (blowPeakNm >= blowThresholdNm ? 1 : 0);
     }
 
-    /** Peak shaft torque of blow {@code i} (0-based) of the present fastener, N·m. */
+    /** Peak shaft torque of blow {@code i} (0-based) of the present fastener, N·m; negative for a reverse blow. */
     public double blowPeakNm(int i) {
-        return i == closedBlows ? blowPeakNm : blowPeaksNm[i];
+        return i == closedBlows ? (reverse ? -blowPeakNm : blowPeakNm) : blowPeaksNm[i];
     }
 
     /** Time of blow {@code i}'s peak, seconds of virtual time since the rig was created. */
@@ -227,7 +268,7 @@ public final class Rig {
 
     /** Turns of the mechanism's input relative to the fastener since the present fastener was started. */
     public double relativeTurns() {
-        return (mechanism.inputAngleRad() - fastener.angleRad()) / (2.0 * Math.PI);
+        return (mechanism.inputAngleRad() - toolSense(fastener.angleRad())) / (2.0 * Math.PI);
     }
 
     /** Free speed of the mechanism's input under the present supply, rpm. */
@@ -264,7 +305,8 @@ public final class Rig {
     /** The energy ledger since the rig was created (see docs/simulator.md). */
     public Energy energy() {
         return new Energy(mechanism.driveWorkJ(), mechanism.storedJ(), fastener.kineticJ(),
-                mechanism.trainElasticJ(fastener.angleRad()), trainWorkJ, fastener.jointWorkJ());
+                mechanism.trainElasticJ(toolSense(fastener.angleRad())), trainWorkJ,
+                fastener.jointWorkJ());
     }
 
     /**

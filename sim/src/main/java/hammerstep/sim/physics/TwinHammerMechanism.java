@@ -90,6 +90,14 @@ final class TwinHammerMechanism extends Mechanism {
         return engaged && d > 0 ? 0.5 * trainStiffness * d * d : 0.0;
     }
 
+    @Override
+    void resetSwitched() {
+        reset();
+        // out of engagement behind the jaw: it engages at once and strikes after the free travel
+        engaged = false;
+        face = -arc;
+    }
+
     /** Places the cage (tests: a strike from a known state). */
     void setStriker(double angleRad, double speedRadS) {
         th = angleRad;

@@ -13,10 +13,20 @@ package hammerstep.sim.station;
  * @param releaseEarly     lets go after one or two blows
  * @param holdTooLong      keeps the trigger pulled well after the tool stopped
  * @param forgetAck        leaves a rework unacknowledged for {@code forgetAckMs}
+ * @param loosen           goes back to the position just finished with the tool in reverse and loosens it
+ *                         (lets go once the bolt spins free), before the lit one
  */
 public record Habits(double reactionMs, double moveMs, double releaseAfterMs, double maxHoldMs, double supervisorMs,
                      double skip, double rehit, double releaseEarly, double holdTooLong, double forgetAck,
-                     double forgetAckMs) {
+                     double forgetAckMs, double loosen) {
+
+    /** Habits of an operator who never loosens a bolt. */
+    public Habits(double reactionMs, double moveMs, double releaseAfterMs, double maxHoldMs, double supervisorMs,
+                  double skip, double rehit, double releaseEarly, double holdTooLong, double forgetAck,
+                  double forgetAckMs) {
+        this(reactionMs, moveMs, releaseAfterMs, maxHoldMs, supervisorMs, skip, rehit, releaseEarly, holdTooLong,
+                forgetAck, forgetAckMs, 0);
+    }
 
     /** A careful operator who makes no mistakes. */
     public static Habits careful() {
@@ -24,7 +34,7 @@ public record Habits(double reactionMs, double moveMs, double releaseAfterMs, do
     }
 
     public Habits {
-        for (double p : new double[] {skip, rehit, releaseEarly, holdTooLong, forgetAck}) {
+        for (double p : new double[] {skip, rehit, releaseEarly, holdTooLong, forgetAck, loosen}) {
             if (!(p >= 0 && p <= 1)) {
                 throw new IllegalArgumentException("a mistake's probability must lie in [0, 1]: " + p);
             }

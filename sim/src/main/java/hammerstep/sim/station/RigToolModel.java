@@ -21,6 +21,7 @@ public final class RigToolModel implements ToolModel {
     private int at;
     private boolean trigger;
     private boolean enabled;
+    private boolean reverse;
     private double relayOffS = Double.NaN;
     private int countedUpTo;
     private long blowsAfterRelayOff;
@@ -75,6 +76,12 @@ public final class RigToolModel implements ToolModel {
     }
 
     @Override
+    public void setReverse(boolean reverse) {
+        this.reverse = reverse;
+        rigs[at].setReverse(reverse);
+    }
+
+    @Override
     public void fill(float[] out, int offset, int length) {
         Rig rig = rigs[at];
         rig.fill(out, offset, length);
@@ -98,6 +105,7 @@ public final class RigToolModel implements ToolModel {
         rigs[at].setEnabled(false);
         at = index;
         relayOffS = Double.NaN;
+        rigs[at].setReverse(reverse);
         rigs[at].setEnabled(enabled);
         rigs[at].setTrigger(trigger);
     }

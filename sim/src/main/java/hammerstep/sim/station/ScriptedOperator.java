@@ -21,6 +21,9 @@ public final class ScriptedOperator {
 
     private enum Doing { LOOKING, MOVING, TIGHTENING, RELEASED, PRESSING, WAITING_SUPERVISOR, KEYING, LOADING, DONE }
 
+    /** Loosening, the operator lets go once no strike came for this long. */
+    static final double LOOSE_AFTER_MS = 60;
+
     private final VirtualStation station;
     private final Habits habits;
     private final SplittableRandom random;
@@ -44,6 +47,9 @@ public final class ScriptedOperator {
     private boolean poweredSeen;
     private int blowsAtStart;
     private int earlyBlows;
+    private boolean loosenNow;
+    private int blowsSeen;
+    private long lastBlowNs;
 
     public ScriptedOperator(VirtualStation station, Habits habits, List<PartIdentity> parts, long seed) {
         this.station = station;
@@ -72,6 +78,7 @@ public final class ScriptedOperator {
             case MOVING -> {
                 station.moveToolTo(target);
                 socketAt = target;
+                station.tool().setReverse(loosenNow);
                 startTightening(nowNs);
             }
             case TIGHTENING -> tighten(nowNs);
@@ -178,7 +185,11 @@ public final class ScriptedOperator {
 
     private void prompt(int lit, long now) {
         int go = lit;
-        if (lastDone >= 0 && draw(habits.rehit())) {
+        loosenNow = false;
+        if (lastDone >= 0 && draw(habits.loosen())) {
+            go = lastDone;
+            loosenNow = true;
+        } else if (lastDone >= 0 && draw(habits.rehit())) {
             go = lastDone;
         } else if (positions > 1 && draw(habits.skip())) {
             go = (lit + 1) % positions;
@@ -199,7 +210,22 @@ public final class ScriptedOperator {
         toolStoppedNs = Long.MIN_VALUE;
         poweredSeen = false;
         blowsAtStart = station.tool().blows();
+        blowsSeen = blowsAtStart;
+        lastBlowNs = now;
         untilNs = now;
+    }
+
+    /**
+     * In reverse: lets go as the hammering stops (no strike for {@link #LOOSE_AFTER_MS}, a few blow
+     * intervals), the bolt broken loose but not run off its thread.
+     */
+    private boolean loosened(long now) {
+        int blows = station.tool().blows();
+        if (blows != blowsSeen) {
+            blowsSeen = blows;
+            lastBlowNs = now;
+        }
+        return blows > blowsAtStart && now - lastBlowNs >= (long) (LOOSE_AFTER_MS * 1e6);
     }
 
     private void tighten(long now) {
@@ -216,7 +242,9 @@ public final class ScriptedOperator {
         }
         int blows = station.tool().blows();
         boolean letGo = false;
-        if (releaseEarlyNow && blows - blowsAtStart >= earlyBlows) {
+        if (loosenNow) {
+            letGo = loosened(now);
+        } else if (releaseEarlyNow && blows - blowsAtStart >= earlyBlows) {
             letGo = true;
         } else if (stopped) {
             if (toolStoppedNs == Long.MIN_VALUE) {
@@ -232,7 +260,7 @@ public final class ScriptedOperator {
         }
         if (letGo) {
             station.pullTrigger(false);
-            lastDone = target;
+            lastDone = loosenNow ? -1 : target;
             doing = Doing.RELEASED;
             wait(now, habits.reactionMs());
         }

@@ -13,6 +13,16 @@ public interface ToolModel {
     /** The enable relay: without it the tool has no power, whatever the trigger. */
     void setEnabled(boolean enabled);
 
+    /**
+     * The tool's direction switch (true: reverse, loosening), set with the trigger released. A model
+     * without a reverse accepts only false.
+     */
+    default void setReverse(boolean reverse) {
+        if (reverse) {
+            throw new UnsupportedOperationException(getClass().getSimpleName() + " has no reverse");
+        }
+    }
+
     /** Writes the transducer's next {@code length} samples in N·m, advancing the model's time. */
     void fill(float[] out, int offset, int length);
 
