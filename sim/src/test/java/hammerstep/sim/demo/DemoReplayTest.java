@@ -39,7 +39,7 @@ class DemoReplayTest {
 
     @Test
     void everyStoredTraceOfADemoRunReplaysToTheStationsJudgement() throws Exception {
-        int exit = new DemoRunner(new DemoOptions(STATION, 2, 1, true, true, 0, traces),
+        int exit = new DemoRunner(new DemoOptions(STATION, 2, 3, true, true, 0, traces),
                 new PrintStream(OutputStream.nullOutputStream())).run();
         assertThat(exit).isZero();
         List<Path> stored;
