@@ -55,7 +55,7 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--low-pass", paramLabel = "HZ", description = "2nd-order Butterworth low-pass before detection (default: none)")
     double lowPassHz;
 
-    @Option(names = "--over-range", paramLabel = "NM", description = "|torque| at or above this is a sensor fault (default: off)")
+    @Option(names = "--over-range", paramLabel = "NM", description = "the transducer's range: |torque| at or above it, or a pulse flattened at a rail, is a sensor fault; zero limit 2 %% of it (default: the trace's range_nm, else off and ±10 N·m)")
     double overRangeNm = Double.NaN;
 
     @Option(names = "--flat-line-ms", paramLabel = "MS", description = "a signal exactly constant this long is a sensor fault (default: off)")
@@ -74,8 +74,9 @@ public final class ReplayCommand implements Callable<Integer> {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
         }
         double rate = TraceFiles.rateOf(trace, rateHz);
-        Conditioning conditioning = JointMonitor.replayConditioning(program)
-                .withLowPass(lowPassHz).withOverRange(overRangeNm).withFlatLine(flatLineMs);
+        double rangeNm = Double.isNaN(overRangeNm) ? TraceFiles.rangeOf(trace) : overRangeNm;
+        Conditioning conditioning = JointMonitor.replayConditioning(program).withRange(rangeNm)
+                .withOverRange(rangeNm).withLowPass(lowPassHz).withFlatLine(flatLineMs);
         if (lowPassHz >= rate / 2) {
             throw new UserError("--low-pass " + lowPassHz + " Hz must be below half the sample rate (" + rate / 2 + " Hz)");
         }

@@ -174,10 +174,15 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         return 0;
     }
 
-    /** The conditioning of a real transducer: auto-zero within 2 % of full scale, over-range at full scale. */
+    /**
+     * The conditioning of a real transducer: auto-zero within 2 % of full scale (following blocks
+     * whose samples stay within 2 % of full scale of their mean), over-range at full scale, impulses
+     * of 2.5 % of full scale and more rejected and flat tops beyond that level taken for clipping.
+     */
     static Conditioning conditioning(TransducerSettings td) {
         double fs = td.fullScaleNm();
-        return new Conditioning(0.01 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0);
+        return new Conditioning(0.02 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0,
+                Conditioning.IMPULSE_FRACTION_OF_RANGE * fs);
     }
 
     private static void logStatus(Acquisition a, ResultDelivery d, long errors) {

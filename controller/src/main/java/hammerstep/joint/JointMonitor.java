@@ -45,6 +45,8 @@ public final class JointMonitor implements PulseSink {
     private final float shutoffNm;
     private final long endAfterSamples;
     private final long maxSamples;
+    /** How far the conditioned samples run behind the input, ns (impulse rejection's look-ahead). */
+    private final long delayNs;
 
     private State state = State.IDLE;
     private long sampleBase;
@@ -54,6 +56,7 @@ public final class JointMonitor implements PulseSink {
     private long lastAboveNs;
     private long shutoffNs;
     private int rundownFaults;
+    private long rejectedAtStart;
     private int reportedFaults;
 
     private int blows;
@@ -84,11 +87,15 @@ public final class JointMonitor implements PulseSink {
         this.shutoffNm = program.hasShutoff() ? (float) program.shutoffAtNm() : Float.POSITIVE_INFINITY;
         this.endAfterSamples = Math.max(1, (long) Math.ceil(program.rundown().endAfterMs() * 1e-3 * rateHz));
         this.maxSamples = Math.max(1, (long) Math.ceil(program.rundown().maxMs() * 1e-3 * rateHz));
+        this.delayNs = Math.round(conditioner.delaySamples() * periodNs);
     }
 
-    /** Conditioning suited to a program: auto-zero tracks blocks spreading less than half the start level. */
+    /**
+     * Conditioning suited to a program where the transducer's range is unknown: auto-zero follows
+     * blocks whose samples all stay within the start level of their mean; impulses rejected.
+     */
     public static Conditioning replayConditioning(JointProgram program) {
-        return Conditioning.forReplay(0.5 * program.rundown().startAboveNm());
+        return Conditioning.forReplay(program.rundown().startAboveNm());
     }
 
     /** Processes {@code samples[offset, offset+length)}; the first was taken at {@code firstSampleNs}. */
@@ -97,6 +104,8 @@ public final class JointMonitor implements PulseSink {
             throw new IllegalArgumentException("block of " + length + " samples exceeds " + scratch.length);
         }
         int faults = conditioner.process(samples, offset, length, scratch, state == State.IDLE);
+        // the conditioned samples run the rejector's look-ahead behind: stamp them with their own times
+        firstSampleNs -= delayNs;
         int rising = faults & ~reportedFaults;
         reportedFaults = faults;
         if (rising != 0) {
@@ -136,6 +145,7 @@ public final class JointMonitor implements PulseSink {
             lastAboveNs = startNs;
             shutoffNs = Long.MIN_VALUE;
             rundownFaults = faults;
+            rejectedAtStart = conditioner.rejectedImpulses();
             blows = 0;
             narrowPulses = 0;
             blowsAfterShutoff = 0;
@@ -245,7 +255,8 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(peaks, stored), Arrays.copyOf(peakTimes, stored),
                 Arrays.copyOf(widths, stored), Arrays.copyOf(impulses, stored),
                 finalNm, durationMs, shutoffNs, blowsAfterShutoff, rundownFaults,
-                reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons);
+                reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons,
+                (int) Math.min(Integer.MAX_VALUE, conditioner.rejectedImpulses() - rejectedAtStart));
         events.onRundown(result);
     }
 

@@ -18,6 +18,7 @@ import java.util.List;
  * @param shutoffAtNs       time the shut-off level was first reached; {@link Long#MIN_VALUE} when not
  * @param blowsAfterShutoff blows that began after the shut-off crossing
  * @param faults            sensor faults seen during the rundown (bits of {@link hammerstep.signal.SignalFaults})
+ * @param rejectedImpulses  electrical impulses the conditioner replaced while the rundown was under way
  */
 public record JointResult(
         JointProgram program,
@@ -34,7 +35,17 @@ public record JointResult(
         int blowsAfterShutoff,
         int faults,
         Verdict verdict,
-        List<Reason> reasons) {
+        List<Reason> reasons,
+        int rejectedImpulses) {
+
+    /** A result without rejected impulses (built in code, or before impulse rejection existed). */
+    public JointResult(JointProgram program, long startNs, long endNs, int blows, double[] peaksNm,
+                       long[] peakTimesNs, double[] widthsMs, double[] impulsesNms, double finalTorqueNm,
+                       double durationMs, long shutoffAtNs, int blowsAfterShutoff, int faults, Verdict verdict,
+                       List<Reason> reasons) {
+        this(program, startNs, endNs, blows, peaksNm, peakTimesNs, widthsMs, impulsesNms, finalTorqueNm, durationMs,
+                shutoffAtNs, blowsAfterShutoff, faults, verdict, reasons, 0);
+    }
 
     public boolean shutoffReached() {
         return shutoffAtNs != Long.MIN_VALUE;

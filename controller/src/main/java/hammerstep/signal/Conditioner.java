@@ -3,10 +3,15 @@ package hammerstep.signal;
 /**
  * First stage of the signal chain: removes the zero offset, optionally low-pass filters, and
  * watches the signal for faults. Works on blocks of N·m samples into a caller's buffer; allocates
- * nothing after construction. Single-threaded: one owner feeds it.
+ * nothing after its first block (impulse rejection sizes its work buffer then, and again only for a
+ * block longer than any before). Single-threaded: one owner feeds it.
  *
- * <p>Auto-zero: while the caller says the joint is idle, a quiet block (its samples spread less
- * than {@code idleBandNm}) moves the zero toward its mean with the configured time constant (the
+ * <p>Impulse rejection (when {@code impulseNm} is set): see {@link ImpulseRejector}; it makes the
+ * output run {@link #delaySamples()} behind the input. The same level arms a flat-top check: a pulse
+ * that stays exactly constant beyond that level is clipped at a rail ({@code OVER_RANGE}).
+ *
+ * <p>Auto-zero: while the caller says the joint is idle, a quiet block (no sample further than
+ * {@code idleBandNm} from the block's mean) moves the zero toward its mean with the configured time constant (the
  * first quiet block sets it outright). The zero never passes {@code zeroLimitNm}:
  * an offset beyond it is held at the limit and reported as {@link SignalFaults#ZERO_DRIFT}, so a
  * stuck bridge or a loose connector is seen instead of absorbed.
@@ -35,6 +40,27 @@ public final class Conditioner {
     private int faults;
     private double z1, z2;
 
+    /** Null when impulse rejection is off. */
+    private final ImpulseRejector rejector;
+    /** The last {@code HISTORY + delay} input samples, impulses replaced; the next block's context. */
+    private final float[] tail;
+    private boolean primed;
+    private float[] work = new float[0];
+    /** Impulses replaced since construction: an observation, not carried state (output never depends on it). */
+    private long rejected;
+    private final float clipLevel;
+    private final int clipRunSamples;
+    private int clipRun;
+    private float clipValue = Float.NaN;
+
+    /** A flat top this long (and at least {@link #MIN_FLAT_TOP_SAMPLES}) at or beyond the impulse level is clipping, ms. */
+    public static final double FLAT_TOP_MS = 0.1;
+    /**
+     * Fewest exactly equal samples that make a flat top: a hydraulic pulse of 10 ms stored as int16
+     * shows up to about four equal samples at its crest at 100 kHz, a clipped strike dozens.
+     */
+    public static final int MIN_FLAT_TOP_SAMPLES = 8;
+
     public Conditioner(Conditioning settings, double rateHz) {
         if (!(rateHz > 0)) {
             throw new IllegalArgumentException("rateHz must be positive");
@@ -45,6 +71,16 @@ public final class Conditioner {
         this.overRange = Double.isNaN(settings.overRangeNm()) || settings.overRangeNm() <= 0
                 ? Float.POSITIVE_INFINITY : (float) settings.overRangeNm();
         this.flatLineSamples = settings.flatLineMs() > 0 ? (long) Math.ceil(settings.flatLineMs() * 1e-3 * rateHz) : 0;
+        if (settings.impulseNm() > 0) {
+            this.rejector = new ImpulseRejector(settings.impulseNm(), rateHz);
+            this.tail = new float[ImpulseRejector.HISTORY + rejector.lookAhead()];
+            this.clipLevel = (float) settings.impulseNm();
+        } else {
+            this.rejector = null;
+            this.tail = new float[0];
+            this.clipLevel = 0f;
+        }
+        this.clipRunSamples = Math.max(MIN_FLAT_TOP_SAMPLES, (int) Math.ceil(FLAT_TOP_MS * 1e-3 * rateHz));
         double fc = settings.lowPassHz();
         this.filtered = fc > 0;
         if (filtered) {
@@ -66,12 +102,20 @@ public final class Conditioner {
     }
 
     /**
-     * Conditions {@code in[offset, offset+length)} into {@code out[0, length)}.
+     * Conditions {@code in[offset, offset+length)} into {@code out[0, length)}. With impulse
+     * rejection on, the output runs {@link #delaySamples()} behind the input: {@code out[i]} is the
+     * input sample taken {@code delaySamples()} sample periods before {@code in[offset+i]}.
      *
      * @param trackZero true while no rundown is under way, so auto-zero may follow the signal
      * @return the fault bits active after this block
      */
     public int process(float[] in, int offset, int length, float[] out, boolean trackZero) {
+        float[] src = in;
+        int base = offset;
+        if (rejector != null && length > 0) {
+            base = reject(in, offset, length);
+            src = work;
+        }
         float zero = zeroNm;
         // four independent accumulators keep the loop free of long dependency chains
         float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
@@ -79,10 +123,10 @@ public final class Conditioner {
         float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
         int i = 0;
         for (int last = length - 3; i < last; i += 4) {
-            float x0 = in[offset + i];
-            float x1 = in[offset + i + 1];
-            float x2 = in[offset + i + 2];
-            float x3 = in[offset + i + 3];
+            float x0 = src[base + i];
+            float x1 = src[base + i + 1];
+            float x2 = src[base + i + 2];
+            float x3 = src[base + i + 3];
             max0 = x0 > max0 ? x0 : max0;
             max1 = x1 > max1 ? x1 : max1;
             max2 = x2 > max2 ? x2 : max2;
@@ -101,7 +145,7 @@ public final class Conditioner {
             out[i + 3] = x3 - zero;
         }
         for (; i < length; i++) {
-            float x = in[offset + i];
+            float x = src[base + i];
             max0 = x > max0 ? x : max0;
             min0 = x < min0 ? x : min0;
             sum0 += x;
@@ -118,18 +162,92 @@ public final class Conditioner {
         if (max >= overRange || -min >= overRange) {
             now |= SignalFaults.OVER_RANGE;
         }
+        if (clipLevel > 0 && length > 0) {
+            now = checkFlatTop(now, src, base, length, min, max);
+        }
         now = checkFlatLine(now, min, max, length);
+        boolean quiet = false;
+        if (length > 0) {
+            float mean = sum / length;
+            // quiet: every sample within the idle band of the block's mean, a test that noise of a few
+            // N·m rms passes over thousands of samples where a spread test would fail
+            quiet = max - mean < settings.idleBandNm() && mean - min < settings.idleBandNm();
+            if (trackZero && quiet && !zeroSet) {
+                // the first zero applies to the very block it comes from: the idle before the first
+                // rundown, as the station takes it at start
+                now = trackZero(now, mean, length);
+                float shift = zeroNm - zero;
+                for (int k = 0; k < length; k++) {
+                    out[k] -= shift;
+                }
+                quiet = false;
+            }
+        }
         if (filtered) {
             filter(out, length);
         }
-        if (trackZero && length > 0 && max - min < settings.idleBandNm()) {
+        if (trackZero && quiet) {
             now = trackZero(now, sum / length, length);
         }
         faults = now;
         if (length > 0) {
-            lastGood = out[length - 1] + zero;
+            lastGood = out[length - 1] + zeroNm;
         }
         return faults;
+    }
+
+    /**
+     * Copies the carried samples and the block into {@link #work}, replaces the impulses that can be
+     * decided now, and carries the last {@code HISTORY + delay} samples on.
+     *
+     * @return where in {@link #work} the block's output starts
+     */
+    private int reject(float[] in, int offset, int length) {
+        int keep = tail.length;
+        int end = keep + length;
+        if (work.length < end) {
+            work = new float[end]; // once, on the first block longer than any before
+        }
+        if (!primed) {
+            java.util.Arrays.fill(tail, in[offset]);
+            primed = true;
+        }
+        System.arraycopy(tail, 0, work, 0, keep);
+        System.arraycopy(in, offset, work, keep, length);
+        // an impulse starting at p is decided once its widest form and two samples after it are here
+        rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, end - rejector.maxWidth() - 1);
+        System.arraycopy(work, length, tail, 0, keep);
+        return ImpulseRejector.HISTORY;
+    }
+
+    /**
+     * A pulse flattened at a rail: {@code clipRunSamples} exactly equal samples at or beyond the
+     * impulse level. No strike holds its torque to the last bit for that long; an amplifier or ADC
+     * at its limit does. Reported as {@code OVER_RANGE}.
+     */
+    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max) {
+        int run = clipRun;
+        float value = clipValue;
+        float level = clipLevel;
+        if (max < level && min > -level) {
+            clipRun = 0;
+            return now;
+        }
+        boolean flat = false;
+        for (int i = 0; i < length; i++) {
+            float v = src[base + i];
+            if (v == value) {
+                if (++run >= clipRunSamples && (v >= level || v <= -level)) {
+                    flat = true;
+                }
+            } else {
+                value = v;
+                run = 1;
+            }
+        }
+        clipRun = run;
+        clipValue = value;
+        return flat ? now | SignalFaults.OVER_RANGE : now;
     }
 
     private static final int OVER_RANGE_OR_NAN = SignalFaults.OVER_RANGE | SignalFaults.NOT_FINITE;
@@ -210,14 +328,56 @@ public final class Conditioner {
     /**
      * Everything this conditioner carries from one block to the next. Two conditioners with the
      * same settings and equal states turn the same samples into the same output and faults.
+     * {@code tail} holds the input samples not yet given out (impulse rejection's look-ahead) and
+     * the two before them; it is compared by content.
      */
     public record State(float zeroNm, boolean zeroSet, long flatSamples, float lastValue, float lastGood,
-                        int faults, double z1, double z2) {
+                        int faults, double z1, double z2, float[] tail, boolean primed, int clipRun,
+                        float clipValue) {
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof State s && Float.compare(zeroNm, s.zeroNm) == 0 && zeroSet == s.zeroSet
+                    && flatSamples == s.flatSamples && Float.compare(lastValue, s.lastValue) == 0
+                    && Float.compare(lastGood, s.lastGood) == 0 && faults == s.faults
+                    && Double.compare(z1, s.z1) == 0 && Double.compare(z2, s.z2) == 0
+                    && java.util.Arrays.equals(tail, s.tail) && primed == s.primed && clipRun == s.clipRun
+                    && Float.compare(clipValue, s.clipValue) == 0;
+        }
+
+        @Override
+        public int hashCode() {
+            return java.util.Objects.hash(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2,
+                    java.util.Arrays.hashCode(tail), primed, clipRun, clipValue);
+        }
+
+        @Override
+        public String toString() {
+            return "State[zeroNm=" + zeroNm + ", zeroSet=" + zeroSet + ", flatSamples=" + flatSamples
+                    + ", lastValue=" + lastValue + ", lastGood=" + lastGood + ", faults=" + faults + ", z1=" + z1
+                    + ", z2=" + z2 + ", tail=" + java.util.Arrays.toString(tail) + ", primed=" + primed
+                    + ", clipRun=" + clipRun + ", clipValue=" + clipValue + "]";
+        }
     }
 
     /** The carried state now; allocates (not for the sample path). */
     public State state() {
-        return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2);
+        return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2, tail.clone(), primed,
+                clipRun, clipValue);
+    }
+
+    /**
+     * How many sample periods the output runs behind the input: the look-ahead impulse rejection
+     * needs (the widest impulse and two samples), 0 with rejection off. A caller stamping output
+     * samples with times subtracts this many periods.
+     */
+    public int delaySamples() {
+        return rejector == null ? 0 : rejector.lookAhead();
+    }
+
+    /** Impulses replaced since construction (in idle and in rundowns alike). */
+    public long rejectedImpulses() {
+        return rejected;
     }
 
     /** The offset currently subtracted, N·m. */
