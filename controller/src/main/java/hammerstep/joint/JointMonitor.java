@@ -103,6 +103,7 @@ public final class JointMonitor implements PulseSink {
         if (length > scratch.length) {
             throw new IllegalArgumentException("block of " + length + " samples exceeds " + scratch.length);
         }
+        long rejectedBefore = conditioner.rejectedImpulses();
         int faults = conditioner.process(samples, offset, length, scratch, state == State.IDLE);
         // the conditioned samples run the rejector's look-ahead behind: stamp them with their own times
         firstSampleNs -= delayNs;
@@ -119,7 +120,7 @@ public final class JointMonitor implements PulseSink {
         while (i < length) {
             switch (state) {
                 case IDLE:
-                    i = scanIdle(x, i, length, firstSampleNs, faults);
+                    i = scanIdle(x, i, length, firstSampleNs, faults, rejectedBefore);
                     break;
                 case ACTIVE:
                     i = scanActive(x, i, length, firstSampleNs);
@@ -132,7 +133,7 @@ public final class JointMonitor implements PulseSink {
         sampleBase += length;
     }
 
-    private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
+    private int scanIdle(float[] x, int i, int length, long firstNs, int faults, long rejectedBefore) {
         float level = startAbove;
         while (i < length && x[i] < level) {
             i++;
@@ -145,7 +146,8 @@ public final class JointMonitor implements PulseSink {
             lastAboveNs = startNs;
             shutoffNs = Long.MIN_VALUE;
             rundownFaults = faults;
-            rejectedAtStart = conditioner.rejectedImpulses();
+            // impulses are counted per block: those of the block the rundown starts in are its own
+            rejectedAtStart = rejectedBefore;
             blows = 0;
             narrowPulses = 0;
             blowsAfterShutoff = 0;

@@ -215,7 +215,7 @@ public final class Conditioner {
         System.arraycopy(tail, 0, work, 0, keep);
         System.arraycopy(in, offset, work, keep, length);
         // an impulse starting at p is decided once its widest form and two samples after it are here
-        rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, end - rejector.maxWidth() - 1);
+        rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, end - rejector.lookAhead() + 1);
         System.arraycopy(work, length, tail, 0, keep);
         return ImpulseRejector.HISTORY;
     }
