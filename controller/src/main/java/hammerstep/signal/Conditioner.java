@@ -54,12 +54,14 @@ public final class Conditioner {
     private float clipValue = Float.NaN;
 
     /** A flat top this long (and at least {@link #MIN_FLAT_TOP_SAMPLES}) at or beyond the impulse level is clipping, ms. */
-    public static final double FLAT_TOP_MS = 0.1;
+    public static final double FLAT_TOP_MS = 0.08;
     /**
-     * Fewest exactly equal samples that make a flat top: a hydraulic pulse of 10 ms stored as int16
-     * shows up to about four equal samples at its crest at 100 kHz, a clipped strike dozens.
+     * Fewest exactly equal samples that make a flat top. A strike's crest, even noise-free, shows
+     * two equal samples at most; a hydraulic pulse of 10 ms stored as int16 (scale = its peak / 32767)
+     * about five at 100 kHz and two at 20 kHz, below the 0.08 ms there; a strike clipped by 5 % of its
+     * peak stays flat for a fifth of its width, 4 samples of a 1 ms strike at 20 kHz.
      */
-    public static final int MIN_FLAT_TOP_SAMPLES = 8;
+    public static final int MIN_FLAT_TOP_SAMPLES = 3;
 
     public Conditioner(Conditioning settings, double rateHz) {
         if (!(rateHz > 0)) {
