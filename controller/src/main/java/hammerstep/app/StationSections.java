@@ -1,6 +1,7 @@
 package hammerstep.app;
 
 import hammerstep.config.MapReader;
+import hammerstep.health.InterferenceSection;
 import hammerstep.health.ToolHealthSection;
 import hammerstep.mqtt.BrokerSettings;
 import hammerstep.hardware.HardwareSections;
@@ -72,6 +73,7 @@ public final class StationSections {
                 BROKER,
                 TracesSection.INSTANCE,
                 ToolHealthSection.INSTANCE,
+                InterferenceSection.INSTANCE,
                 HardwareSections.HARDWARE,
                 HardwareSections.TRANSDUCER,
                 StationSection.readElsewhere("simulation"));

@@ -4,6 +4,7 @@ import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
+import hammerstep.health.InterferenceWatch;
 import hammerstep.health.ToolHealth;
 import hammerstep.health.ToolHealthEvents;
 import hammerstep.results.JointOutcome;
@@ -61,6 +62,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private CommandDesk commands;
     private TraceKeeper traces;
     private ToolHealth toolHealth;
+    private InterferenceWatch interference;
     private String toolName = "tool";
     private JointMonitor current;
     private long nowNs;
@@ -139,6 +141,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         work += drainStores();
         sequence.storage(sink.storage());
         sequence.sensorFaults(current.conditioner().faults());
+        if (interference != null) {
+            watchInterference();
+        }
         sequence.onTick(nowNs);
         work += drainStores();
         applyTool();
@@ -201,7 +206,11 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         if (traces != null) {
             traces.onSamples(samples, offset, length, firstSampleNs);
         }
+        long rejectedBefore = current.conditioner().rejectedImpulses();
         current.onSamples(samples, offset, length, firstSampleNs);
+        if (interference != null) {
+            interference.add(current.conditioner().rejectedImpulses() - rejectedBefore);
+        }
         if (shutoffPending) {
             shutoffPending = false;
             sequence.shutoff(shutoffNs);
@@ -307,6 +316,37 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         }
         sequence.warning(toolHealth.anyWeak());
         return true;
+    }
+
+    /**
+     * Interference: rejected impulses per hour against the warning level; a change is stored as an
+     * event. False when the event could not be stored (the station then stands in FAULT).
+     */
+    private boolean watchInterference() {
+        StationEvent event = interference.poll(nowNs, clock.instantOf(nowNs));
+        if (event == null) {
+            return true;
+        }
+        try {
+            ResultSink.Receipt receipt = sink.event(event);
+            listener.onEvent(event, receipt);
+            return true;
+        } catch (ResultStoreException e) {
+            sequence.storeFailed(nowNs);
+            applyTool();
+            LOG.error("event not stored, station stopped until the supervisor key: {}", e.getMessage());
+            listener.onStoreFailed(e.getMessage());
+            return false;
+        }
+    }
+
+    /** Warns when rejected impulses pass a level per hour. Call before the agent runs. */
+    public void watchInterference(InterferenceWatch watch) {
+        this.interference = watch;
+    }
+
+    public InterferenceWatch interference() {
+        return interference;
     }
 
     /** Keeps every joint's torque trace and names it in the joint's result. Call before the agent runs. */
