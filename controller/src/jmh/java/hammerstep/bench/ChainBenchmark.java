@@ -4,6 +4,7 @@ import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
+import hammerstep.signal.Conditioning;
 import hammerstep.signal.PulseTrain;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -28,7 +29,8 @@ import java.util.concurrent.TimeUnit;
  * realistic block stream at 50 kHz: rundowns of 6 to 20 blows at 1100 to 3300 per minute with
  * noise and offset, separated by idle time, as a station sees it. One operation is one block;
  * samples per second = ops/s × block. {@code copy} moves the same blocks with System.arraycopy,
- * the floor any chain is compared with.
+ * the floor any chain is compared with. {@code rejectImpulses} switches impulse rejection (and its
+ * look-ahead copy) and the flat-top check on or off.
  *
  * <pre>
  * mvn -q -Pbench -DskipTests package -pl controller
@@ -47,6 +49,10 @@ public class ChainBenchmark {
 
     @Param({"512"})
     int block;
+
+    /** Impulse rejection and the flat-top check on (as replay and the station run) or off, to show their cost. */
+    @Param({"true", "false"})
+    boolean rejectImpulses;
 
     private float[] stream;
     private float[] copy;
@@ -73,7 +79,9 @@ public class ChainBenchmark {
                 FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 4, 30, 7.5),
                 new JointProgram.Rundown(10, 200, 5000), 205, 2);
         JointEvents events = result -> rundowns++;
-        monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), RATE, block, events);
+        Conditioning conditioning = JointMonitor.replayConditioning(program);
+        monitor = new JointMonitor(program, rejectImpulses ? conditioning : conditioning.withImpulse(0), RATE, block,
+                events);
     }
 
     private int next() {
