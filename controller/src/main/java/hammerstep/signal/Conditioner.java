@@ -76,7 +76,10 @@ public final class Conditioner {
         if (settings.impulseNm() > 0) {
             this.rejector = new ImpulseRejector(settings.impulseNm(), rateHz);
             this.tail = new float[ImpulseRejector.HISTORY + rejector.lookAhead()];
-            this.clipLevel = (float) settings.impulseNm();
+            // where the range is known, reaching it is the over-range check; the flat-top check is for
+            // a rail below an unknown range (a bare CSV), where quantised crests of a known ADC can't
+            // be mistaken for a rail
+            this.clipLevel = Float.isInfinite(overRange) ? (float) settings.impulseNm() : 0f;
         } else {
             this.rejector = null;
             this.tail = new float[0];
