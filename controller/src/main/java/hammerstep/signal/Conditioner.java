@@ -40,6 +40,11 @@ public final class Conditioner {
     private int faults;
     private double z1, z2;
 
+    /** Null when no mains frequency is set. */
+    private final HumCanceller hum;
+    /** Where no mains frequency is named (and impulse rejection is on): watchers at 50 and 60 Hz; else null. */
+    private final HumCanceller watch50;
+    private final HumCanceller watch60;
     /** Null when impulse rejection is off. */
     private final ImpulseRejector rejector;
     /** The last {@code HISTORY + delay} input samples, impulses replaced; the next block's context. */
@@ -62,6 +67,11 @@ public final class Conditioner {
      * peak stays flat for a fifth of its width, 4 samples of a 1 ms strike at 20 kHz.
      */
     public static final int MIN_FLAT_TOP_SAMPLES = 3;
+    /**
+     * A fundamental of unnamed mains hum this large (N·m peak) is a fault: with its harmonics it can
+     * move a peak by the 10 N·m of the tolerance.
+     */
+    public static final float HUM_FAULT_NM = 6f;
 
     public Conditioner(Conditioning settings, double rateHz) {
         if (!(rateHz > 0)) {
@@ -85,6 +95,10 @@ public final class Conditioner {
             this.tail = new float[0];
             this.clipLevel = 0f;
         }
+        this.hum = settings.mainsHz() > 0 ? new HumCanceller(settings.mainsHz(), rateHz) : null;
+        boolean watch = hum == null && settings.impulseNm() > 0 && rateHz > 2 * 60;
+        this.watch50 = watch ? new HumCanceller(50, rateHz, false) : null;
+        this.watch60 = watch ? new HumCanceller(60, rateHz, false) : null;
         this.clipRunSamples = Math.max(MIN_FLAT_TOP_SAMPLES, (int) Math.ceil(FLAT_TOP_MS * 1e-3 * rateHz));
         double fc = settings.lowPassHz();
         this.filtered = fc > 0;
@@ -120,6 +134,20 @@ public final class Conditioner {
         if (rejector != null && length > 0) {
             base = reject(in, offset, length);
             src = work;
+        }
+        // the flat-top check looks at the samples as they came: a rail is flat, the rail less hum is not
+        float[] raw = src;
+        int rawBase = base;
+        int humPhase = 0;
+        if (hum != null) {
+            humPhase = hum.subtract(src, base, out, length);
+            src = out;
+            base = 0;
+        }
+        int watchPhase50 = 0, watchPhase60 = 0;
+        if (watch50 != null) {
+            watchPhase50 = watch50.subtract(src, base, out, length);
+            watchPhase60 = watch60.subtract(src, base, out, length);
         }
         float zero = zeroNm;
         // four independent accumulators keep the loop free of long dependency chains
@@ -168,15 +196,22 @@ public final class Conditioner {
             now |= SignalFaults.OVER_RANGE;
         }
         if (clipLevel > 0 && length > 0) {
-            now = checkFlatTop(now, src, base, length, min, max);
+            float humNm = hum == null ? 0f : hum.amplitudeNm();
+            now = checkFlatTop(now, raw, rawBase, length, min - humNm, max + humNm);
         }
         now = checkFlatLine(now, min, max, length);
         boolean quiet = false;
+        boolean idle = false;
+        boolean humIdle = false;
         if (length > 0) {
             float mean = sum / length;
             // quiet: every sample within the idle band of the block's mean, a test that noise of a few
             // N·m rms passes over thousands of samples where a spread test would fail
-            quiet = max - mean < settings.idleBandNm() && mean - min < settings.idleBandNm();
+            float band = (float) settings.idleBandNm();
+            quiet = max - mean < band && mean - min < band;
+            idle = trackZero && quiet;
+            // hum that makes the idle not quiet must still be seen; a strike is far beyond twice the band
+            humIdle = trackZero && max - mean < 2 * band && mean - min < 2 * band;
             if (trackZero && quiet && !zeroSet) {
                 // the first zero applies to the very block it comes from: the idle before the first
                 // rundown, as the station takes it at start
@@ -186,6 +221,17 @@ public final class Conditioner {
                     out[k] -= shift;
                 }
                 quiet = false;
+            }
+        }
+        if (hum != null) {
+            // learns from what is left of the hum in a quiet idle block, before any filter shifts its phase
+            hum.learn(out, 0, length, humPhase, 0f, idle);
+        }
+        if (watch50 != null) {
+            boolean ended = watch50.learn(out, 0, length, watchPhase50, 0f, humIdle);
+            // both watchers learn from the same samples and end their windows together
+            if (watch60.learn(out, 0, length, watchPhase60, 0f, humIdle) || ended) {
+                now = checkHum(now);
             }
         }
         if (filtered) {
@@ -253,6 +299,20 @@ public final class Conditioner {
         clipRun = run;
         clipValue = value;
         return flat ? now | SignalFaults.OVER_RANGE : now;
+    }
+
+    /**
+     * Unnamed hum: {@code HUM} from the first idle window whose 50 or 60 Hz fundamental reaches
+     * {@link #HUM_FAULT_NM}, until one shows less than half of it (the bit holds through rundowns,
+     * where nothing is measured). Rundowns in between are sensor
+     * faults: the hum would move their peaks by about as much.
+     */
+    private int checkHum(int now) {
+        float worst = Math.max(watch50.amplitudeNm(), watch60.amplitudeNm());
+        if (worst >= HUM_FAULT_NM) {
+            return now | SignalFaults.HUM;
+        }
+        return worst < 0.5f * HUM_FAULT_NM ? now & ~SignalFaults.HUM : now;
     }
 
     private static final int OVER_RANGE_OR_NAN = SignalFaults.OVER_RANGE | SignalFaults.NOT_FINITE;
@@ -334,11 +394,14 @@ public final class Conditioner {
      * Everything this conditioner carries from one block to the next. Two conditioners with the
      * same settings and equal states turn the same samples into the same output and faults.
      * {@code tail} holds the input samples not yet given out (impulse rejection's look-ahead) and
-     * the two before them; it is compared by content.
+     * the two before them; it is compared by content. {@code hum} is the hum canceller's state,
+     * null when no mains frequency is set; {@code watch50} and {@code watch60} those of the hum
+     * watchers, null unless no mains frequency is set and impulse rejection is on.
      */
     public record State(float zeroNm, boolean zeroSet, long flatSamples, float lastValue, float lastGood,
                         int faults, double z1, double z2, float[] tail, boolean primed, int clipRun,
-                        float clipValue) {
+                        float clipValue, HumCanceller.State hum, HumCanceller.State watch50,
+                        HumCanceller.State watch60) {
 
         @Override
         public boolean equals(Object o) {
@@ -347,13 +410,14 @@ public final class Conditioner {
                     && Float.compare(lastGood, s.lastGood) == 0 && faults == s.faults
                     && Double.compare(z1, s.z1) == 0 && Double.compare(z2, s.z2) == 0
                     && java.util.Arrays.equals(tail, s.tail) && primed == s.primed && clipRun == s.clipRun
-                    && Float.compare(clipValue, s.clipValue) == 0;
+                    && Float.compare(clipValue, s.clipValue) == 0 && java.util.Objects.equals(hum, s.hum)
+                    && java.util.Objects.equals(watch50, s.watch50) && java.util.Objects.equals(watch60, s.watch60);
         }
 
         @Override
         public int hashCode() {
             return java.util.Objects.hash(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2,
-                    java.util.Arrays.hashCode(tail), primed, clipRun, clipValue);
+                    java.util.Arrays.hashCode(tail), primed, clipRun, clipValue, hum, watch50, watch60);
         }
 
         @Override
@@ -361,14 +425,16 @@ public final class Conditioner {
             return "State[zeroNm=" + zeroNm + ", zeroSet=" + zeroSet + ", flatSamples=" + flatSamples
                     + ", lastValue=" + lastValue + ", lastGood=" + lastGood + ", faults=" + faults + ", z1=" + z1
                     + ", z2=" + z2 + ", tail=" + java.util.Arrays.toString(tail) + ", primed=" + primed
-                    + ", clipRun=" + clipRun + ", clipValue=" + clipValue + "]";
+                    + ", clipRun=" + clipRun + ", clipValue=" + clipValue + ", hum=" + hum
+                    + ", watch50=" + watch50 + ", watch60=" + watch60 + "]";
         }
     }
 
     /** The carried state now; allocates (not for the sample path). */
     public State state() {
         return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2, tail.clone(), primed,
-                clipRun, clipValue);
+                clipRun, clipValue, hum == null ? null : hum.state(), watch50 == null ? null : watch50.state(),
+                watch60 == null ? null : watch60.state());
     }
 
     /**

@@ -13,6 +13,8 @@ package hammerstep.signal;
  * @param impulseNm         an excursion at least this far from its neighbours' course, shorter than any
  *                          strike, is an electrical impulse and is replaced (see {@link ImpulseRejector});
  *                          the same level arms the flat-top (clipping) check. 0 switches both off
+ * @param mainsHz           the mains frequency (50 or 60 Hz) whose hum and harmonics are learned in idle and
+ *                          subtracted (see {@link HumCanceller}); 0 for none
  */
 public record Conditioning(
         double idleBandNm,
@@ -21,7 +23,8 @@ public record Conditioning(
         double overRangeNm,
         double flatLineMs,
         double lowPassHz,
-        double impulseNm) {
+        double impulseNm,
+        double mainsHz) {
 
     /** Impulse level, as a fraction of the transducer's range, where the range is known. */
     public static final double IMPULSE_FRACTION_OF_RANGE = 0.025;
@@ -32,10 +35,16 @@ public record Conditioning(
     /** Zero limit where the range is unknown (a bare CSV), N·m. */
     public static final double ZERO_NM_UNKNOWN_RANGE = 10.0;
 
+    /** Without hum cancelling. */
+    public Conditioning(double idleBandNm, double zeroLimitNm, double zeroTimeConstantMs, double overRangeNm,
+                        double flatLineMs, double lowPassHz, double impulseNm) {
+        this(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs, lowPassHz, impulseNm, 0.0);
+    }
+
     /** Without impulse rejection and flat-top check: the conditioning as it was before either existed. */
     public Conditioning(double idleBandNm, double zeroLimitNm, double zeroTimeConstantMs, double overRangeNm,
                         double flatLineMs, double lowPassHz) {
-        this(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs, lowPassHz, 0.0);
+        this(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs, lowPassHz, 0.0, 0.0);
     }
 
     /**
@@ -57,26 +66,37 @@ public record Conditioning(
             return this;
         }
         return new Conditioning(idleBandNm, ZERO_FRACTION_OF_RANGE * rangeNm, zeroTimeConstantMs, rangeNm,
-                flatLineMs, lowPassHz, impulseNm > 0 ? IMPULSE_FRACTION_OF_RANGE * rangeNm : 0.0);
+                flatLineMs, lowPassHz, impulseNm > 0 ? IMPULSE_FRACTION_OF_RANGE * rangeNm : 0.0, mainsHz);
     }
 
     public Conditioning withLowPass(double hz) {
-        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs, hz, impulseNm);
+        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs,
+                hz, impulseNm, mainsHz);
     }
 
     public Conditioning withOverRange(double nm) {
-        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, nm, flatLineMs, lowPassHz, impulseNm);
+        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, nm, flatLineMs,
+                lowPassHz, impulseNm, mainsHz);
     }
 
     public Conditioning withFlatLine(double ms) {
-        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, ms, lowPassHz, impulseNm);
+        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, ms,
+                lowPassHz, impulseNm, mainsHz);
     }
 
     public Conditioning withZeroLimit(double nm) {
-        return new Conditioning(idleBandNm, nm, zeroTimeConstantMs, overRangeNm, flatLineMs, lowPassHz, impulseNm);
+        return new Conditioning(idleBandNm, nm, zeroTimeConstantMs, overRangeNm, flatLineMs,
+                lowPassHz, impulseNm, mainsHz);
     }
 
     public Conditioning withImpulse(double nm) {
-        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs, lowPassHz, nm);
+        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs,
+                lowPassHz, nm, mainsHz);
+    }
+
+    /** Hum of {@code hz} (50 or 60) and its harmonics cancelled; 0 for none. */
+    public Conditioning withMains(double hz) {
+        return new Conditioning(idleBandNm, zeroLimitNm, zeroTimeConstantMs, overRangeNm, flatLineMs, lowPassHz,
+                impulseNm, hz);
     }
 }

@@ -20,6 +20,11 @@ public final class SignalFaults {
      * any tool strikes: electrical noise, not blows.
      */
     public static final int NOISE = 1 << 4;
+    /**
+     * Mains hum (50 or 60 Hz) of {@value Conditioner#HUM_FAULT_NM} N·m or more in the idle while no
+     * mains frequency is named, so nothing removes it: it would move every peak by as much.
+     */
+    public static final int HUM = 1 << 5;
 
     private SignalFaults() {
     }
@@ -41,6 +46,9 @@ public final class SignalFaults {
         }
         if ((faults & NOISE) != 0) {
             names.add("NOISE");
+        }
+        if ((faults & HUM) != 0) {
+            names.add("HUM");
         }
         return names;
     }
