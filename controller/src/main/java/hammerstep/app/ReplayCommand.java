@@ -61,6 +61,9 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--flat-line-ms", paramLabel = "MS", description = "a signal exactly constant this long is a sensor fault (default: off)")
     double flatLineMs;
 
+    @Option(names = "--mains", paramLabel = "HZ", description = "the mains frequency, 50 or 60: its hum and harmonics are learned in the idle and removed (default: none; hum of 6 N·m or more is then a sensor fault)")
+    double mainsHz;
+
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
@@ -69,6 +72,9 @@ public final class ReplayCommand implements Callable<Integer> {
         if (verbose) {
             Logging.configure(true, Level.WARN);
         }
+        if (mainsHz != 0 && mainsHz != 50 && mainsHz != 60) {
+            throw new UserError("--mains " + mainsHz + ": the mains frequency is 50 or 60 Hz");
+        }
         JointProgram program = ProgramFile.load(programFile);
         if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
@@ -76,7 +82,7 @@ public final class ReplayCommand implements Callable<Integer> {
         double rate = TraceFiles.rateOf(trace, rateHz);
         double rangeNm = Double.isNaN(overRangeNm) ? TraceFiles.rangeOf(trace) : overRangeNm;
         Conditioning conditioning = JointMonitor.replayConditioning(program).withRange(rangeNm)
-                .withOverRange(rangeNm).withLowPass(lowPassHz).withFlatLine(flatLineMs);
+                .withOverRange(rangeNm).withLowPass(lowPassHz).withFlatLine(flatLineMs).withMains(mainsHz);
         if (lowPassHz >= rate / 2) {
             throw new UserError("--low-pass " + lowPassHz + " Hz must be below half the sample rate (" + rate / 2 + " Hz)");
         }
@@ -118,7 +124,9 @@ public final class ReplayCommand implements Callable<Integer> {
     private List<JointResult> replaySplit(F32Trace samples, JointProgram program, Conditioning conditioning,
                                           double rate) throws InterruptedException {
         SplitReplay split = new SplitReplay(program, conditioning, rate, BLOCK);
-        int workers = split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
+        // a hum canceller's learned state never comes to equal another's: no worker could hand over
+        int workers = conditioning.mainsHz() > 0 ? 1
+                : split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
         SplitReplay.Outcome outcome = split.run(samples::read, samples.samples(), workers);
         if (verbose) {
             // looked up only here: a logger would otherwise start logging for every replay

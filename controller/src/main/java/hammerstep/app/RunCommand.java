@@ -23,6 +23,7 @@ import hammerstep.station.loop.StationListener;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
 import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
@@ -114,7 +115,8 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);
         AtomicLong errors = new AtomicLong();
-        StationAgent agent = new StationAgent(clock, ports, delivery.sink(), sequence, parts.byModel(), conditioning(td),
+        StationAgent agent = new StationAgent(clock, ports, delivery.sink(), sequence, parts.byModel(),
+                conditioning(td).withMains(station.get(MainsSection.INSTANCE).frequencyHz()),
                 (long) (timing.blinkPeriodMs() * 1e6), StationListener.NONE, t -> {
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);

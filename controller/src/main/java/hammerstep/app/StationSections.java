@@ -7,6 +7,7 @@ import hammerstep.mqtt.BrokerSettings;
 import hammerstep.hardware.HardwareSections;
 import hammerstep.results.StorageSettings;
 import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.StationSection;
 import hammerstep.station.setup.TimingSection;
@@ -74,6 +75,7 @@ public final class StationSections {
                 TracesSection.INSTANCE,
                 ToolHealthSection.INSTANCE,
                 InterferenceSection.INSTANCE,
+                MainsSection.INSTANCE,
                 HardwareSections.HARDWARE,
                 HardwareSections.TRANSDUCER,
                 StationSection.readElsewhere("simulation"));
