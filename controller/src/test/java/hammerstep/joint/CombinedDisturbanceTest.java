@@ -17,7 +17,8 @@ import static org.assertj.core.api.Assertions.assertThat;
  * Disturbances together, at 20, 50 and 100 kHz, in blocks of 512 and 4096: an offset of up to
  * ±8 N·m drifting by 2 N·m, idle noise of 2 N·m rms, and a spike of 100 to 400 N·m (either sign,
  * one or two samples) every 20 to 60 ms wherever it falls: in the idle, between blows, on strikes.
- * The joints match the clean trace. Where the chain cannot cope (a burst of spikes closer than any
+ * The joints match the clean trace, also with 15 N·m of mains hum (and harmonics) where the mains
+ * frequency is named. Where the chain cannot cope (a burst of spikes closer than any
  * tool strikes, wider than an impulse; a rail), the result is a sensor fault, never a silent GO.
  */
 class CombinedDisturbanceTest {
@@ -46,6 +47,35 @@ class CombinedDisturbanceTest {
         }
         Conditioning c = JointMonitor.replayConditioning(Disturbed.PROGRAM);
         d.assertMatchesTruth(d.run(c, block), c);
+    }
+
+    static Stream<Arguments> humCases() {
+        List<Arguments> a = new ArrayList<>();
+        for (double rate : new double[] {20_000, 50_000, 100_000}) {
+            for (double mains : new double[] {50, 60}) {
+                a.add(Arguments.of(rate, mains, (long) (rate / 1000 + mains)));
+            }
+        }
+        return a.stream();
+    }
+
+    /**
+     * The same with mains hum on top, the mains frequency named: 15 N·m at it, 3 N·m at twice and
+     * 5 N·m at three times it.
+     */
+    @ParameterizedTest(name = "{0} Hz, mains {1} Hz, seed {2}")
+    @MethodSource("humCases")
+    void humSpikesAndADriftingNoisyZeroTogetherChangeNothingTheTruthSays(double rate, double mains, long seed) {
+        Disturbed d = new Disturbed(rate, 3, seed);
+        double offset = -8 + 16 * d.random.nextDouble();
+        d.drift(offset, offset + (offset > 0 ? -2 : 2));
+        d.noise(2.0);
+        d.hum(mains, 15, 3, 5);
+        for (double t = 0.02; t < d.x.length / rate - 0.01; t += 0.02 + 0.04 * d.random.nextDouble()) {
+            d.spike(d.index(t), 1 + d.random.nextInt(2), d.spikeNm());
+        }
+        Conditioning c = JointMonitor.replayConditioning(Disturbed.PROGRAM).withMains(mains);
+        d.assertMatchesTruth(d.run(c, 512), c);
     }
 
     @ParameterizedTest(name = "{0} Hz")
