@@ -30,7 +30,9 @@ import java.util.concurrent.TimeUnit;
  * noise and offset, separated by idle time, as a station sees it. One operation is one block;
  * samples per second = ops/s × block. {@code copy} moves the same blocks with System.arraycopy,
  * the floor any chain is compared with. {@code rejectImpulses} switches impulse rejection (and its
- * look-ahead copy) and the flat-top check on or off.
+ * look-ahead copy) and the flat-top check on or off; {@code mainsHz} 50 names the mains frequency
+ * (hum cancelling), 0 leaves it unnamed (with rejection on, the hum watchers run instead). The
+ * stream carries 5 N·m of 50 Hz hum and 1.5 N·m at 150 Hz either way.
  *
  * <pre>
  * mvn -q -Pbench -DskipTests package -pl controller
@@ -54,6 +56,10 @@ public class ChainBenchmark {
     @Param({"true", "false"})
     boolean rejectImpulses;
 
+    /** The mains frequency named (hum cancelled), or 0 for none. */
+    @Param({"0", "50"})
+    double mainsHz;
+
     private float[] stream;
     private float[] copy;
     private int pos;
@@ -74,14 +80,18 @@ public class ChainBenchmark {
             t = rundown.get(blows - 1).startS() + 0.5 + r.nextDouble();
         }
         stream = PulseTrain.render(RATE, duration, strikes, 0.4, 0.3, 7);
+        for (int i = 0; i < stream.length; i++) {
+            double ph = 2 * Math.PI * 50 * i / RATE;
+            stream[i] += (float) (5 * Math.sin(ph + 0.3) + 1.5 * Math.sin(3 * ph + 1.1));
+        }
         copy = new float[block];
         JointProgram program = new JointProgram("bench", "", new JointProgram.Torque(180, 200, 230),
                 FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 4, 30, 7.5),
                 new JointProgram.Rundown(10, 200, 5000), 205, 2);
         JointEvents events = result -> rundowns++;
         Conditioning conditioning = JointMonitor.replayConditioning(program);
-        monitor = new JointMonitor(program, rejectImpulses ? conditioning : conditioning.withImpulse(0), RATE, block,
-                events);
+        conditioning = (rejectImpulses ? conditioning : conditioning.withImpulse(0)).withMains(mainsHz);
+        monitor = new JointMonitor(program, conditioning, RATE, block, events);
     }
 
     private int next() {

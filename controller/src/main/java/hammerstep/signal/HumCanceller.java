@@ -13,7 +13,7 @@ package hammerstep.signal;
  * sample that is an add, a shift and a subtraction; no sine is computed on the sample path.
  *
  * <p>Learning: over windows of {@value #WINDOW_S} s (5 periods at 50 Hz, 6 at 60 Hz) of samples
- * the caller calls idle, every {@code stride}-th residual (2000 per second) is projected onto the
+ * the caller calls idle, every {@code stride}-th residual (1000 per second) is projected onto the
  * harmonics; at the end of a window the projections are added to the coefficients, and the table
  * is rebuilt. A window the caller does not call idle from start to end (a rundown, or a block that
  * was not quiet) is dropped, so the coefficients stay frozen through a rundown while the
@@ -39,7 +39,7 @@ public final class HumCanceller {
     /** A learning window, s. */
     public static final double WINDOW_S = 0.1;
     /** Learning samples per second (every {@code stride}-th sample). */
-    public static final double LEARN_RATE_HZ = 2000;
+    public static final double LEARN_RATE_HZ = 1000;
     /** Frequency tracking needs a fundamental at least this large, N·m. */
     public static final double TRACK_ABOVE_NM = 1.0;
     /** Largest departure of the tracked frequency from the nominal one, as a fraction. */
