@@ -4,6 +4,7 @@ import hammerstep.joint.FinalTorque;
 import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
+import hammerstep.signal.Conditioning;
 import hammerstep.signal.PulseTrain;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -28,7 +29,10 @@ import java.util.concurrent.TimeUnit;
  * realistic block stream at 50 kHz: rundowns of 6 to 20 blows at 1100 to 3300 per minute with
  * noise and offset, separated by idle time, as a station sees it. One operation is one block;
  * samples per second = ops/s × block. {@code copy} moves the same blocks with System.arraycopy,
- * the floor any chain is compared with.
+ * the floor any chain is compared with. {@code rejectImpulses} switches impulse rejection (and its
+ * look-ahead copy) and the flat-top check on or off; {@code mainsHz} 50 names the mains frequency
+ * (hum cancelling), 0 leaves it unnamed (with rejection on, the hum watchers run instead). The
+ * stream carries 5 N·m of 50 Hz hum and 1.5 N·m at 150 Hz either way.
  *
  * <pre>
  * mvn -q -Pbench -DskipTests package -pl controller
@@ -47,6 +51,14 @@ public class ChainBenchmark {
 
     @Param({"512"})
     int block;
+
+    /** Impulse rejection and the flat-top check on (as replay and the station run) or off, to show their cost. */
+    @Param({"true", "false"})
+    boolean rejectImpulses;
+
+    /** The mains frequency named (hum cancelled), or 0 for none. */
+    @Param({"0", "50"})
+    double mainsHz;
 
     private float[] stream;
     private float[] copy;
@@ -68,12 +80,18 @@ public class ChainBenchmark {
             t = rundown.get(blows - 1).startS() + 0.5 + r.nextDouble();
         }
         stream = PulseTrain.render(RATE, duration, strikes, 0.4, 0.3, 7);
+        for (int i = 0; i < stream.length; i++) {
+            double ph = 2 * Math.PI * 50 * i / RATE;
+            stream[i] += (float) (5 * Math.sin(ph + 0.3) + 1.5 * Math.sin(3 * ph + 1.1));
+        }
         copy = new float[block];
         JointProgram program = new JointProgram("bench", "", new JointProgram.Torque(180, 200, 230),
                 FinalTorque.MAX_PEAK, new JointProgram.Blows(40, 20, 4, 30, 7.5),
                 new JointProgram.Rundown(10, 200, 5000), 205, 2);
         JointEvents events = result -> rundowns++;
-        monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), RATE, block, events);
+        Conditioning conditioning = JointMonitor.replayConditioning(program);
+        conditioning = (rejectImpulses ? conditioning : conditioning.withImpulse(0)).withMains(mainsHz);
+        monitor = new JointMonitor(program, conditioning, RATE, block, events);
     }
 
     private int next() {

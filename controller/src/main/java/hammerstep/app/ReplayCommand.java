@@ -57,11 +57,14 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--low-pass", paramLabel = "HZ", description = "2nd-order Butterworth low-pass before detection (default: none)")
     double lowPassHz;
 
-    @Option(names = "--over-range", paramLabel = "NM", description = "|torque| at or above this is a sensor fault (default: off)")
+    @Option(names = "--over-range", paramLabel = "NM", description = "the transducer's range: |torque| at or above it, or a pulse flattened at a rail, is a sensor fault; zero limit 2 %% of it (default: the trace's range_nm, else off and ±10 N·m)")
     double overRangeNm = Double.NaN;
 
     @Option(names = "--flat-line-ms", paramLabel = "MS", description = "a signal exactly constant this long is a sensor fault (default: off)")
     double flatLineMs;
+
+    @Option(names = "--mains", paramLabel = "HZ", description = "the mains frequency, 50 or 60: its hum and harmonics are learned in the idle and removed (default: none; hum of 6 N·m or more is then a sensor fault)")
+    double mainsHz;
 
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
@@ -71,12 +74,17 @@ public final class ReplayCommand implements Callable<Integer> {
         if (verbose) {
             Logging.configure(true, Level.WARN);
         }
+        if (mainsHz != 0 && mainsHz != 50 && mainsHz != 60) {
+            throw new UserError("--mains " + mainsHz + ": the mains frequency is 50 or 60 Hz");
+        }
         JointProgram program = ProgramFile.load(programFile);
         if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
         }
         double rate = TraceFiles.rateOf(trace, rateHz);
-        Conditioning conditioning = withOptions(JointMonitor.replayConditioning(program));
+        // a CSV's "# range_nm=" line (or --over-range) gives the transducer's range
+        Conditioning conditioning = withOptions(JointMonitor.replayConditioning(program)
+                .withRange(TraceFiles.rangeOf(trace)));
         if (lowPassHz >= rate / 2) {
             throw new UserError("--low-pass " + lowPassHz + " Hz must be below half the sample rate (" + rate / 2 + " Hz)");
         }
@@ -127,7 +135,10 @@ public final class ReplayCommand implements Callable<Integer> {
             c = c.withLowPass(lowPassHz);
         }
         if (!Double.isNaN(overRangeNm)) {
-            c = c.withOverRange(overRangeNm);
+            c = c.withRange(overRangeNm).withOverRange(overRangeNm);
+        }
+        if (mainsHz > 0) {
+            c = c.withMains(mainsHz);
         }
         if (flatLineMs > 0) {
             c = c.withFlatLine(flatLineMs);
@@ -139,7 +150,9 @@ public final class ReplayCommand implements Callable<Integer> {
     private List<JointResult> replaySplit(F32Trace samples, JointProgram program, Conditioning conditioning,
                                           double rate) throws InterruptedException {
         SplitReplay split = new SplitReplay(program, conditioning, rate, BLOCK);
-        int workers = split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
+        // a hum canceller's learned state never comes to equal another's: no worker could hand over
+        int workers = conditioning.mainsHz() > 0 ? 1
+                : split.workersFor(samples.samples(), Runtime.getRuntime().availableProcessors());
         SplitReplay.Outcome outcome = split.run(samples::read, samples.samples(), workers);
         if (verbose) {
             // looked up only here: a logger would otherwise start logging for every replay

@@ -24,6 +24,7 @@ import hammerstep.station.loop.StationListener;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
 import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
@@ -115,7 +116,8 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);
         AtomicLong errors = new AtomicLong();
-        StationAgent agent = new StationAgent(clock, ports, delivery.journal(), sequence, parts.byModel(), conditioning(td),
+        StationAgent agent = new StationAgent(clock, ports, delivery.journal(), sequence, parts.byModel(),
+                conditioning(td).withMains(station.get(MainsSection.INSTANCE).frequencyHz()),
                 (long) (timing.blinkPeriodMs() * 1e6), StationListener.NONE, t -> {
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);
@@ -175,10 +177,15 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         return 0;
     }
 
-    /** The conditioning of a real transducer: auto-zero within 2 % of full scale, over-range at full scale. */
+    /**
+     * The conditioning of a real transducer: auto-zero within 2 % of full scale (following blocks
+     * whose samples stay within 2 % of full scale of their mean), over-range at full scale, impulses
+     * of 2.5 % of full scale and more rejected and flat tops beyond that level taken for clipping.
+     */
     static Conditioning conditioning(TransducerSettings td) {
         double fs = td.fullScaleNm();
-        return new Conditioning(0.01 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0);
+        return new Conditioning(0.02 * fs, 0.02 * fs, 1000.0, fs, 500.0, 0.0,
+                Conditioning.IMPULSE_FRACTION_OF_RANGE * fs);
     }
 
     private static void logStatus(Acquisition a, CommandDesk desk, ResultDelivery d, long errors) {

@@ -1,5 +1,7 @@
 package hammerstep.app;
 
+import hammerstep.health.InterferenceSection;
+import hammerstep.health.InterferenceWatch;
 import hammerstep.health.ToolHealth;
 import hammerstep.health.ToolHealthSection;
 import hammerstep.station.loop.StationAgent;
@@ -11,7 +13,8 @@ import java.io.IOException;
 
 /**
  * Attaches the line engineer's watches to a station loop, from the station file: the trace keeper
- * ({@code traces:}, off without the section) and tool health ({@code tool_health:}, on by default).
+ * ({@code traces:}, off without the section), tool health ({@code tool_health:}, on by default) and
+ * the interference warning ({@code interference:}, on by default).
  * Used by {@code hammerstep run} and by the simulator's demo alike.
  */
 public final class StationExtras {
@@ -32,6 +35,11 @@ public final class StationExtras {
                 : ToolHealthSection.Watch.DEFAULT;
         if (watch.enabled()) {
             agent.watchTool(watch.tool(), new ToolHealth(watch.settings()));
+        }
+        InterferenceSection.Watch interference = config.has(InterferenceSection.INSTANCE)
+                ? config.get(InterferenceSection.INSTANCE) : InterferenceSection.Watch.DEFAULT;
+        if (interference.enabled()) {
+            agent.watchInterference(new InterferenceWatch(interference.warnPerHour()));
         }
     }
 }

@@ -1,11 +1,13 @@
 package hammerstep.app;
 
 import hammerstep.config.MapReader;
+import hammerstep.health.InterferenceSection;
 import hammerstep.health.ToolHealthSection;
 import hammerstep.mqtt.BrokerSettings;
 import hammerstep.hardware.HardwareSections;
 import hammerstep.results.StorageSettings;
 import hammerstep.station.setup.IdentitySection;
+import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.StationSection;
 import hammerstep.station.setup.TimingSection;
@@ -72,6 +74,8 @@ public final class StationSections {
                 BROKER,
                 TracesSection.INSTANCE,
                 ToolHealthSection.INSTANCE,
+                InterferenceSection.INSTANCE,
+                MainsSection.INSTANCE,
                 HardwareSections.HARDWARE,
                 HardwareSections.TRANSDUCER,
                 StationSection.readElsewhere("simulation"));

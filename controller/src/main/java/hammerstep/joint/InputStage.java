@@ -31,6 +31,8 @@ public final class InputStage {
     private final float[] scratch;
     private final double periodNs;
     private final long toleranceNs;
+    /** How far the conditioned samples run behind the raw ones, ns (impulse rejection's look-ahead). */
+    private final long delayNs;
 
     private boolean any;
     private long expectedNs;
@@ -40,6 +42,7 @@ public final class InputStage {
     private long gapsOutside;
     private long gapsDuring;
     private long samplesLost;
+    private long rejectedBeforeBlock;
 
     /**
      * @param maxBlockLength the longest block the stage will be given
@@ -52,6 +55,7 @@ public final class InputStage {
         this.scratch = new float[maxBlockLength];
         this.periodNs = 1e9 / rateHz;
         this.toleranceNs = (long) (0.5 * periodNs);
+        this.delayNs = Math.round(conditioner.delaySamples() * periodNs);
     }
 
     /**
@@ -75,13 +79,15 @@ public final class InputStage {
         }
         any = true;
         expectedNs = firstSampleNs + Math.round(length * periodNs);
+        rejectedBeforeBlock = conditioner.rejectedImpulses();
         int faults = conditioner.process(raw, offset, length, scratch, monitor.idle());
         int rising = faults & ~reportedFaults;
         reportedFaults = faults;
         if (gap) {
             faults |= SignalFaults.DATA_GAP;
         }
-        boolean taken = monitor.onConditioned(scratch, 0, length, firstSampleNs, faults, rising);
+        // the conditioned samples run the rejector's look-ahead behind: stamp them with their own times
+        boolean taken = monitor.onConditioned(scratch, 0, length, firstSampleNs - delayNs, faults, rising);
         // a loss announced for a block also shows in the next block's stamp: one gap, counted once
         if (gap && !lastWasGap) {
             if (taken) {
@@ -114,6 +120,11 @@ public final class InputStage {
     /** Samples missing by the time stamps (gaps announced by the source without a time jump add none). */
     public long samplesLost() {
         return samplesLost;
+    }
+
+    /** The conditioner's count of rejected impulses before the block now being handed on. */
+    long rejectedBeforeBlock() {
+        return rejectedBeforeBlock;
     }
 
     /** The fault bits of the signal as they stand after the last block (0 when healthy). */

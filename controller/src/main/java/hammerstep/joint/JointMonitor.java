@@ -91,6 +91,7 @@ public final class JointMonitor implements PulseSink {
     private long lastAboveNs;
     private long shutoffNs;
     private int rundownFaults;
+    private long rejectedAtStart;
 
     private int blows;
     private int narrowPulses;
@@ -146,9 +147,12 @@ public final class JointMonitor implements PulseSink {
         this.maxSamples = Math.max(1, (long) Math.ceil(program.rundown().maxMs() * 1e-3 * rateHz));
     }
 
-    /** Conditioning suited to a program: auto-zero tracks blocks spreading less than half the start level. */
+    /**
+     * Conditioning suited to a program where the transducer's range is unknown: auto-zero follows
+     * blocks whose samples all stay within the start level of their mean; impulses rejected.
+     */
     public static Conditioning replayConditioning(JointProgram program) {
-        return Conditioning.forReplay(0.5 * program.rundown().startAboveNm());
+        return Conditioning.forReplay(program.rundown().startAboveNm());
     }
 
     /**
@@ -235,6 +239,8 @@ public final class JointMonitor implements PulseSink {
             lastAboveNs = startNs;
             shutoffNs = Long.MIN_VALUE;
             rundownFaults = faults & ~SignalFaults.DATA_GAP;
+            // impulses are counted per block: those of the block the rundown starts in are its own
+            rejectedAtStart = stage.rejectedBeforeBlock();
             blows = 0;
             narrowPulses = 0;
             blowsAfterShutoff = 0;
@@ -382,7 +388,7 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(peaks, stored), Arrays.copyOf(peakTimes, stored),
                 Arrays.copyOf(widths, stored), Arrays.copyOf(impulses, stored),
                 finalNm, durationMs, shutoffNs, blowsAfterShutoff, rundownFaults,
-                reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons);
+                reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons, Direction.TIGHTEN, rejectedSinceStart());
         events.onRundown(result);
     }
 
@@ -406,8 +412,13 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(reversePeaks, stored), Arrays.copyOf(reverseTimes, stored),
                 Arrays.copyOf(reverseWidths, stored), Arrays.copyOf(reverseImpulses, stored),
                 reversePeak, durationMs, shutoffNs, 0, rundownFaults, Verdict.NO_GO, List.copyOf(reasons),
-                Direction.LOOSEN);
+                Direction.LOOSEN, rejectedSinceStart());
         events.onRundown(result);
+    }
+
+    /** Electrical impulses the input stage replaced since the block the rundown started in. */
+    private int rejectedSinceStart() {
+        return (int) Math.min(Integer.MAX_VALUE, stage.conditioner().rejectedImpulses() - rejectedAtStart);
     }
 
     /** Ends and judges a rundown still under way (end of a trace, or the station abandoning a joint). */

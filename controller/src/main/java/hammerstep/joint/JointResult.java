@@ -21,6 +21,7 @@ import java.util.List;
  * @param direction         {@link Direction#LOOSEN} when the rundown's strikes went against the tightening
  *                          sense; its peaks are then those reverse strikes, negative, and it is NO-GO
  *                          ({@link Reason#LOOSENED})
+ * @param rejectedImpulses  electrical impulses the conditioner replaced while the rundown was under way
  */
 public record JointResult(
         JointProgram program,
@@ -38,15 +39,25 @@ public record JointResult(
         int faults,
         Verdict verdict,
         List<Reason> reasons,
-        Direction direction) {
+        Direction direction,
+        int rejectedImpulses) {
 
-    /** A tightening rundown (the direction of every result before loosening was told apart). */
+    /** A tightening rundown without rejected impulses (built in code, or from before either existed). */
     public JointResult(JointProgram program, long startNs, long endNs, int blows, double[] peaksNm,
                        long[] peakTimesNs, double[] widthsMs, double[] impulsesNms, double finalTorqueNm,
                        double durationMs, long shutoffAtNs, int blowsAfterShutoff, int faults, Verdict verdict,
                        List<Reason> reasons) {
         this(program, startNs, endNs, blows, peaksNm, peakTimesNs, widthsMs, impulsesNms, finalTorqueNm,
-                durationMs, shutoffAtNs, blowsAfterShutoff, faults, verdict, reasons, Direction.TIGHTEN);
+                durationMs, shutoffAtNs, blowsAfterShutoff, faults, verdict, reasons, Direction.TIGHTEN, 0);
+    }
+
+    /** A result without rejected impulses. */
+    public JointResult(JointProgram program, long startNs, long endNs, int blows, double[] peaksNm,
+                       long[] peakTimesNs, double[] widthsMs, double[] impulsesNms, double finalTorqueNm,
+                       double durationMs, long shutoffAtNs, int blowsAfterShutoff, int faults, Verdict verdict,
+                       List<Reason> reasons, Direction direction) {
+        this(program, startNs, endNs, blows, peaksNm, peakTimesNs, widthsMs, impulsesNms, finalTorqueNm,
+                durationMs, shutoffAtNs, blowsAfterShutoff, faults, verdict, reasons, direction, 0);
     }
 
     /** True for a loosening (the tool in reverse). */

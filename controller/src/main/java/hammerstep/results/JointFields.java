@@ -47,6 +47,9 @@ public final class JointFields {
         if (r.faults() != 0) {
             m.put("sensor_faults", SignalFaults.names(r.faults()));
         }
+        if (r.rejectedImpulses() > 0) {
+            m.put("rejected_impulses", r.rejectedImpulses());
+        }
         m.put("limits", limits(p));
         return m;
     }

@@ -67,6 +67,7 @@ final class Records {
         reasons.add(reason);
         return new JointResult(r.program(), r.startNs(), r.endNs(), r.blows(), r.peaksNm(), r.peakTimesNs(),
                 r.widthsMs(), r.impulsesNms(), r.finalTorqueNm(), r.durationMs(), r.shutoffAtNs(),
-                r.blowsAfterShutoff(), r.faults(), Verdict.NO_GO, List.copyOf(reasons), r.direction());
+                r.blowsAfterShutoff(), r.faults(), Verdict.NO_GO, List.copyOf(reasons), r.direction(),
+                r.rejectedImpulses());
     }
 }

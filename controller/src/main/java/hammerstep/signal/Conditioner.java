@@ -3,10 +3,15 @@ package hammerstep.signal;
 /**
  * First stage of the signal chain: removes the zero offset, optionally low-pass filters, and
  * watches the signal for faults. Works on blocks of N·m samples into a caller's buffer; allocates
- * nothing after construction. Single-threaded: one owner feeds it.
+ * nothing after its first block (impulse rejection sizes its work buffer then, and again only for a
+ * block longer than any before). Single-threaded: one owner feeds it.
  *
- * <p>Auto-zero: while the caller says the joint is idle, a quiet block (its samples spread less
- * than {@code idleBandNm}) moves the zero toward its mean with the configured time constant (the
+ * <p>Impulse rejection (when {@code impulseNm} is set): see {@link ImpulseRejector}; it makes the
+ * output run {@link #delaySamples()} behind the input. The same level arms a flat-top check: a pulse
+ * that stays exactly constant beyond that level is clipped at a rail ({@code OVER_RANGE}).
+ *
+ * <p>Auto-zero: while the caller says the joint is idle, a quiet block (no sample further than
+ * {@code idleBandNm} from the block's mean) moves the zero toward its mean with the configured time constant (the
  * first quiet block sets it outright). The zero never passes {@code zeroLimitNm}:
  * an offset beyond it is held at the limit and reported as {@link SignalFaults#ZERO_DRIFT}, so a
  * stuck bridge or a loose connector is seen instead of absorbed.
@@ -35,6 +40,39 @@ public final class Conditioner {
     private int faults;
     private double z1, z2;
 
+    /** Null when no mains frequency is set. */
+    private final HumCanceller hum;
+    /** Where no mains frequency is named (and impulse rejection is on): watchers at 50 and 60 Hz; else null. */
+    private final HumCanceller watch50;
+    private final HumCanceller watch60;
+    /** Null when impulse rejection is off. */
+    private final ImpulseRejector rejector;
+    /** The last {@code HISTORY + delay} input samples, impulses replaced; the next block's context. */
+    private final float[] tail;
+    private boolean primed;
+    private float[] work = new float[0];
+    /** Impulses replaced since construction: an observation, not carried state (output never depends on it). */
+    private long rejected;
+    private final float clipLevel;
+    private final int clipRunSamples;
+    private int clipRun;
+    private float clipValue = Float.NaN;
+
+    /** A flat top this long (and at least {@link #MIN_FLAT_TOP_SAMPLES}) at or beyond the impulse level is clipping, ms. */
+    public static final double FLAT_TOP_MS = 0.08;
+    /**
+     * Fewest exactly equal samples that make a flat top. A strike's crest, even noise-free, shows
+     * two equal samples at most; a hydraulic pulse of 10 ms stored as int16 (scale = its peak / 32767)
+     * about five at 100 kHz and two at 20 kHz, below the 0.08 ms there; a strike clipped by 5 % of its
+     * peak stays flat for a fifth of its width, 4 samples of a 1 ms strike at 20 kHz.
+     */
+    public static final int MIN_FLAT_TOP_SAMPLES = 3;
+    /**
+     * A fundamental of unnamed mains hum this large (N·m peak) is a fault: with its harmonics it can
+     * move a peak by the 10 N·m of the tolerance.
+     */
+    public static final float HUM_FAULT_NM = 6f;
+
     public Conditioner(Conditioning settings, double rateHz) {
         if (!(rateHz > 0)) {
             throw new IllegalArgumentException("rateHz must be positive");
@@ -45,6 +83,23 @@ public final class Conditioner {
         this.overRange = Double.isNaN(settings.overRangeNm()) || settings.overRangeNm() <= 0
                 ? Float.POSITIVE_INFINITY : (float) settings.overRangeNm();
         this.flatLineSamples = settings.flatLineMs() > 0 ? (long) Math.ceil(settings.flatLineMs() * 1e-3 * rateHz) : 0;
+        if (settings.impulseNm() > 0) {
+            this.rejector = new ImpulseRejector(settings.impulseNm(), rateHz);
+            this.tail = new float[ImpulseRejector.HISTORY + rejector.lookAhead()];
+            // where the range is known, reaching it is the over-range check; the flat-top check is for
+            // a rail below an unknown range (a bare CSV), where quantised crests of a known ADC can't
+            // be mistaken for a rail
+            this.clipLevel = Float.isInfinite(overRange) ? (float) settings.impulseNm() : 0f;
+        } else {
+            this.rejector = null;
+            this.tail = new float[0];
+            this.clipLevel = 0f;
+        }
+        this.hum = settings.mainsHz() > 0 ? new HumCanceller(settings.mainsHz(), rateHz) : null;
+        boolean watch = hum == null && settings.impulseNm() > 0 && rateHz > 2 * 60;
+        this.watch50 = watch ? new HumCanceller(50, rateHz, false) : null;
+        this.watch60 = watch ? new HumCanceller(60, rateHz, false) : null;
+        this.clipRunSamples = Math.max(MIN_FLAT_TOP_SAMPLES, (int) Math.ceil(FLAT_TOP_MS * 1e-3 * rateHz));
         double fc = settings.lowPassHz();
         this.filtered = fc > 0;
         if (filtered) {
@@ -66,12 +121,34 @@ public final class Conditioner {
     }
 
     /**
-     * Conditions {@code in[offset, offset+length)} into {@code out[0, length)}.
+     * Conditions {@code in[offset, offset+length)} into {@code out[0, length)}. With impulse
+     * rejection on, the output runs {@link #delaySamples()} behind the input: {@code out[i]} is the
+     * input sample taken {@code delaySamples()} sample periods before {@code in[offset+i]}.
      *
      * @param trackZero true while no rundown is under way, so auto-zero may follow the signal
      * @return the fault bits active after this block
      */
     public int process(float[] in, int offset, int length, float[] out, boolean trackZero) {
+        float[] src = in;
+        int base = offset;
+        if (rejector != null && length > 0) {
+            base = reject(in, offset, length);
+            src = work;
+        }
+        // the flat-top check looks at the samples as they came: a rail is flat, the rail less hum is not
+        float[] raw = src;
+        int rawBase = base;
+        int humPhase = 0;
+        if (hum != null) {
+            humPhase = hum.subtract(src, base, out, length);
+            src = out;
+            base = 0;
+        }
+        int watchPhase50 = 0, watchPhase60 = 0;
+        if (watch50 != null) {
+            watchPhase50 = watch50.subtract(src, base, out, length);
+            watchPhase60 = watch60.subtract(src, base, out, length);
+        }
         float zero = zeroNm;
         // four independent accumulators keep the loop free of long dependency chains
         float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
@@ -79,10 +156,10 @@ public final class Conditioner {
         float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
         int i = 0;
         for (int last = length - 3; i < last; i += 4) {
-            float x0 = in[offset + i];
-            float x1 = in[offset + i + 1];
-            float x2 = in[offset + i + 2];
-            float x3 = in[offset + i + 3];
+            float x0 = src[base + i];
+            float x1 = src[base + i + 1];
+            float x2 = src[base + i + 2];
+            float x3 = src[base + i + 3];
             max0 = x0 > max0 ? x0 : max0;
             max1 = x1 > max1 ? x1 : max1;
             max2 = x2 > max2 ? x2 : max2;
@@ -101,7 +178,7 @@ public final class Conditioner {
             out[i + 3] = x3 - zero;
         }
         for (; i < length; i++) {
-            float x = in[offset + i];
+            float x = src[base + i];
             max0 = x > max0 ? x : max0;
             min0 = x < min0 ? x : min0;
             sum0 += x;
@@ -118,18 +195,124 @@ public final class Conditioner {
         if (max >= overRange || -min >= overRange) {
             now |= SignalFaults.OVER_RANGE;
         }
+        if (clipLevel > 0 && length > 0) {
+            float humNm = hum == null ? 0f : hum.amplitudeNm();
+            now = checkFlatTop(now, raw, rawBase, length, min - humNm, max + humNm);
+        }
         now = checkFlatLine(now, min, max, length);
+        boolean quiet = false;
+        boolean idle = false;
+        boolean humIdle = false;
+        if (length > 0) {
+            float mean = sum / length;
+            // quiet: every sample within the idle band of the block's mean, a test that noise of a few
+            // N·m rms passes over thousands of samples where a spread test would fail
+            float band = (float) settings.idleBandNm();
+            quiet = max - mean < band && mean - min < band;
+            idle = trackZero && quiet;
+            // hum that makes the idle not quiet must still be seen; a strike is far beyond twice the band
+            humIdle = trackZero && max - mean < 2 * band && mean - min < 2 * band;
+            if (trackZero && quiet && !zeroSet) {
+                // the first zero applies to the very block it comes from: the idle before the first
+                // rundown, as the station takes it at start
+                now = trackZero(now, mean, length);
+                float shift = zeroNm - zero;
+                for (int k = 0; k < length; k++) {
+                    out[k] -= shift;
+                }
+                quiet = false;
+            }
+        }
+        if (hum != null) {
+            // learns from what is left of the hum in a quiet idle block, before any filter shifts its phase
+            hum.learn(out, 0, length, humPhase, 0f, idle);
+        }
+        if (watch50 != null) {
+            boolean ended = watch50.learn(out, 0, length, watchPhase50, 0f, humIdle);
+            // both watchers learn from the same samples and end their windows together
+            if (watch60.learn(out, 0, length, watchPhase60, 0f, humIdle) || ended) {
+                now = checkHum(now);
+            }
+        }
         if (filtered) {
             filter(out, length);
         }
-        if (trackZero && length > 0 && max - min < settings.idleBandNm()) {
+        if (trackZero && quiet) {
             now = trackZero(now, sum / length, length);
         }
         faults = now;
         if (length > 0) {
-            lastGood = out[length - 1] + zero;
+            lastGood = out[length - 1] + zeroNm;
         }
         return faults;
+    }
+
+    /**
+     * Copies the carried samples and the block into {@link #work}, replaces the impulses that can be
+     * decided now, and carries the last {@code HISTORY + delay} samples on.
+     *
+     * @return where in {@link #work} the block's output starts
+     */
+    private int reject(float[] in, int offset, int length) {
+        int keep = tail.length;
+        int end = keep + length;
+        if (work.length < end) {
+            work = new float[end]; // once, on the first block longer than any before
+        }
+        if (!primed) {
+            java.util.Arrays.fill(tail, in[offset]);
+            primed = true;
+        }
+        System.arraycopy(tail, 0, work, 0, keep);
+        System.arraycopy(in, offset, work, keep, length);
+        // an impulse starting at p is decided once its widest form and two samples after it are here
+        rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, end - rejector.lookAhead() + 1);
+        System.arraycopy(work, length, tail, 0, keep);
+        return ImpulseRejector.HISTORY;
+    }
+
+    /**
+     * A pulse flattened at a rail: {@code clipRunSamples} exactly equal samples at or beyond the
+     * impulse level. No strike holds its torque to the last bit for that long; an amplifier or ADC
+     * at its limit does. Reported as {@code OVER_RANGE}.
+     */
+    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max) {
+        int run = clipRun;
+        float value = clipValue;
+        float level = clipLevel;
+        if (max < level && min > -level) {
+            clipRun = 0;
+            return now;
+        }
+        boolean flat = false;
+        for (int i = 0; i < length; i++) {
+            float v = src[base + i];
+            if (v == value) {
+                if (++run >= clipRunSamples && (v >= level || v <= -level)) {
+                    flat = true;
+                }
+            } else {
+                value = v;
+                run = 1;
+            }
+        }
+        clipRun = run;
+        clipValue = value;
+        return flat ? now | SignalFaults.OVER_RANGE : now;
+    }
+
+    /**
+     * Unnamed hum: {@code HUM} from the first idle window whose 50 or 60 Hz fundamental reaches
+     * {@link #HUM_FAULT_NM}, until one shows less than half of it (the bit holds through rundowns,
+     * where nothing is measured). Rundowns in between are sensor
+     * faults: the hum would move their peaks by about as much.
+     */
+    private int checkHum(int now) {
+        float worst = Math.max(watch50.amplitudeNm(), watch60.amplitudeNm());
+        if (worst >= HUM_FAULT_NM) {
+            return now | SignalFaults.HUM;
+        }
+        return worst < 0.5f * HUM_FAULT_NM ? now & ~SignalFaults.HUM : now;
     }
 
     private static final int OVER_RANGE_OR_NAN = SignalFaults.OVER_RANGE | SignalFaults.NOT_FINITE;
@@ -210,14 +393,62 @@ public final class Conditioner {
     /**
      * Everything this conditioner carries from one block to the next. Two conditioners with the
      * same settings and equal states turn the same samples into the same output and faults.
+     * {@code tail} holds the input samples not yet given out (impulse rejection's look-ahead) and
+     * the two before them; it is compared by content. {@code hum} is the hum canceller's state,
+     * null when no mains frequency is set; {@code watch50} and {@code watch60} those of the hum
+     * watchers, null unless no mains frequency is set and impulse rejection is on.
      */
     public record State(float zeroNm, boolean zeroSet, long flatSamples, float lastValue, float lastGood,
-                        int faults, double z1, double z2) {
+                        int faults, double z1, double z2, float[] tail, boolean primed, int clipRun,
+                        float clipValue, HumCanceller.State hum, HumCanceller.State watch50,
+                        HumCanceller.State watch60) {
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof State s && Float.compare(zeroNm, s.zeroNm) == 0 && zeroSet == s.zeroSet
+                    && flatSamples == s.flatSamples && Float.compare(lastValue, s.lastValue) == 0
+                    && Float.compare(lastGood, s.lastGood) == 0 && faults == s.faults
+                    && Double.compare(z1, s.z1) == 0 && Double.compare(z2, s.z2) == 0
+                    && java.util.Arrays.equals(tail, s.tail) && primed == s.primed && clipRun == s.clipRun
+                    && Float.compare(clipValue, s.clipValue) == 0 && java.util.Objects.equals(hum, s.hum)
+                    && java.util.Objects.equals(watch50, s.watch50) && java.util.Objects.equals(watch60, s.watch60);
+        }
+
+        @Override
+        public int hashCode() {
+            return java.util.Objects.hash(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2,
+                    java.util.Arrays.hashCode(tail), primed, clipRun, clipValue, hum, watch50, watch60);
+        }
+
+        @Override
+        public String toString() {
+            return "State[zeroNm=" + zeroNm + ", zeroSet=" + zeroSet + ", flatSamples=" + flatSamples
+                    + ", lastValue=" + lastValue + ", lastGood=" + lastGood + ", faults=" + faults + ", z1=" + z1
+                    + ", z2=" + z2 + ", tail=" + java.util.Arrays.toString(tail) + ", primed=" + primed
+                    + ", clipRun=" + clipRun + ", clipValue=" + clipValue + ", hum=" + hum
+                    + ", watch50=" + watch50 + ", watch60=" + watch60 + "]";
+        }
     }
 
     /** The carried state now; allocates (not for the sample path). */
     public State state() {
-        return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2);
+        return new State(zeroNm, zeroSet, flatSamples, lastValue, lastGood, faults, z1, z2, tail.clone(), primed,
+                clipRun, clipValue, hum == null ? null : hum.state(), watch50 == null ? null : watch50.state(),
+                watch60 == null ? null : watch60.state());
+    }
+
+    /**
+     * How many sample periods the output runs behind the input: the look-ahead impulse rejection
+     * needs (the widest impulse and two samples), 0 with rejection off. A caller stamping output
+     * samples with times subtracts this many periods.
+     */
+    public int delaySamples() {
+        return rejector == null ? 0 : rejector.lookAhead();
+    }
+
+    /** Impulses replaced since construction (in idle and in rundowns alike). */
+    public long rejectedImpulses() {
+        return rejected;
     }
 
     /**
@@ -234,6 +465,19 @@ public final class Conditioner {
         faults = state.faults();
         z1 = state.z1();
         z2 = state.z2();
+        System.arraycopy(state.tail(), 0, tail, 0, tail.length);
+        primed = state.primed();
+        clipRun = state.clipRun();
+        clipValue = state.clipValue();
+        if (hum != null && state.hum() != null) {
+            hum.restore(state.hum());
+        }
+        if (watch50 != null && state.watch50() != null) {
+            watch50.restore(state.watch50());
+        }
+        if (watch60 != null && state.watch60() != null) {
+            watch60.restore(state.watch60());
+        }
     }
 
     /**
@@ -250,6 +494,19 @@ public final class Conditioner {
         into.faults = faults;
         into.z1 = z1;
         into.z2 = z2;
+        System.arraycopy(tail, 0, into.tail, 0, tail.length);
+        into.primed = primed;
+        into.clipRun = clipRun;
+        into.clipValue = clipValue;
+        if (hum != null) {
+            hum.copyTo(into.hum);
+        }
+        if (watch50 != null) {
+            watch50.copyTo(into.watch50);
+        }
+        if (watch60 != null) {
+            watch60.copyTo(into.watch60);
+        }
     }
 
     /** The offset currently subtracted, N·m. */

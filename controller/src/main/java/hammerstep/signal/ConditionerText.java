@@ -94,7 +94,9 @@ public final class ConditionerText {
             if (c.getType().isRecord()) {
                 @SuppressWarnings("unchecked")
                 Class<Record> nested = (Class<Record>) c.getType();
-                args[i] = hasAny(from, key) || dflt == null ? get(key, nested, (Record) dflt, from) : dflt;
+                // an absent part (the hum canceller of a stage without one) is written "null"
+                args[i] = "null".equals(from.get(key)) ? null
+                        : hasAny(from, key) ? get(key, nested, (Record) dflt, from) : dflt;
                 continue;
             }
             String text = from.get(key);

@@ -21,6 +21,11 @@ public final class SignalFaults {
      */
     public static final int NOISE = 1 << 4;
     /**
+     * Mains hum (50 or 60 Hz) of {@value Conditioner#HUM_FAULT_NM} N·m or more in the idle while no
+     * mains frequency is named, so nothing removes it: it would move every peak by as much.
+     */
+    public static final int HUM = 1 << 5;
+    /**
      * Samples of a rundown are missing: a block the station thread could not take in time (sample
      * ring full), conversions the ADC made and nobody read, or a block that does not start where
      * the one before ended. Set by the input stage ({@code hammerstep.joint.InputStage}), not by
@@ -49,6 +54,9 @@ public final class SignalFaults {
         }
         if ((faults & NOISE) != 0) {
             names.add("NOISE");
+        }
+        if ((faults & HUM) != 0) {
+            names.add("HUM");
         }
         if ((faults & DATA_GAP) != 0) {
             names.add("DATA_GAP");

@@ -90,6 +90,31 @@ class AllocationTest {
         assertThat(allocated).as("bytes allocated over %d blocks", 10 * (quiet.length / 512)).isLessThan(1024);
     }
 
+    @org.junit.jupiter.params.ParameterizedTest(name = "mains {0} Hz named")
+    @org.junit.jupiter.params.provider.ValueSource(doubles = {0, 50})
+    void humLearningInTheIdleAllocatesNothing(double mainsHz) {
+        // 2 s of idle with 8 N·m of 50 Hz hum: 20 learning windows, each ending with a table rebuild
+        // (named) or a watcher's measurement (unnamed)
+        com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+        float[] x = new float[100_000];
+        java.util.Random r = new java.util.Random(4);
+        for (int i = 0; i < x.length; i++) {
+            x[i] = (float) (8 * Math.sin(2 * Math.PI * 50 * i / 50_000.0) + 0.3 * r.nextGaussian());
+        }
+        JointProgram p = Programs.hubFinal();
+        int[] rundowns = new int[1];
+        JointMonitor m = new JointMonitor(p, JointMonitor.replayConditioning(p).withMains(mainsHz), 50_000, 512,
+                result -> rundowns[0]++);
+        long tid = Thread.currentThread().getId();
+        feed(m, x, 0);
+        long before = threads.getThreadAllocatedBytes(tid);
+        for (int pass = 0; pass < 5; pass++) {
+            feed(m, x, pass + 1);
+        }
+        long allocated = threads.getThreadAllocatedBytes(tid) - before;
+        assertThat(allocated).as("bytes allocated over %d idle blocks", 5 * (x.length / 512)).isLessThan(1024);
+    }
+
     /** One pass over {@code x}, in time after the passes before it (the blocks follow without a gap). */
     private static void feed(JointMonitor m, float[] x, int pass) {
         long passStart = (long) pass * (x.length / 512) * 512;

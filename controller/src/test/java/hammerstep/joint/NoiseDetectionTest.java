@@ -14,7 +14,9 @@ import static org.assertj.core.api.Assertions.assertThat;
  * Electrical noise is not a blow: pulses narrower than any strike (strike pulses last 1 to 5 ms,
  * memory of transducer practice) that follow each other sooner than any tool strikes raise
  * {@code NOISE}, which makes the rundown NO-GO with {@code SENSOR_FAULT}. The program's dead time is
- * 7.5 ms (4000 blows a minute at most), so "sooner than any tool" is under 11.25 ms.
+ * 7.5 ms (4000 blows a minute at most), so "sooner than any tool" is under 11.25 ms. The pulses here
+ * last 0.2 ms: shorter ones (0.1 ms and less) are impulses the conditioner removes before detection
+ * ({@code InterferenceSpikeTest}).
  */
 class NoiseDetectionTest {
 
@@ -42,7 +44,7 @@ class NoiseDetectionTest {
 
     @Test
     void narrowSpikesCrowdedFasterThanAnyToolAreNoiseReportedOnceAndNeverGo() {
-        RecordingJointEvents ev = run(pulses(12, 0.009, 0.0001));
+        RecordingJointEvents ev = run(pulses(12, 0.009, 0.0002));
         assertThat(ev.faults).as("one NOISE report per rundown").containsExactly(SignalFaults.NOISE);
         assertThat(ev.results).singleElement().satisfies(r -> {
             assertThat(r.verdict()).isEqualTo(Verdict.NO_GO);
@@ -54,16 +56,16 @@ class NoiseDetectionTest {
     @Test
     void twoCrowdedSpikesAreNotYetNoise() {
         // the first pulse has no predecessor, so three pulses give two crowded ones
-        RecordingJointEvents ev = run(pulses(3, 0.009, 0.0001));
+        RecordingJointEvents ev = run(pulses(3, 0.009, 0.0002));
         assertThat(ev.faults).isEmpty();
-        RecordingJointEvents four = run(pulses(4, 0.009, 0.0001));
+        RecordingJointEvents four = run(pulses(4, 0.009, 0.0002));
         assertThat(four.faults).containsExactly(SignalFaults.NOISE);
     }
 
     @Test
     void narrowPulsesAtAToolsPaceAreNotNoise() {
         // a stiff re-hit can make a strike this narrow; 27 ms apart is an ordinary blow rate
-        RecordingJointEvents ev = run(pulses(12, 0.027, 0.0001));
+        RecordingJointEvents ev = run(pulses(12, 0.027, 0.0002));
         assertThat(ev.faults).isEmpty();
         assertThat(ev.results).singleElement().satisfies(r -> assertThat(r.faults() & SignalFaults.NOISE).isZero());
     }

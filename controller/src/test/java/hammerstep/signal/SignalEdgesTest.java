@@ -70,11 +70,11 @@ class SignalEdgesTest {
         // 7 samples: the tail after the group of four counts toward the mean
         c.process(new float[] {1f, 1f, 1f, 1f, 1.7f, 1.7f, 1.7f}, 0, 7, out, true);
         assertThat(c.zeroNm()).isEqualTo((4 * 1.0 + 3 * 1.7f) / 7, org.assertj.core.api.Assertions.within(1e-6));
-        // spread of 5 N·m or more is not quiet: the zero stays
+        // a sample 5 N·m or more from the block's mean is not quiet: the zero stays
         double z = c.zeroNm();
-        c.process(new float[] {0f, 5f, 0f, 0f, 0f, 0f, 0f}, 0, 7, out, true);
+        c.process(new float[] {0f, 6f, 0f, 0f, 0f, 0f, 0f}, 0, 7, out, true); // 6 − 6/7 ≥ 5
         assertThat(c.zeroNm()).isEqualTo(z);
-        c.process(new float[] {0f, 4.9f, 0f, 0f, 0f, 0f, 0f}, 0, 7, out, true);
+        c.process(new float[] {0f, 5.8f, 0f, 0f, 0f, 0f, 0f}, 0, 7, out, true); // 5.8 − 5.8/7 < 5
         assertThat(c.zeroNm()).isNotEqualTo(z);
     }
 

@@ -5,6 +5,7 @@ import hammerstep.joint.JointEvents;
 import hammerstep.joint.JointMonitor;
 import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
+import hammerstep.health.InterferenceWatch;
 import hammerstep.health.ToolHealth;
 import hammerstep.health.ToolHealthEvents;
 import hammerstep.results.JointOutcome;
@@ -76,6 +77,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     private CommandDesk commands;
     private TraceKeeper traces;
     private ToolHealth toolHealth;
+    private InterferenceWatch interference;
     private String toolName = "tool";
     private JointMonitor current;
     private long nowNs;
@@ -200,6 +202,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         work += drainStores();
         sequence.storage(journal.storage());
         sequence.sensorFaults(current.conditioner().faults());
+        if (interference != null) {
+            watchInterference();
+        }
         sequence.onTick(nowNs);
         work += drainStores();
         applyTool();
@@ -262,7 +267,11 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         if (traces != null) {
             traces.onBlock(samples, offset, length, firstSampleNs, inputConditioner());
         }
+        long rejectedBefore = current.conditioner().rejectedImpulses();
         current.onSamples(samples, offset, length, firstSampleNs);
+        if (interference != null) {
+            interference.add(current.conditioner().rejectedImpulses() - rejectedBefore);
+        }
         if (shutoffPending) {
             shutoffPending = false;
             sequence.shutoff(shutoffNs);
@@ -433,6 +442,27 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
             eventsToOffer.add(new Store.Event(ToolHealthEvents.of(c, joint.partSerial(), clock.instantOf(nowNs))));
         }
         sequence.warning(toolHealth.anyWeak());
+    }
+
+    /**
+     * Interference: rejected impulses per hour against the warning level; a change is stored as an
+     * event, ahead of the sequence's next record (an event the journal cannot store puts the station
+     * in FAULT, as any result does).
+     */
+    private void watchInterference() {
+        StationEvent event = interference.poll(nowNs, clock.instantOf(nowNs));
+        if (event != null) {
+            eventsToOffer.add(new Store.Event(event));
+        }
+    }
+
+    /** Warns when rejected impulses pass a level per hour. Call before the agent runs. */
+    public void watchInterference(InterferenceWatch watch) {
+        this.interference = watch;
+    }
+
+    public InterferenceWatch interference() {
+        return interference;
     }
 
     /** Keeps every joint's torque trace and names it in the joint's result. Call before the agent runs. */

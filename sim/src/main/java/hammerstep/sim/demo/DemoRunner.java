@@ -28,6 +28,7 @@ import hammerstep.station.loop.CommandDesk;
 import hammerstep.station.loop.StationListener;
 import hammerstep.station.setup.IdentitySection;
 import hammerstep.station.setup.PartsSection;
+import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
 import hammerstep.station.setup.StationSection;
@@ -119,7 +120,8 @@ public final class DemoRunner {
         DemoView view = options.plain() ? new PlainView(out) : new LiveView(out);
         Pattern first = patterns.values().iterator().next();
         Conditioning conditioning = JointMonitor.replayConditioning(first.passes().get(0).program())
-                .withOverRange(sim.transducer().ratedTorqueNm());
+                .withOverRange(sim.transducer().ratedTorqueNm())
+                .withMains(config.get(MainsSection.INSTANCE).frequencyHz());
         List<Throwable> errors = new ArrayList<>();
         SimulatedStation station = new SimulatedStation(clock, hardware, journal, patterns,
                 new Sequence.Settings(sim.transducerSerial(), sim.calibrationDue(), timing.completeHoldMs()),
