@@ -16,8 +16,10 @@ import hammerstep.trace.TraceException;
 import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
 
 import java.io.BufferedWriter;
 import java.io.IOException;
@@ -46,29 +48,34 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--program", required = true, paramLabel = "FILE", description = "joint program (YAML)")
     Path programFile;
 
-    @Option(names = "--rate", paramLabel = "HZ", description = "sample rate; required for .f32, overrides CSV metadata")
+    @Option(names = "--rate", paramLabel = "HZ", converter = NumberOptions.Lenient.class,
+            description = "sample rate; required for .f32, overrides CSV metadata")
     double rateHz;
 
     @Option(names = "--summary", description = "print a table instead of JSON lines")
     boolean summary;
 
-    @Option(names = "--low-pass", paramLabel = "HZ", description = "2nd-order Butterworth low-pass before detection (default: none)")
+    @Option(names = "--low-pass", paramLabel = "HZ", converter = NumberOptions.Lenient.class, description = "2nd-order Butterworth low-pass before detection (default: none)")
     double lowPassHz;
 
-    @Option(names = "--over-range", paramLabel = "NM", description = "|torque| at or above this is a sensor fault (default: off)")
+    @Option(names = "--over-range", paramLabel = "NM", converter = NumberOptions.Lenient.class, description = "|torque| at or above this is a sensor fault (default: off)")
     double overRangeNm = Double.NaN;
 
-    @Option(names = "--flat-line-ms", paramLabel = "MS", description = "a signal exactly constant this long is a sensor fault (default: off)")
+    @Option(names = "--flat-line-ms", paramLabel = "MS", converter = NumberOptions.Lenient.class, description = "a signal exactly constant this long is a sensor fault (default: off)")
     double flatLineMs;
 
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
+
+    @Spec
+    CommandSpec spec;
 
     @Override
     public Integer call() throws ConfigException, TraceException, IOException {
         if (verbose) {
             Logging.configure(true, Level.WARN);
         }
+        checkNumbers();
         JointProgram program = ProgramFile.load(programFile);
         if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
@@ -111,6 +118,14 @@ public final class ReplayCommand implements Callable<Integer> {
         }
         out.flush();
         return 0;
+    }
+
+    /** Refuses a rate, range, cut-off or time that is no finite number in its range, before any file is read. */
+    private void checkNumbers() {
+        NumberOptions.rate("--rate", NumberOptions.given(spec, "--rate"), rateHz);
+        NumberOptions.positive("--over-range", NumberOptions.given(spec, "--over-range"), overRangeNm, "N·m");
+        NumberOptions.positive("--low-pass", NumberOptions.given(spec, "--low-pass"), lowPassHz, "Hz");
+        NumberOptions.positive("--flat-line-ms", NumberOptions.given(spec, "--flat-line-ms"), flatLineMs, "ms");
     }
 
     /** Replays a random-access trace on every core; the results are those of one monitor. */
