@@ -25,6 +25,7 @@ import java.io.BufferedWriter;
 import java.io.IOException;
 import java.io.OutputStreamWriter;
 import java.io.PrintStream;
+import java.io.PrintWriter;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
@@ -37,16 +38,26 @@ import java.util.concurrent.Callable;
 /** {@code hammerstep replay}: the station's own measurement chain run over a recorded trace. */
 @Command(name = "replay", mixinStandardHelpOptions = true,
         description = {"Runs the controller's signal chain on a recorded trace and judges every rundown.",
-                "Prints one JSON line per rundown (or a table with --summary)."})
+                "Prints one JSON line per rundown (or a table with --summary).",
+                "Several traces, or directories of stored traces (.hst, found recursively), replay in one run, each with"
+                        + " the --program of its own program id; --compare RESULTS sets each joint beside its stored"
+                        + " result and sums up which verdicts would change."})
 public final class ReplayCommand implements Callable<Integer> {
 
     static final int BLOCK = 4096;
 
-    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm), raw float32 N·m (.f32) or a stored joint trace (.hst)")
-    Path trace;
+    @Parameters(arity = "1..*", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm), raw float32 N·m (.f32)"
+            + " or a stored joint trace (.hst); or a directory of stored traces")
+    List<Path> traces;
 
-    @Option(names = "--program", required = true, paramLabel = "FILE", description = "joint program (YAML)")
-    Path programFile;
+    @Option(names = "--program", required = true, paramLabel = "FILE",
+            description = "joint program (YAML); repeat it for traces of several programs")
+    List<Path> programFiles;
+
+    @Option(names = "--compare", paramLabel = "RESULTS",
+            description = "the station's results or a subscriber's log (JSON lines): print each joint's stored and new"
+                    + " verdict and a summary of the changes")
+    Path compare;
 
     @Option(names = "--rate", paramLabel = "HZ", converter = NumberOptions.Lenient.class,
             description = "sample rate; required for .f32, overrides CSV metadata")
@@ -76,6 +87,11 @@ public final class ReplayCommand implements Callable<Integer> {
             Logging.configure(true, Level.WARN);
         }
         checkNumbers();
+        if (ArchiveReplay.wanted(traces, programFiles, compare)) {
+            return archive();
+        }
+        Path trace = traces.get(0);
+        Path programFile = programFiles.get(0);
         JointProgram program = ProgramFile.load(programFile);
         if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
@@ -118,6 +134,17 @@ public final class ReplayCommand implements Callable<Integer> {
         }
         out.flush();
         return 0;
+    }
+
+    /** Replays many traces in this one process; see {@link ArchiveReplay}. */
+    private int archive() throws ConfigException, IOException {
+        ReplayPreload.stop();
+        BufferedWriter out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), 1 << 16);
+        PrintWriter err = spec == null ? new PrintWriter(System.err, true) : spec.commandLine().getErr();
+        Progress progress = new Progress(System.err, System::nanoTime, System.console() != null);
+        ArchiveReplay.Settings s = new ArchiveReplay.Settings(traces, programFiles, rateHz, lowPassHz, overRangeNm,
+                flatLineMs, summary, compare);
+        return new ArchiveReplay(s, out, err, progress).run();
     }
 
     /** Refuses a rate, range, cut-off or time that is no finite number in its range, before any file is read. */
