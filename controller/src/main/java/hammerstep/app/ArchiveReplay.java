@@ -23,12 +23,17 @@ import java.io.UncheckedIOException;
 import java.io.Writer;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 import java.util.stream.Stream;
 
 /**
@@ -38,6 +43,9 @@ import java.util.stream.Stream;
  * given is skipped and counted). Without {@code --compare}, every rundown is printed as a JSON line
  * that starts with the trace's path; with it, every trace's joint is set beside its stored result
  * and a summary says which verdicts would change (see {@link WhatIf}).
+ *
+ * <p>Traces are replayed in chunks on every core (each worker with its own buffers and a fresh
+ * monitor per trace) and taken back in order, so the output and the tally are those of one thread.
  *
  * <p>A trace that cannot be read (cut short, damaged, not a trace) is refused with one line on
  * standard error naming it, never judged; the run goes on and ends with exit 2.
@@ -55,9 +63,6 @@ final class ArchiveReplay {
     private final Progress progress;
     private final Map<String, JointProgram> programs = new LinkedHashMap<>();
     private final Map<String, Integer> otherPrograms = new TreeMap<>();
-    private final List<JointResult> rundowns = new ArrayList<>();
-    private final JointEvents collect = rundowns::add;
-    private final float[] block = new float[ReplayCommand.BLOCK];
     private final WhatIf whatIf = new WhatIf();
     private StoredJoints stored;
     private int refused;
@@ -96,20 +101,35 @@ final class ArchiveReplay {
                     "part", "position", "pass", "program", "stored", "new", "final_nm", "blows", "change"));
         }
         int changed = 0;
-        for (int i = 0; i < traces.size(); i++) {
-            Path trace = traces.get(i);
-            try {
-                if (replay(trace)) {
-                    changed++;
+        int workers = Math.max(1, Math.min(Runtime.getRuntime().availableProcessors(), MAX_WORKERS));
+        ExecutorService pool = Executors.newFixedThreadPool(workers, r -> {
+            Thread t = new Thread(r, "replay-archive");
+            t.setDaemon(true);
+            return t;
+        });
+        try {
+            // chunks of traces on every core, taken back in order: output and tally as one thread would make them
+            ArrayDeque<Future<Done[]>> window = new ArrayDeque<>();
+            int next = 0;
+            int done = 0;
+            while (next < traces.size() || !window.isEmpty()) {
+                while (next < traces.size() && window.size() < AHEAD_PER_WORKER * workers) {
+                    int from = next;
+                    int to = Math.min(traces.size(), from + CHUNK);
+                    window.add(pool.submit(() -> replayChunk(traces, from, to)));
+                    next = to;
                 }
-            } catch (TraceException e) {
-                refused++;
-                err.println(e.getMessage());
-                err.flush();
+                for (Done d : take(window.poll())) {
+                    if (take(d)) {
+                        changed++;
+                    }
+                    progress.update(++done, traces.size(), changed, stored != null);
+                }
             }
-            progress.update(i + 1, traces.size(), changed, stored != null);
+        } finally {
+            pool.shutdownNow();
+            progress.end();
         }
-        progress.end();
         if (stored != null) {
             out.write(summary(traces.size()));
         } else if (settings.summary()) {
@@ -119,49 +139,130 @@ final class ArchiveReplay {
         return refused > 0 ? 2 : 0;
     }
 
-    /** Replays one trace; true when its joint's verdict would change. */
-    private boolean replay(Path trace) throws TraceException, IOException {
-        Map<String, String> metadata = Map.of();
-        double rate;
-        if (StoredTrace.isStored(trace)) {
-            StoredTrace.Header h = StoredTrace.readHeader(trace);
-            metadata = h.metadata();
-            rate = h.rateHz();
-        } else {
-            rate = TraceFiles.rateOf(trace, settings.rateHz());
-        }
-        JointProgram program = programFor(trace, metadata.get("program"));
-        if (program == null) {
-            return false;
-        }
-        if (settings.lowPassHz() >= rate / 2) {
-            throw new UserError(trace + ": --low-pass " + settings.lowPassHz() + " Hz must be below half its sample rate ("
-                    + rate / 2 + " Hz)");
-        }
-        Conditioning conditioning = JointMonitor.replayConditioning(program).withLowPass(settings.lowPassHz())
-                .withOverRange(settings.overRangeNm()).withFlatLine(settings.flatLineMs());
-        rundowns.clear();
-        JointMonitor monitor = new JointMonitor(program, conditioning, rate, ReplayCommand.BLOCK, collect);
-        TraceFiles.read(trace, rate, block, monitor::onSamples);
-        monitor.finish();
-        replayed++;
-        if (stored == null) {
-            if (!settings.summary()) {
-                for (JointResult r : rundowns) {
-                    Map<String, Object> m = new LinkedHashMap<>();
-                    m.put("trace", trace.toString());
-                    m.putAll(JointFields.of(r));
-                    m.put("start_s", JointFields.round(r.startNs() * 1e-9, 10_000));
-                    out.write(JsonLines.of(m));
-                    out.write('\n');
-                }
-            }
-            return false;
-        }
-        return compare(trace, metadata, program);
+    private static final int MAX_WORKERS = 8;
+    private static final int CHUNK = 32;
+    private static final int AHEAD_PER_WORKER = 4;
+
+    /**
+     * What one trace gave, made on a worker: the lines to print, or the joint to compare, or why it
+     * was not replayed. {@code skippedProgram} is set for a trace of a program not given,
+     * {@code refusal} for a trace that could not be read.
+     */
+    private record Done(String text, String skippedProgram, String refusal, String program, String position,
+                        String storedVerdict, List<String> storedReasons, boolean withResult, String newVerdict,
+                        List<String> newReasons, String row) {
     }
 
-    /** The program a trace is replayed with, or null (counted) when its program was not given. */
+    private static Done[] take(Future<Done[]> f) throws IOException {
+        try {
+            return f.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IOException("interrupted");
+        } catch (ExecutionException e) {
+            Throwable cause = e.getCause();
+            if (cause instanceof RuntimeException r) {
+                throw r;
+            }
+            if (cause instanceof Error r) {
+                throw r;
+            }
+            throw new IOException(cause.getMessage(), cause);
+        }
+    }
+
+    /** Prints and tallies one trace's outcome, on the calling thread, in trace order; true when its verdict changes. */
+    private boolean take(Done d) throws IOException {
+        if (d.refusal() != null) {
+            refused++;
+            err.println(d.refusal());
+            err.flush();
+            return false;
+        }
+        if (d.skippedProgram() != null) {
+            otherPrograms.merge(d.skippedProgram(), 1, Integer::sum);
+            return false;
+        }
+        replayed++;
+        if (stored == null) {
+            out.write(d.text());
+            return false;
+        }
+        if (!d.withResult()) {
+            withoutResult++;
+        }
+        String change = whatIf.add(d.program(), d.position(), d.storedVerdict(), d.storedReasons(), d.newVerdict(),
+                d.newReasons());
+        if (!settings.summary()) {
+            out.write(d.row());
+        }
+        return !change.equals("same");
+    }
+
+    /** Replays traces {@code [from, to)} on a worker, with buffers of its own. */
+    private Done[] replayChunk(List<Path> traces, int from, int to) throws IOException {
+        Lane lane = new Lane();
+        Done[] done = new Done[to - from];
+        for (int i = from; i < to; i++) {
+            try {
+                done[i - from] = lane.replay(traces.get(i));
+            } catch (TraceException e) {
+                done[i - from] = new Done(null, null, e.getMessage(), null, null, null, null, false, null, null, null);
+            }
+        }
+        return done;
+    }
+
+    /** One worker's buffers: a block, and the rundowns of the trace under way. */
+    private final class Lane {
+        private final List<JointResult> rundowns = new ArrayList<>();
+        private final JointEvents collect = rundowns::add;
+        private final float[] block = new float[ReplayCommand.BLOCK];
+        private final StringBuilder text = new StringBuilder(1024);
+
+        Done replay(Path trace) throws TraceException {
+            Map<String, String> metadata = Map.of();
+            double rate;
+            if (StoredTrace.isStored(trace)) {
+                StoredTrace.Header h = StoredTrace.readHeader(trace);
+                metadata = h.metadata();
+                rate = h.rateHz();
+            } else {
+                rate = TraceFiles.rateOf(trace, settings.rateHz());
+            }
+            String id = metadata.get("program");
+            JointProgram program = programFor(trace, id);
+            if (program == null) {
+                return new Done(null, id, null, null, null, null, null, false, null, null, null);
+            }
+            if (settings.lowPassHz() >= rate / 2) {
+                throw new UserError(trace + ": --low-pass " + settings.lowPassHz() + " Hz must be below half its"
+                        + " sample rate (" + rate / 2 + " Hz)");
+            }
+            Conditioning conditioning = JointMonitor.replayConditioning(program).withLowPass(settings.lowPassHz())
+                    .withOverRange(settings.overRangeNm()).withFlatLine(settings.flatLineMs());
+            rundowns.clear();
+            JointMonitor monitor = new JointMonitor(program, conditioning, rate, ReplayCommand.BLOCK, collect);
+            TraceFiles.read(trace, rate, block, monitor::onSamples);
+            monitor.finish();
+            if (stored == null) {
+                text.setLength(0);
+                if (!settings.summary()) {
+                    for (JointResult r : rundowns) {
+                        Map<String, Object> m = new LinkedHashMap<>();
+                        m.put("trace", trace.toString());
+                        m.putAll(JointFields.of(r));
+                        m.put("start_s", JointFields.round(r.startNs() * 1e-9, 10_000));
+                        text.append(JsonLines.of(m)).append('\n');
+                    }
+                }
+                return new Done(text.toString(), null, null, null, null, null, null, false, null, null, null);
+            }
+            return compare(trace, metadata, program, theJoint(rundowns));
+        }
+    }
+
+    /** The program a trace is replayed with, or null when its program was not given. */
     private JointProgram programFor(Path trace, String id) {
         if (id == null || id.isEmpty()) {
             if (programs.size() == 1) {
@@ -169,14 +270,10 @@ final class ArchiveReplay {
             }
             throw new UserError(trace + ": the trace names no program; give it a single --program");
         }
-        JointProgram p = programs.get(id);
-        if (p == null) {
-            otherPrograms.merge(id, 1, Integer::sum);
-        }
-        return p;
+        return programs.get(id);
     }
 
-    private boolean compare(Path trace, Map<String, String> metadata, JointProgram program) throws IOException {
+    private Done compare(Path trace, Map<String, String> metadata, JointProgram program, JointResult joint) {
         String name = trace.getFileName().toString();
         StoredJoints.Joint s = stored.of(name, metadata);
         String storedVerdict;
@@ -192,14 +289,12 @@ final class ArchiveReplay {
             pass = s.pass();
         } else {
             // no result for it in the file: the verdict the trace's header kept, without reasons
-            withoutResult++;
             storedVerdict = metadata.getOrDefault("verdict", "?");
             storedReasons = null;
             part = metadata.getOrDefault("part_serial", "");
             position = metadata.getOrDefault("position", "");
             pass = metadata.getOrDefault("pass", "");
         }
-        JointResult joint = theJoint();
         String newVerdict = joint == null ? WhatIf.NO_RUNDOWN : joint.verdict().name();
         List<String> newReasons = new ArrayList<>();
         if (joint != null) {
@@ -207,21 +302,23 @@ final class ArchiveReplay {
                 newReasons.add(r.name());
             }
         }
-        String change = whatIf.add(program.id(), position, storedVerdict, storedReasons, newVerdict, newReasons);
+        String row = null;
         if (!settings.summary()) {
+            String change = WhatIf.change(storedVerdict, newVerdict);
             String was = s == null ? storedVerdict + " (trace header)" : verdict(storedVerdict, storedReasons);
-            out.write(String.format(Locale.ROOT, "%-44s %-14s %-8s %-8s %-16s %-28s %-28s %9s %5s  %s%n", name, part,
+            row = String.format(Locale.ROOT, "%-44s %-14s %-8s %-8s %-16s %-28s %-28s %9s %5s  %s%n", name, part,
                     position, pass, program.id(), was, verdict(newVerdict, newReasons),
                     joint == null ? "-" : String.format(Locale.ROOT, "%.2f", joint.finalTorqueNm()),
                     joint == null ? "-" : Integer.toString(joint.blows()),
                     change.equals("same") ? (storedReasons != null && !sameSet(storedReasons, newReasons)
-                            ? "reasons" : "-") : change));
+                            ? "reasons" : "-") : change);
         }
-        return !change.equals("same");
+        return new Done(null, null, null, program.id(), position, storedVerdict, storedReasons, s != null, newVerdict,
+                newReasons, row);
     }
 
     /** A stored trace holds one joint: the rundown with the most blows (the first of equals). */
-    private JointResult theJoint() {
+    private static JointResult theJoint(List<JointResult> rundowns) {
         JointResult best = null;
         for (JointResult r : rundowns) {
             if (best == null || r.blows() > best.blows()) {
