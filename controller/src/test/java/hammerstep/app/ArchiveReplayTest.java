@@ -156,6 +156,27 @@ class ArchiveReplayTest {
     }
 
     @Test
+    void manyTracesOnSeveralWorkersComeOutInNameOrderAsOneThreadWouldPrintThem() throws Exception {
+        TraceStore store = new TraceStore(dir.resolve("many"), 1000, 1 << 30, StoredTrace.Encoding.INT16);
+        List<Path> written = new ArrayList<>();
+        for (int i = 0; i < 150; i++) {
+            float[] x = SyntheticRundown.samples(4 + i % 5, 100, 180 + i % 40, 55);
+            Map<String, String> meta = Map.of("program", "hub-final", "part_serial", "P" + i, "position", "1",
+                    "pass", "final", "attempt", "1");
+            written.add(store.save("P" + i, meta, x, x.length, SyntheticRundown.RATE_HZ, 0));
+        }
+        Captured c = Captured.run("replay", dir.resolve("many").toString(), "--program", STORED_PROGRAM);
+
+        assertThat(c.exit()).as(c.err()).isZero();
+        List<String> lines = c.out().lines().toList();
+        assertThat(lines).hasSize(150);
+        for (int i = 0; i < 150; i++) {
+            assertThat(lines.get(i)).startsWith("{\"trace\":\"" + written.get(i) + "\"")
+                    .contains("\"blows\":" + (4 + i % 5) + ",");
+        }
+    }
+
+    @Test
     void twoProgramsReplayEachTraceWithItsOwn() throws Exception {
         Path snug = dir.resolve("snug.yaml");
         Files.writeString(snug, """
