@@ -20,7 +20,7 @@ final class MeasureOptions {
     @Mixin
     HardwareOptions hardware;
 
-    @Option(names = "--seconds", defaultValue = "1.0", paramLabel = "S", description = "averaging time per reading (default 1.0)")
+    @Option(names = "--seconds", defaultValue = "1.0", paramLabel = "S", converter = NumberOptions.Lenient.class, description = "averaging time per reading (default 1.0)")
     double seconds;
 
     @Option(names = "--verbose", description = "log debug detail")

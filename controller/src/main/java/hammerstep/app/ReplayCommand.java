@@ -18,13 +18,16 @@ import hammerstep.trace.TraceException;
 import hammerstep.trace.TraceFiles;
 import hammerstep.trace.TraceReader;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
 
 import java.io.BufferedWriter;
 import java.io.IOException;
 import java.io.OutputStreamWriter;
 import java.io.PrintStream;
+import java.io.PrintWriter;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
@@ -37,30 +40,41 @@ import java.util.concurrent.Callable;
 /** {@code hammerstep replay}: the station's own measurement chain run over a recorded trace. */
 @Command(name = "replay", mixinStandardHelpOptions = true,
         description = {"Runs the controller's signal chain on a recorded trace and judges every rundown.",
-                "Prints one JSON line per rundown (or a table with --summary)."})
+                "Prints one JSON line per rundown (or a table with --summary).",
+                "Several traces, or directories of stored traces (.hst, found recursively), replay in one run, each with"
+                        + " the --program of its own program id; --compare RESULTS sets each joint beside its stored"
+                        + " result and sums up which verdicts would change."})
 public final class ReplayCommand implements Callable<Integer> {
 
     static final int BLOCK = 4096;
 
-    @Parameters(index = "0", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm), raw float32 N·m (.f32) or a stored joint trace (.hst)")
-    Path trace;
+    @Parameters(arity = "1..*", paramLabel = "TRACE", description = "trace: CSV (time_s,torque_nm), raw float32 N·m (.f32)"
+            + " or a stored joint trace (.hst); or a directory of stored traces")
+    List<Path> traces;
 
-    @Option(names = "--program", required = true, paramLabel = "FILE", description = "joint program (YAML)")
-    Path programFile;
+    @Option(names = "--program", required = true, paramLabel = "FILE",
+            description = "joint program (YAML); repeat it for traces of several programs")
+    List<Path> programFiles;
 
-    @Option(names = "--rate", paramLabel = "HZ", description = "sample rate; required for .f32, overrides CSV metadata")
+    @Option(names = "--compare", paramLabel = "RESULTS",
+            description = "the station's results or a subscriber's log (JSON lines): print each joint's stored and new"
+                    + " verdict and a summary of the changes")
+    Path compare;
+
+    @Option(names = "--rate", paramLabel = "HZ", converter = NumberOptions.Lenient.class,
+            description = "sample rate; required for .f32, overrides CSV metadata")
     double rateHz;
 
     @Option(names = "--summary", description = "print a table instead of JSON lines")
     boolean summary;
 
-    @Option(names = "--low-pass", paramLabel = "HZ", description = "2nd-order Butterworth low-pass before detection (default: none)")
+    @Option(names = "--low-pass", paramLabel = "HZ", converter = NumberOptions.Lenient.class, description = "2nd-order Butterworth low-pass before detection (default: none)")
     double lowPassHz;
 
-    @Option(names = "--over-range", paramLabel = "NM", description = "the transducer's range: |torque| at or above it, or a pulse flattened at a rail, is a sensor fault; zero limit 2 %% of it (default: the trace's range_nm, else off and ±10 N·m)")
+    @Option(names = "--over-range", paramLabel = "NM", converter = NumberOptions.Lenient.class, description = "the transducer's range: |torque| at or above it, or a pulse flattened at a rail, is a sensor fault; zero limit 2 %% of it (default: the trace's range_nm, else off and ±10 N·m)")
     double overRangeNm = Double.NaN;
 
-    @Option(names = "--flat-line-ms", paramLabel = "MS", description = "a signal exactly constant this long is a sensor fault (default: off)")
+    @Option(names = "--flat-line-ms", paramLabel = "MS", converter = NumberOptions.Lenient.class, description = "a signal exactly constant this long is a sensor fault (default: off)")
     double flatLineMs;
 
     @Option(names = "--mains", paramLabel = "HZ", description = "the mains frequency, 50 or 60: its hum and harmonics are learned in the idle and removed (default: none; hum of 6 N·m or more is then a sensor fault)")
@@ -69,14 +83,20 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
+    @Spec
+    CommandSpec spec;
+
     @Override
     public Integer call() throws ConfigException, TraceException, IOException {
         if (verbose) {
             Logging.configure(true, Level.WARN);
         }
-        if (mainsHz != 0 && mainsHz != 50 && mainsHz != 60) {
-            throw new UserError("--mains " + mainsHz + ": the mains frequency is 50 or 60 Hz");
+        checkNumbers();
+        if (ArchiveReplay.wanted(traces, programFiles, compare)) {
+            return archive();
         }
+        Path trace = traces.get(0);
+        Path programFile = programFiles.get(0);
         JointProgram program = ProgramFile.load(programFile);
         if (TraceReader.isF32(trace) && !(rateHz > 0)) {
             throw new UserError(trace + ": a .f32 trace needs --rate HZ");
@@ -130,6 +150,12 @@ public final class ReplayCommand implements Callable<Integer> {
      * conditioning, or the program's replay conditioning): an option not given keeps base's value.
      */
     Conditioning withOptions(Conditioning base) {
+        return withOptions(base, lowPassHz, overRangeNm, flatLineMs, mainsHz);
+    }
+
+    /** As {@link #withOptions(Conditioning)}, for the given option values (0 or NaN: not given). */
+    static Conditioning withOptions(Conditioning base, double lowPassHz, double overRangeNm, double flatLineMs,
+                                    double mainsHz) {
         Conditioning c = base;
         if (lowPassHz > 0) {
             c = c.withLowPass(lowPassHz);
@@ -144,6 +170,28 @@ public final class ReplayCommand implements Callable<Integer> {
             c = c.withFlatLine(flatLineMs);
         }
         return c;
+    }
+
+    /** Replays many traces in this one process; see {@link ArchiveReplay}. */
+    private int archive() throws ConfigException, IOException {
+        ReplayPreload.stop();
+        BufferedWriter out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), 1 << 16);
+        PrintWriter err = spec == null ? new PrintWriter(System.err, true) : spec.commandLine().getErr();
+        Progress progress = new Progress(System.err, System::nanoTime, System.console() != null);
+        ArchiveReplay.Settings s = new ArchiveReplay.Settings(traces, programFiles, rateHz, lowPassHz, overRangeNm,
+                flatLineMs, mainsHz, summary, compare);
+        return new ArchiveReplay(s, out, err, progress).run();
+    }
+
+    /** Refuses a rate, range, cut-off or time that is no finite number in its range, before any file is read. */
+    private void checkNumbers() {
+        NumberOptions.rate("--rate", NumberOptions.given(spec, "--rate"), rateHz);
+        NumberOptions.positive("--over-range", NumberOptions.given(spec, "--over-range"), overRangeNm, "N·m");
+        NumberOptions.positive("--low-pass", NumberOptions.given(spec, "--low-pass"), lowPassHz, "Hz");
+        NumberOptions.positive("--flat-line-ms", NumberOptions.given(spec, "--flat-line-ms"), flatLineMs, "ms");
+        if (mainsHz != 0 && mainsHz != 50 && mainsHz != 60) {
+            throw new UserError("--mains " + mainsHz + ": the mains frequency is 50 or 60 Hz");
+        }
     }
 
     /** Replays a random-access trace on every core; the results are those of one monitor. */

@@ -69,6 +69,15 @@ public final class YamlDocument {
             JsonLocation at = e.getLocation();
             int line = at == null ? 0 : Math.max(at.getLineNr(), 0);
             int column = at == null ? 0 : Math.max(at.getColumnNr(), 0);
+            String message = e.getOriginalMessage();
+            if (message != null && message.contains("(TAB)")) {
+                // the parser marks the end of the line before the tab: name the tab's own line
+                int[] tab = indentTab(bytes, Math.max(line, 1));
+                if (tab != null) {
+                    throw new ConfigException(new Problem(file, tab[0], tab[1],
+                            "not valid YAML: a tab in the indentation (indent with spaces)"));
+                }
+            }
             throw new ConfigException(new Problem(file, line, column, "not valid YAML: " + withoutClassName(oneLine(e.getOriginalMessage()))));
         } catch (IOException e) {
             throw new ConfigException(new Problem(file, 0, 0, "cannot read: " + e.getMessage()));
@@ -139,6 +148,34 @@ public final class YamlDocument {
             sb.append(line.strip());
         }
         return sb.length() == 0 ? message.strip() : sb.toString();
+    }
+
+    /**
+     * Line and column (1-based) of the first tab in the indentation of a line at or after
+     * {@code fromLine}, or null when there is none.
+     */
+    static int[] indentTab(byte[] bytes, int fromLine) {
+        int line = 1;
+        int column = 1;
+        boolean indent = true;
+        for (byte c : bytes) {
+            if (c == '\n') {
+                line++;
+                column = 1;
+                indent = true;
+                continue;
+            }
+            if (indent && line >= fromLine) {
+                if (c == '\t') {
+                    return new int[] {line, column};
+                }
+                if (c != ' ' && c != '\r') {
+                    indent = false;
+                }
+            }
+            column++;
+        }
+        return null;
     }
 
     private static String join(String path, String key) {

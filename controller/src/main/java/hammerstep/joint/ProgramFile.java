@@ -70,10 +70,20 @@ public final class ProgramFile {
         if (blowsMin > blowsMax) {
             b.problem("min", "'" + b.path("min") + "' (" + blowsMin + ") is above '" + b.path("max") + "' (" + blowsMax + ")");
         }
-        if (releaseBelow > countAbove) {
+        if (b.has("release_below") && releaseBelow >= countAbove) {
             b.problem("release_below", "'" + b.path("release_below") + "' (" + releaseBelow
-                    + ") must not be above count_above (" + countAbove + ")");
+                    + ") must be below count_above (" + countAbove + "): a blow ends when torque falls below it");
         }
+        if (countAbove > max) {
+            b.problem("count_above", "'" + b.path("count_above") + "' (" + countAbove + ") is above torque.max ("
+                    + max + "): every counted blow would be beyond the window, no joint could be GO");
+        }
+        if (blowsMin == 0 && b.has("max") && "0".equals(b.child("max").text())) {
+            b.problem("max", "'" + b.path("max") + "' is 0: a joint without blows has no torque, no joint could be GO");
+        }
+        // the fastest a tool can strike blows.min blows: no rundown shorter than that can be GO
+        double intervalMs = b.has("dead_time_ms") ? deadTime : 60_000.0 / maxRate;
+        double leastMs = Math.max(0, blowsMin - 1) * intervalMs;
         b.finish();
 
         MapReader r = root.map("rundown");
@@ -86,14 +96,28 @@ public final class ProgramFile {
         }
         if (endAfter >= maxMs) {
             r.problem("end_after_ms", "'" + r.path("end_after_ms") + "' (" + endAfter + ") must be below max_ms (" + maxMs + ")");
+        } else if (maxMs < leastMs) {
+            r.problem("max_ms", "'" + r.path("max_ms") + "' (" + maxMs + ") is shorter than blows.min (" + blowsMin
+                    + ") blows take at the tool's fastest rate (" + Math.round(leastMs) + " ms): every rundown with"
+                    + " enough blows would be cut as TIME_LONG");
         }
         r.finish();
 
         double shutoff = root.number("shutoff_at", Double.NaN, 0, MAX_NM);
         if (!Double.isNaN(shutoff) && shutoff < countAbove) {
             root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is below blows.count_above (" + countAbove + ")");
+        } else if (shutoff < min) {
+            root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is below torque.min (" + min
+                    + "): the tool would stop before a joint reaches its window");
+        } else if (shutoff > max) {
+            root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is above torque.max (" + max
+                    + "): the tool would only stop after the joint is over torque");
         }
         int rehit = root.integer("rehit_blows", 0, 0, 1000);
+        if (rehit > 0 && blowsMax > 0 && rehit >= blowsMax) {
+            root.problem("rehit_blows", "'rehit_blows' (" + rehit + ") is not below blows.max (" + blowsMax
+                    + "): every joint within the blow window would be REHIT, no joint could be GO");
+        }
         boolean leftHand = "left".equals(root.choice("thread", "right", java.util.List.of("right", "left")));
 
         return new JointProgram(id, revision, new JointProgram.Torque(min, target, max), finalTorque,
