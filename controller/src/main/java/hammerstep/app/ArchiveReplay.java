@@ -263,8 +263,12 @@ final class ArchiveReplay {
             if (isStored) {
                 // as the station judged it: its conditioning and its input stage's state at the rundown's start
                 warnings.clear();
-                StationReplay.replay(trace, program, this::withOptions, ReplayCommand.BLOCK, collect, null,
-                        warnings::add);
+                if (stored != null) {
+                    StationReplay.whatIf(trace, program, this::withOptions, ReplayCommand.BLOCK, collect, warnings::add);
+                } else {
+                    StationReplay.replay(trace, program, this::withOptions, ReplayCommand.BLOCK, collect, null,
+                            warnings::add);
+                }
                 if (!warnings.isEmpty()) {
                     warned.incrementAndGet();
                     firstWarning.compareAndSet(null, warnings.get(0));

@@ -77,10 +77,17 @@ public final class StationReplay {
      * station, and for a trace written by a tool rather than kept by a station.
      */
     public static List<String> warnings(Path path, StoredTrace.Header h, JointProgram program, Chain chain) {
+        return warnings(path, h, program, chain, true);
+    }
+
+    private static List<String> warnings(Path path, StoredTrace.Header h, JointProgram program, Chain chain,
+                                         boolean otherRevision) {
         List<String> lines = new ArrayList<>(2);
         String id = h.programId();
         String revision = h.programRevision();
-        if (id != null && !id.equals(program.id())) {
+        if (!otherRevision) {
+            // a what-if: the program differs from the station's on purpose
+        } else if (id != null && !id.equals(program.id())) {
             lines.add(path + ": judged at the station with program " + id + (revision == null ? "" : " revision "
                     + revision) + ", replayed with " + program.id() + " revision " + program.revision());
         } else if (revision != null && !revision.isEmpty() && !revision.equals(program.revision())) {
@@ -111,11 +118,27 @@ public final class StationReplay {
     public static StoredTrace.Loaded replay(Path path, JointProgram program, UnaryOperator<Conditioning> options,
                                             int block, JointEvents events, SampleSink everySample,
                                             Consumer<String> warn) throws TraceException {
+        return replay(path, program, options, block, events, everySample, warn, true);
+    }
+
+    /**
+     * As {@link #replay}, for a what-if: {@code program} is the engineer's changed copy, so a program
+     * revision other than the station's is the point and not warned of; the other warnings stay.
+     */
+    public static StoredTrace.Loaded whatIf(Path path, JointProgram program, UnaryOperator<Conditioning> options,
+                                            int block, JointEvents events, Consumer<String> warn)
+            throws TraceException {
+        return replay(path, program, options, block, events, null, warn, false);
+    }
+
+    private static StoredTrace.Loaded replay(Path path, JointProgram program, UnaryOperator<Conditioning> options,
+                                             int block, JointEvents events, SampleSink everySample,
+                                             Consumer<String> warn, boolean warnOtherRevision) throws TraceException {
         StoredTrace.Loaded t = StoredTrace.load(path);
         StoredTrace.Header h = t.header();
         Conditioning fallback = JointMonitor.replayConditioning(program);
         Chain chain = chainOf(path, h, fallback);
-        warnings(path, h, program, chain).forEach(warn);
+        warnings(path, h, program, chain, warnOtherRevision).forEach(warn);
         if (everySample != null) {
             feed(t, 0, block, everySample);
         }
