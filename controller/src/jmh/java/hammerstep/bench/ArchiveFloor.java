@@ -1,6 +1,5 @@
 package hammerstep.bench;
 
-import hammerstep.trace.SampleSink;
 import hammerstep.trace.StoredTrace;
 import hammerstep.trace.TraceException;
 
@@ -38,7 +37,7 @@ public final class ArchiveFloor {
         try (Stream<Path> s = Files.walk(Path.of(args[0]))) {
             traces = s.filter(f -> StoredTrace.isStored(f) && Files.isRegularFile(f)).sorted().toList();
         }
-        Loop loop = new Loop();
+        FloorLoop loop = new FloorLoop();
         float[] block = new float[BLOCK];
         for (Path p : traces) {
             loop.inPulse = false;
@@ -46,34 +45,5 @@ public final class ArchiveFloor {
         }
         System.out.printf("%d traces, %d pulses, %d samples, %.1f ms after main%n", traces.size(), loop.pulses,
                 loop.samples, (System.nanoTime() - t0) / 1e6);
-    }
-
-    private static final class Loop implements SampleSink {
-        long samples;
-        long pulses;
-        boolean inPulse;
-        float peak;
-
-        @Override
-        public void onSamples(float[] x, int offset, int length, long firstSampleNs) {
-            for (int i = offset; i < offset + length; i++) {
-                float v = x[i];
-                if (!inPulse) {
-                    if (v >= 100f) {
-                        inPulse = true;
-                        pulses++;
-                        peak = v;
-                    }
-                } else {
-                    if (v > peak) {
-                        peak = v;
-                    }
-                    if (v < 50f) {
-                        inPulse = false;
-                    }
-                }
-            }
-            samples += length;
-        }
     }
 }

@@ -39,7 +39,7 @@ public final class ReplayFloor {
             System.exit(2);
         }
         long t0 = System.nanoTime();
-        Loop loop = new Loop();
+        FloorLoop loop = new FloorLoop();
         try (FileChannel ch = FileChannel.open(Path.of(args[0]), StandardOpenOption.READ)) {
             if (args[1].equals("read")) {
                 read(ch, loop);
@@ -51,7 +51,7 @@ public final class ReplayFloor {
                 (System.nanoTime() - t0) / 1e6);
     }
 
-    private static void read(FileChannel ch, Loop loop) throws IOException {
+    private static void read(FileChannel ch, FloorLoop loop) throws IOException {
         ByteBuffer bytes = ByteBuffer.allocateDirect(1 << 20).order(ByteOrder.LITTLE_ENDIAN);
         FloatBuffer floats = bytes.asFloatBuffer();
         float[] block = new float[BLOCK];
@@ -67,46 +67,18 @@ public final class ReplayFloor {
         }
     }
 
-    private static void mapped(FileChannel ch, Loop loop) throws IOException {
+    private static void mapped(FileChannel ch, FloorLoop loop) throws IOException {
         FloatBuffer floats = ch.map(FileChannel.MapMode.READ_ONLY, 0, ch.size())
                 .order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer();
         blocks(floats, floats.limit(), new float[BLOCK], loop);
     }
 
     /** Runs {@code loop} over {@code floats[0, samples)}, copied out a block at a time. */
-    private static void blocks(FloatBuffer floats, int samples, float[] block, Loop loop) {
+    private static void blocks(FloatBuffer floats, int samples, float[] block, FloorLoop loop) {
         for (int s = 0; s < samples; s += BLOCK) {
             int k = Math.min(BLOCK, samples - s);
             floats.get(s, block, 0, k);
-            loop.run(block, k);
-        }
-    }
-
-    private static final class Loop {
-        long samples;
-        int pulses;
-        boolean inPulse;
-        float peak;
-
-        void run(float[] x, int length) {
-            for (int i = 0; i < length; i++) {
-                float v = x[i];
-                if (!inPulse) {
-                    if (v >= 100f) {
-                        inPulse = true;
-                        pulses++;
-                        peak = v;
-                    }
-                } else {
-                    if (v > peak) {
-                        peak = v;
-                    }
-                    if (v < 50f) {
-                        inPulse = false;
-                    }
-                }
-            }
-            samples += length;
+            loop.onSamples(block, 0, k, 0);
         }
     }
 }

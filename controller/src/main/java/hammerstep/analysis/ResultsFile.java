@@ -1,22 +1,14 @@
 package hammerstep.analysis;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
 
-import java.io.BufferedReader;
-import java.io.IOException;
-import java.nio.charset.MalformedInputException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 
 /**
- * Reads joint results from a JSONL file: one JSON object per line, as the quality system
- * receives the joint messages ({@code schema} {@value #JOINT_SCHEMA}). Lines of other schemas
+ * Reads joint results from a JSONL file: one JSON object per line (or a topic and the object, as
+ * {@code mosquitto_sub -v} prints them), as the quality system receives the joint messages ({@code schema} {@value #JOINT_SCHEMA}). Lines of other schemas
  * (part, event, status messages) are skipped and counted; a line without {@code schema} that
  * carries {@code final_torque_nm} (the output of {@code hammerstep replay}) is read as a joint.
  * A loosening ({@code "direction": "loosen"}) is no tightening of the joint: skipped and counted too.
@@ -26,8 +18,6 @@ public final class ResultsFile {
 
     public static final String JOINT_SCHEMA = "hammerstep.joint.v1";
 
-    private static final ObjectMapper JSON = new ObjectMapper();
-
     private ResultsFile() {
     }
 
@@ -36,42 +26,18 @@ public final class ResultsFile {
 
     public static Contents read(Path file) throws InputException {
         List<JointRecord> joints = new ArrayList<>();
-        int skipped = 0;
-        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
-            String text;
-            int line = 0;
-            while ((text = in.readLine()) != null) {
-                line++;
-                if (text.isBlank()) {
-                    continue;
-                }
-                JsonNode node;
-                try {
-                    node = JSON.readTree(text);
-                } catch (JsonProcessingException e) {
-                    throw new InputException(file + ":" + line + ": not a JSON object: "
-                            + e.getOriginalMessage().lines().findFirst().orElse(""));
-                }
-                if (!node.isObject()) {
-                    throw new InputException(file + ":" + line + ": expected a JSON object, got " + node.getNodeType());
-                }
-                JsonNode schema = node.get("schema");
-                boolean joint = schema == null ? node.has("final_torque_nm") : JOINT_SCHEMA.equals(schema.asText());
-                JsonNode direction = node.get("direction");
-                if (!joint || direction != null && "loosen".equals(direction.asText())) {
-                    skipped++;
-                    continue;
-                }
-                joints.add(joint(file, line, node));
+        int[] skipped = {0};
+        MessageLines.read(file, (line, node) -> {
+            JsonNode schema = node.get("schema");
+            boolean joint = schema == null ? node.has("final_torque_nm") : JOINT_SCHEMA.equals(schema.asText());
+            JsonNode direction = node.get("direction");
+            if (!joint || direction != null && "loosen".equals(direction.asText())) {
+                skipped[0]++;
+                return;
             }
-        } catch (NoSuchFileException e) {
-            throw new InputException(file + ": no such file");
-        } catch (MalformedInputException e) {
-            throw new InputException(file + ": not a text file (invalid UTF-8)");
-        } catch (IOException e) {
-            throw new InputException(file + ": cannot read: " + e.getMessage());
-        }
-        return new Contents(file, joints, skipped);
+            joints.add(joint(file, line, node));
+        });
+        return new Contents(file, joints, skipped[0]);
     }
 
     private static JointRecord joint(Path file, int line, JsonNode n) throws InputException {
@@ -105,8 +71,7 @@ public final class ResultsFile {
     }
 
     private static String text(JsonNode n, String key) {
-        JsonNode v = n.get(key);
-        return v == null || v.isNull() ? "" : v.asText();
+        return MessageLines.text(n, key);
     }
 
     private static double number(JsonNode n, String key, String where) throws InputException {

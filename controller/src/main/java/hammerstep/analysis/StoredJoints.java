@@ -1,15 +1,7 @@
 package hammerstep.analysis;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
 
-import java.io.BufferedReader;
-import java.io.IOException;
-import java.nio.charset.MalformedInputException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.HashMap;
@@ -35,8 +27,6 @@ import java.util.Set;
  * carries in its header, when exactly one joint has them.
  */
 public final class StoredJoints {
-
-    private static final ObjectMapper JSON = new ObjectMapper();
 
     /** One stored joint result: what the what-if needs of it. */
     public record Joint(int line, String id, String partSerial, String position, String pass, int attempt,
@@ -71,64 +61,25 @@ public final class StoredJoints {
     public static StoredJoints read(Path file) throws InputException {
         List<Joint> joints = new ArrayList<>();
         Set<String> ids = new HashSet<>();
-        int duplicates = 0;
-        int other = 0;
-        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
-            String text;
-            int line = 0;
-            while ((text = in.readLine()) != null) {
-                line++;
-                String payload = payload(text);
-                if (payload.isEmpty()) {
-                    continue;
-                }
-                JsonNode node;
-                try {
-                    node = JSON.readTree(payload);
-                } catch (JsonProcessingException e) {
-                    throw new InputException(file + ":" + line + ": not a JSON message: "
-                            + e.getOriginalMessage().lines().findFirst().orElse(""));
-                }
-                if (node == null || !node.isObject()) {
-                    throw new InputException(file + ":" + line + ": expected a JSON object");
-                }
-                JsonNode schema = node.get("schema");
-                if (schema == null || !ResultsFile.JOINT_SCHEMA.equals(schema.asText())) {
-                    other++;
-                    continue;
-                }
-                String id = text(node, "id");
-                if (id.isEmpty()) {
-                    throw new InputException(file + ":" + line + ": joint message without 'id'");
-                }
-                if (!ids.add(id)) {
-                    duplicates++;
-                    continue;
-                }
-                joints.add(joint(line, id, node));
+        int[] duplicates = {0};
+        int[] other = {0};
+        MessageLines.read(file, (line, node) -> {
+            JsonNode schema = node.get("schema");
+            if (schema == null || !ResultsFile.JOINT_SCHEMA.equals(schema.asText())) {
+                other[0]++;
+                return;
             }
-        } catch (NoSuchFileException e) {
-            throw new InputException(file + ": no such file");
-        } catch (MalformedInputException e) {
-            throw new InputException(file + ": not a text file (invalid UTF-8)");
-        } catch (IOException e) {
-            throw new InputException(file + ": cannot read: " + e.getMessage());
-        }
-        return new StoredJoints(file, joints, duplicates, other);
-    }
-
-    /** The JSON object of a line: the line itself, or what follows the topic; "" for an empty payload. */
-    static String payload(String line) {
-        String s = line.strip();
-        if (s.isEmpty() || s.charAt(0) == '{') {
-            return s;
-        }
-        int space = s.indexOf(' ');
-        if (space < 0) {
-            return ""; // a topic with an empty payload
-        }
-        String rest = s.substring(space + 1).strip();
-        return rest.equals("(null)") ? "" : rest;
+            String id = text(node, "id");
+            if (id.isEmpty()) {
+                throw new InputException(file + ":" + line + ": joint message without 'id'");
+            }
+            if (!ids.add(id)) {
+                duplicates[0]++;
+                return;
+            }
+            joints.add(joint(line, id, node));
+        });
+        return new StoredJoints(file, joints, duplicates[0], other[0]);
     }
 
     private static Joint joint(int line, String id, JsonNode n) {
@@ -150,8 +101,7 @@ public final class StoredJoints {
     }
 
     private static String text(JsonNode n, String key) {
-        JsonNode v = n.get(key);
-        return v == null || v.isNull() ? "" : v.asText();
+        return MessageLines.text(n, key);
     }
 
     private static String key(String partSerial, String position, String pass, String attempt) {

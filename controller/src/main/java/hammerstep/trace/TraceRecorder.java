@@ -68,24 +68,7 @@ public final class TraceRecorder implements SampleSink {
      * ring still holds) into {@code dst}, at most {@code dst.length}. Returns the span copied.
      */
     public Span copy(long fromNs, long toNs, float[] dst) {
-        long oldest = Math.max(0, written - ring.length);
-        long a = Math.max(oldest, indexAt(fromNs));
-        long b = Math.min(written - 1, (long) Math.floor((toNs - firstNs) / periodNs + 1e-6));
-        if (!started || b < a) {
-            return new Span(timeOf(Math.max(a, 0)), 0);
-        }
-        if (b - a + 1 > dst.length) {
-            a = b - dst.length + 1;
-        }
-        int count = (int) (b - a + 1);
-        int n = ring.length;
-        int at = (int) (a % n);
-        int first = Math.min(count, n - at);
-        System.arraycopy(ring, at, dst, 0, first);
-        if (first < count) {
-            System.arraycopy(ring, 0, dst, first, count - first);
-        }
-        return new Span(timeOf(a), count);
+        return copyIndices(indexAt(fromNs), (long) Math.floor((toNs - firstNs) / periodNs + 1e-6) + 1, dst);
     }
 
     /**

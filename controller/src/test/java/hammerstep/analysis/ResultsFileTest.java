@@ -46,6 +46,28 @@ class ResultsFileTest {
     }
 
     @Test
+    void readsASubscribersLogWithTopicsInFrontAndEmptyRetainedMessages() throws Exception {
+        String t = "hammerstep/v1/s/l/st/";
+        Path f = write(t + "joint {\"schema\":\"hammerstep.joint.v1\",\"id\":\"j1\",\"program\":\"p\",\"blows\":6,"
+                        + "\"final_torque_nm\":91.5,\"verdict\":\"GO\",\"reasons\":[]," + LIMITS + "}",
+                t + "status (null)",
+                t + "status",
+                t + "part {\"schema\":\"hammerstep.part.v1\",\"id\":\"p1\"}");
+
+        ResultsFile.Contents c = ResultsFile.read(f);
+
+        assertThat(c.joints()).singleElement().satisfies(j -> assertThat(j.finalTorqueNm()).isEqualTo(91.5));
+        assertThat(c.skipped()).isEqualTo(1);
+    }
+
+    @Test
+    void aWordThatIsNoTopicIsNoMessage() throws Exception {
+        Path f = write("{\"schema\":\"hammerstep.part.v1\"}", "garbage");
+
+        assertThatThrownBy(() -> ResultsFile.read(f)).hasMessageStartingWith(f + ":2: not a JSON object");
+    }
+
+    @Test
     void namesFileAndLineOfBadJson() throws Exception {
         Path f = write("{\"schema\":\"hammerstep.part.v1\"}", "{not json");
 

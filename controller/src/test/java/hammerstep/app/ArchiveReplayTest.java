@@ -216,7 +216,7 @@ class ArchiveReplayTest {
         Files.writeString(bad, "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"a\"}\nnot json at all\n");
         Captured c = Captured.run("replay", archive.toString(), "--program", changed.toString(), "--compare", bad.toString());
         assertThat(c.exit()).isEqualTo(2);
-        assertThat(c.err().strip()).startsWith(bad + ":2: not a JSON message");
+        assertThat(c.err().strip()).startsWith(bad + ":2: not a JSON object");
 
         Captured missing = Captured.run("replay", dir.resolve("nowhere").toString(), archive.toString(),
                 "--program", changed.toString());

@@ -53,9 +53,7 @@ class ReplayRangeTest {
     private JsonNode replay(Path p, String... more) throws Exception {
         List<String> args = new ArrayList<>(List.of("replay", p.toString(), "--program", PROGRAM));
         args.addAll(List.of(more));
-        long before = streams.out().lines().count();
-        assertThat(Main.run(args.toArray(String[]::new))).isZero();
-        List<String> lines = streams.out().lines().skip(before).toList();
+        List<String> lines = streams.linesOf(() -> assertThat(Main.run(args.toArray(String[]::new))).isZero());
         assertThat(lines).hasSize(1);
         return new ObjectMapper().readTree(lines.get(0));
     }

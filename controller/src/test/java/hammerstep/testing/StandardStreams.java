@@ -45,6 +45,13 @@ public final class StandardStreams implements BeforeEachCallback, AfterEachCallb
         return err.toString(StandardCharsets.UTF_8);
     }
 
+    /** The lines printed to standard output while {@code command} ran. */
+    public java.util.List<String> linesOf(Runnable command) {
+        long before = out().lines().count();
+        command.run();
+        return out().lines().skip(before).toList();
+    }
+
     /** Forgets what was printed to standard error, so that the next command's lines stand alone. */
     public void clearErr() {
         err.reset();

@@ -62,6 +62,14 @@ class JournalLossTest {
         return starts;
     }
 
+    /** Flips {@code mask} in the byte {@code past} bytes after {@code marker} in the first segment. */
+    private void flip(String marker, int past, int mask) throws IOException {
+        Path seg = segments().get(0);
+        byte[] bytes = Files.readAllBytes(seg);
+        bytes[new String(bytes, StandardCharsets.ISO_8859_1).indexOf(marker) + past] ^= (byte) mask;
+        Files.write(seg, bytes);
+    }
+
     private static void truncate(Path file, long size) throws IOException {
         try (FileChannel ch = FileChannel.open(file, StandardOpenOption.WRITE)) {
             ch.truncate(size);
@@ -113,10 +121,7 @@ class JournalLossTest {
             add(box, MessageKind.PART, "third");
             add(box, MessageKind.EVENT, "an event");
         }
-        Path seg = segments().get(0);
-        byte[] bytes = Files.readAllBytes(seg);
-        bytes[new String(bytes, StandardCharsets.ISO_8859_1).indexOf("second-damaged") + 3] ^= 0x01;
-        Files.write(seg, bytes);
+        flip("second-damaged", 3, 0x01);
         try (FileOutbox box = open()) {
             assertThat(box.recovery().losses()).containsExactly(new Loss(MessageKind.PART, 2, 2));
             assertThat(seqs(box, MessageKind.PART)).containsExactly(1L, 3L);
@@ -131,10 +136,7 @@ class JournalLossTest {
             add(box, MessageKind.JOINT, "one");
             add(box, MessageKind.JOINT, "two-flipped");
         }
-        Path seg = segments().get(0);
-        byte[] bytes = Files.readAllBytes(seg);
-        bytes[new String(bytes, StandardCharsets.ISO_8859_1).indexOf("two-flipped") + 1] ^= 0x40;
-        Files.write(seg, bytes);
+        flip("two-flipped", 1, 0x40);
         try (FileOutbox box = open()) {
             assertThat(box.recovery().losses()).containsExactly(new Loss(MessageKind.JOINT, 2, 2));
             assertThat(box.nextSeq(MessageKind.JOINT)).isEqualTo(3);
