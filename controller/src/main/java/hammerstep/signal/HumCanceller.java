@@ -53,8 +53,28 @@ public final class HumCanceller {
     private final double windowS;
     private final int nominalStep;
     private final int maxStepDeviation;
-    /** cos(kθ_j) at [k-1][j] flattened, then sin(kθ_j) likewise; θ_j the middle of step j. */
+    /** cos(kθ_j) at [k-1][j] flattened, then sin(kθ_j) likewise; θ_j the middle of step j. Shared, read only. */
     private final float[] basis;
+    /**
+     * The basis for each number of harmonics, made once: a replay over an archive makes a canceller
+     * (and two hum watchers) per trace, and 2048 to 10 240 sines and cosines each cost more than
+     * judging a short trace.
+     */
+    private static final float[][] BASES = new float[MAX_HARMONIC + 1][];
+
+    static {
+        for (int h = 1; h <= MAX_HARMONIC; h++) {
+            float[] b = new float[2 * h * TABLE];
+            for (int k = 1; k <= h; k++) {
+                for (int j = 0; j < TABLE; j++) {
+                    double theta = 2 * Math.PI * k * (j + 0.5) / TABLE;
+                    b[(k - 1) * TABLE + j] = (float) Math.cos(theta);
+                    b[(h + k - 1) * TABLE + j] = (float) Math.sin(theta);
+                }
+            }
+            BASES[h] = b;
+        }
+    }
     /** The model over one period, from {@link #coefficients}. */
     private final float[] table = new float[TABLE];
     /** The coefficients {@link #table} was built from. */
@@ -103,14 +123,7 @@ public final class HumCanceller {
         this.nominalStep = toStep(mainsHz);
         this.maxStepDeviation = (int) Math.round(MAX_DEVIATION * Math.abs((double) toStep(mainsHz)));
         this.step = nominalStep;
-        this.basis = new float[2 * harmonics * TABLE];
-        for (int k = 1; k <= harmonics; k++) {
-            for (int j = 0; j < TABLE; j++) {
-                double theta = 2 * Math.PI * k * (j + 0.5) / TABLE;
-                basis[(k - 1) * TABLE + j] = (float) Math.cos(theta);
-                basis[(harmonics + k - 1) * TABLE + j] = (float) Math.sin(theta);
-            }
-        }
+        this.basis = BASES[harmonics];
         this.coefficients = new double[2 * harmonics];
         this.sums = new double[2 * harmonics];
         this.inTable = new double[2 * harmonics];

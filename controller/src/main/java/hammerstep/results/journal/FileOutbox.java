@@ -128,6 +128,9 @@ public final class FileOutbox implements Outbox {
                         + SegmentFile.name(numbers.get(i) - 1) + " are missing");
             }
             SegmentFile seg = SegmentFile.openExisting(settings.dir(), numbers.get(i));
+            if (seg.size == 0) {
+                notes.add(SegmentFile.name(numbers.get(i)) + " is empty");
+            }
             segments.add(seg);
             index.oldest = i == 0;
             long[] counts = seg.scan(newest, notes, crc, nextSeq.length, index);

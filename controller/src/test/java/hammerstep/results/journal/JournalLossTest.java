@@ -159,6 +159,7 @@ class JournalLossTest {
         }
         truncate(newest, 0); // a card that acknowledged the writes and kept nothing
         try (FileOutbox box = open()) {
+            assertThat(box.recovery().notes()).contains(newest.getFileName() + " is empty");
             assertThat(box.recovery().losses()).containsExactly(
                     new Loss(MessageKind.JOINT, inNewest.get(0), 20));
             assertThat(seqs(box, MessageKind.JOINT)).hasSize(20 - inNewest.size());
