@@ -273,8 +273,11 @@ public final class Conditioner {
 
     /**
      * A pulse flattened at a rail: {@code clipRunSamples} exactly equal samples at or beyond the
-     * impulse level. No strike holds its torque to the last bit for that long; an amplifier or ADC
-     * at its limit does. Reported as {@code OVER_RANGE}.
+     * impulse level, and none larger in magnitude in the block. No strike holds its torque to the last
+     * bit for that long; an amplifier or ADC at its limit does, and nothing passes its limit. A run of
+     * equal samples below the block's largest magnitude (a slow rebound trough after a strike, stored
+     * in fine int16 steps, where noise made three samples read the same count) is a coincidence, not a
+     * rail. Reported as {@code OVER_RANGE}.
      */
     private int checkFlatTop(int now, float[] src, int base, int length, float min, float max) {
         int run = clipRun;
@@ -284,12 +287,21 @@ public final class Conditioner {
             clipRun = 0;
             return now;
         }
-        boolean flat = false;
+        float high = Float.NEGATIVE_INFINITY;
+        float low = Float.POSITIVE_INFINITY;
+        float flatHigh = Float.NaN;
+        float flatLow = Float.NaN;
         for (int i = 0; i < length; i++) {
             float v = src[base + i];
+            high = v > high ? v : high;
+            low = v < low ? v : low;
             if (v == value) {
-                if (++run >= clipRunSamples && (v >= level || v <= -level)) {
-                    flat = true;
+                if (++run >= clipRunSamples) {
+                    if (v >= level && !(v <= flatHigh)) {
+                        flatHigh = v;
+                    } else if (v <= -level && !(v >= flatLow)) {
+                        flatLow = v;
+                    }
                 }
             } else {
                 value = v;
@@ -298,6 +310,8 @@ public final class Conditioner {
         }
         clipRun = run;
         clipValue = value;
+        float extreme = high > -low ? high : -low;
+        boolean flat = flatHigh >= extreme || -flatLow >= extreme;
         return flat ? now | SignalFaults.OVER_RANGE : now;
     }
 

@@ -75,6 +75,44 @@ class ClippingTest {
         assertThat(d.run(BARE_CSV, 512)).allSatisfy(r -> assertThat(r.faults()).isZero());
     }
 
+    @ParameterizedTest(name = "{0} Hz")
+    @ValueSource(doubles = {20_000, 50_000, 100_000})
+    void equalSamplesAtAReboundTroughBelowTheStrikeAreNoRail(double rate) {
+        // int16 storage in steps of about 0.009 N·m: with 0.4 N·m of noise, three samples at a slow
+        // rebound trough can read the same count (seen in an archive of 100 000 stored traces)
+        Disturbed d = new Disturbed(rate, 1, 3);
+        d.noise(0.4);
+        int troughs = 0;
+        for (int i = 1; i + 3 < d.x.length; i++) {
+            if (d.clean[i] < -28 && d.clean[i] <= d.clean[i - 1] && d.clean[i] < d.clean[i + 1]
+                    && strikeBefore(d.clean, i, 4096)) {
+                d.x[i + 1] = d.x[i];
+                d.x[i + 2] = d.x[i];
+                troughs++;
+            }
+        }
+        assertThat(troughs).as("rebound troughs made flat").isGreaterThanOrEqualTo(3);
+        // in blocks that hold the strike before each trough, as a replay of a trace reads them
+        assertThat(d.run(BARE_CSV, 4096)).singleElement()
+                .satisfies(r -> assertThat(r.faults() & SignalFaults.OVER_RANGE).isZero());
+        // the same flat samples at the strike's crest are a rail
+        Disturbed crest = new Disturbed(rate, 1, 3);
+        crest.noise(0.4);
+        clip(crest.x, 150);
+        assertThat(crest.run(BARE_CSV, 4096)).singleElement()
+                .satisfies(r -> assertThat(r.faults() & SignalFaults.OVER_RANGE).isNotZero());
+    }
+
+    /** True when the block of {@code i} holds a larger sample before the trough at {@code i} (the strike). */
+    private static boolean strikeBefore(float[] x, int i, int block) {
+        for (int k = i / block * block; k < i; k++) {
+            if (x[k] > -x[i] + 10) {
+                return i + 3 < (i / block + 1) * block;
+            }
+        }
+        return false;
+    }
+
     @ParameterizedTest(name = "range {0} N·m")
     @ValueSource(doubles = {200, 220})
     void aKnownRangeCatchesAPulseReachingItWithoutAFlatTop(double range) {
