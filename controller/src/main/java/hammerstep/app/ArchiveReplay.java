@@ -243,10 +243,12 @@ final class ArchiveReplay {
             Map<String, String> metadata = Map.of();
             double rate;
             boolean isStored = StoredTrace.isStored(trace);
+            StoredTrace.Loaded loaded = null;
             if (isStored) {
-                StoredTrace.Header h = StoredTrace.readHeader(trace);
-                metadata = h.metadata();
-                rate = h.rateHz();
+                // read and checked once: the header names the program, the samples follow
+                loaded = StoredTrace.load(trace);
+                metadata = loaded.header().metadata();
+                rate = loaded.header().rateHz();
             } else {
                 rate = TraceFiles.rateOf(trace, settings.rateHz());
             }
@@ -264,9 +266,10 @@ final class ArchiveReplay {
                 // as the station judged it: its conditioning and its input stage's state at the rundown's start
                 warnings.clear();
                 if (stored != null) {
-                    StationReplay.whatIf(trace, program, this::withOptions, ReplayCommand.BLOCK, collect, warnings::add);
+                    StationReplay.whatIf(trace, loaded, program, this::withOptions, ReplayCommand.BLOCK, collect,
+                            warnings::add);
                 } else {
-                    StationReplay.replay(trace, program, this::withOptions, ReplayCommand.BLOCK, collect, null,
+                    StationReplay.replay(trace, loaded, program, this::withOptions, ReplayCommand.BLOCK, collect,
                             warnings::add);
                 }
                 if (!warnings.isEmpty()) {

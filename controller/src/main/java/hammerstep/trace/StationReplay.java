@@ -118,23 +118,30 @@ public final class StationReplay {
     public static StoredTrace.Loaded replay(Path path, JointProgram program, UnaryOperator<Conditioning> options,
                                             int block, JointEvents events, SampleSink everySample,
                                             Consumer<String> warn) throws TraceException {
-        return replay(path, program, options, block, events, everySample, warn, true);
+        return replay(path, StoredTrace.load(path), program, options, block, events, everySample, warn, true);
+    }
+
+    /** As {@link #replay(Path, JointProgram, UnaryOperator, int, JointEvents, SampleSink, Consumer)}, of a trace already loaded (and so checked) from {@code path}. */
+    public static StoredTrace.Loaded replay(Path path, StoredTrace.Loaded trace, JointProgram program,
+                                            UnaryOperator<Conditioning> options, int block, JointEvents events,
+                                            Consumer<String> warn) throws TraceException {
+        return replay(path, trace, program, options, block, events, null, warn, true);
     }
 
     /**
      * As {@link #replay}, for a what-if: {@code program} is the engineer's changed copy, so a program
      * revision other than the station's is the point and not warned of; the other warnings stay.
      */
-    public static StoredTrace.Loaded whatIf(Path path, JointProgram program, UnaryOperator<Conditioning> options,
-                                            int block, JointEvents events, Consumer<String> warn)
-            throws TraceException {
-        return replay(path, program, options, block, events, null, warn, false);
+    public static StoredTrace.Loaded whatIf(Path path, StoredTrace.Loaded trace, JointProgram program,
+                                            UnaryOperator<Conditioning> options, int block, JointEvents events,
+                                            Consumer<String> warn) throws TraceException {
+        return replay(path, trace, program, options, block, events, null, warn, false);
     }
 
-    private static StoredTrace.Loaded replay(Path path, JointProgram program, UnaryOperator<Conditioning> options,
-                                             int block, JointEvents events, SampleSink everySample,
-                                             Consumer<String> warn, boolean warnOtherRevision) throws TraceException {
-        StoredTrace.Loaded t = StoredTrace.load(path);
+    private static StoredTrace.Loaded replay(Path path, StoredTrace.Loaded t, JointProgram program,
+                                             UnaryOperator<Conditioning> options, int block, JointEvents events,
+                                             SampleSink everySample, Consumer<String> warn, boolean warnOtherRevision)
+            throws TraceException {
         StoredTrace.Header h = t.header();
         Conditioning fallback = JointMonitor.replayConditioning(program);
         Chain chain = chainOf(path, h, fallback);
