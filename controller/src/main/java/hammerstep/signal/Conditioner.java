@@ -196,8 +196,9 @@ public final class Conditioner {
             now |= SignalFaults.OVER_RANGE;
         }
         if (clipLevel > 0 && length > 0) {
-            float humNm = hum == null ? 0f : hum.amplitudeNm();
-            now = checkFlatTop(now, raw, rawBase, length, min - humNm, max + humNm);
+            // without hum subtraction the block's extremes are those of the samples as they came
+            now = hum == null ? checkFlatTop(now, raw, rawBase, length, min, max, true)
+                    : checkFlatTop(now, raw, rawBase, length, min - hum.amplitudeNm(), max + hum.amplitudeNm(), false);
         }
         now = checkFlatLine(now, min, max, length);
         boolean quiet = false;
@@ -279,7 +280,7 @@ public final class Conditioner {
      * in fine int16 steps, where noise made three samples read the same count) is a coincidence, not a
      * rail. Reported as {@code OVER_RANGE}.
      */
-    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max) {
+    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max, boolean exact) {
         int run = clipRun;
         float value = clipValue;
         float level = clipLevel;
@@ -287,14 +288,21 @@ public final class Conditioner {
             clipRun = 0;
             return now;
         }
-        float high = Float.NEGATIVE_INFINITY;
-        float low = Float.POSITIVE_INFINITY;
+        float high = max;
+        float low = min;
+        if (!exact) {
+            high = Float.NEGATIVE_INFINITY;
+            low = Float.POSITIVE_INFINITY;
+            for (int i = 0; i < length; i++) {
+                float v = src[base + i];
+                high = v > high ? v : high;
+                low = v < low ? v : low;
+            }
+        }
         float flatHigh = Float.NaN;
         float flatLow = Float.NaN;
         for (int i = 0; i < length; i++) {
             float v = src[base + i];
-            high = v > high ? v : high;
-            low = v < low ? v : low;
             if (v == value) {
                 if (++run >= clipRunSamples) {
                     if (v >= level && !(v <= flatHigh)) {
