@@ -102,25 +102,41 @@ public final class ImpulseRejector {
     }
 
     /**
-     * The largest |second difference| over {@code [from, to)}: a branch-free pass over the block
-     * (four independent maxima) that lets a block without any sharp bend, nearly every idle block,
-     * skip the scan for candidates.
+     * The largest |second difference| over {@code [from, to)}: one pass over the block (four
+     * independent maxima) that lets a block without any sharp bend, nearly every idle block, skip the
+     * scan for candidates. A NaN bend is passed over (the scan would leave a NaN alone too; the
+     * conditioner reports it as {@code NOT_FINITE}).
      */
     private static float largestBend(float[] s, int from, int to) {
+        // Math.abs is one and-instruction; a new largest bend is rare, so the compare-and-keep is a
+        // well-predicted branch where Math.max would pay for its NaN handling on every sample
         float m0 = 0f, m1 = 0f, m2 = 0f, m3 = 0f;
         int p = from;
         for (int last = to - 3; p < last; p += 4) {
-            m0 = Math.max(m0, Math.abs(s[p] - 2f * s[p - 1] + s[p - 2]));
-            m1 = Math.max(m1, Math.abs(s[p + 1] - 2f * s[p] + s[p - 1]));
-            m2 = Math.max(m2, Math.abs(s[p + 2] - 2f * s[p + 1] + s[p]));
-            m3 = Math.max(m3, Math.abs(s[p + 3] - 2f * s[p + 2] + s[p + 1]));
+            float d0 = Math.abs(s[p] - 2f * s[p - 1] + s[p - 2]);
+            float d1 = Math.abs(s[p + 1] - 2f * s[p] + s[p - 1]);
+            float d2 = Math.abs(s[p + 2] - 2f * s[p + 1] + s[p]);
+            float d3 = Math.abs(s[p + 3] - 2f * s[p + 2] + s[p + 1]);
+            if (d0 > m0) {
+                m0 = d0;
+            }
+            if (d1 > m1) {
+                m1 = d1;
+            }
+            if (d2 > m2) {
+                m2 = d2;
+            }
+            if (d3 > m3) {
+                m3 = d3;
+            }
         }
         for (; p < to; p++) {
-            m0 = Math.max(m0, Math.abs(s[p] - 2f * s[p - 1] + s[p - 2]));
+            float d = Math.abs(s[p] - 2f * s[p - 1] + s[p - 2]);
+            if (d > m0) {
+                m0 = d;
+            }
         }
-        // NaN compares false everywhere: let such a block take the scan, which leaves NaN alone
-        float m = Math.max(Math.max(m0, m1), Math.max(m2, m3));
-        return m;
+        return Math.max(Math.max(m0, m1), Math.max(m2, m3));
     }
 
     /** The smallest departure beyond the threshold of the last {@link #widthAt} that found an impulse. */
