@@ -226,8 +226,10 @@ public final class JointMonitor implements PulseSink {
     }
 
     private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
-        float high = idleHigh;
-        float low = idleLow;
+        // mains hum not yet learned is still in the signal: it must not start a rundown
+        float settling = stage.conditioner().humSettlingNm();
+        float high = idleHigh + settling;
+        float low = idleLow - settling;
         while (i < length && x[i] < high && x[i] > low) {
             i++;
         }

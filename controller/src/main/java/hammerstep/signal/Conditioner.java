@@ -72,6 +72,14 @@ public final class Conditioner {
      * move a peak by the 10 N·m of the tolerance.
      */
     public static final float HUM_FAULT_NM = 6f;
+    /**
+     * Hum the canceller allows for before its first window is learned (the first 0.1 s after start,
+     * or after a trace without chain state begins): a fundamental of 15 N·m with its harmonics, which
+     * reach about 23 N·m together. Until then the idle counts as idle for learning with this much
+     * more spread, and a rundown starts only this much above its start level, so that the hum itself
+     * never starts one (the canceller cannot learn during a rundown).
+     */
+    public static final float HUM_SETTLING_NM = 25f;
 
     public Conditioner(Conditioning settings, double rateHz) {
         if (!(rateHz > 0)) {
@@ -140,6 +148,8 @@ public final class Conditioner {
         int rawBase = base;
         int humPhase = 0;
         if (hum != null) {
+            // the allowance belongs to the block as it is cleaned now, before this block's learning
+            settlingNm = hum.learned() ? 0f : HUM_SETTLING_NM;
             humPhase = hum.subtract(src, base, out, length);
             src = out;
             base = 0;
@@ -213,6 +223,15 @@ public final class Conditioner {
             idle = trackZero && quiet;
             // hum that makes the idle not quiet must still be seen; a strike is far beyond twice the band
             humIdle = trackZero && max - mean < 2 * band && mean - min < 2 * band;
+            if (settlingNm > 0) {
+                // before the first window the hum is all there: learn from an idle that spreads by it
+                float settling = band + HUM_SETTLING_NM;
+                idle = trackZero && max - mean < settling && mean - min < settling;
+            }
+            if (settlingNm > 0) {
+                // nor a zero: a block shorter than a mains period has the hum's mean, not the offset's
+                quiet = false;
+            }
             if (trackZero && quiet && !zeroSet) {
                 // the first zero applies to the very block it comes from: the idle before the first
                 // rundown, as the station takes it at start
@@ -530,6 +549,18 @@ public final class Conditioner {
             watch60.copyTo(into.watch60);
         }
     }
+
+    /**
+     * How much hum may still be in the block last conditioned, N·m: {@link #HUM_SETTLING_NM} when a
+     * named mains frequency's canceller had learned nothing yet as it cleaned the block, else 0. The
+     * joint monitor raises its start levels by it.
+     */
+    public float humSettlingNm() {
+        return settlingNm;
+    }
+
+    /** {@link #humSettlingNm()} of the block last conditioned. */
+    private float settlingNm;
 
     /** The offset currently subtracted, N·m. */
     public double zeroNm() {

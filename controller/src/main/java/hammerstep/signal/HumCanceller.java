@@ -265,6 +265,20 @@ public final class HumCanceller {
         }
     }
 
+    /**
+     * True once a learning window has ended with something learned (a model is being subtracted).
+     * Before that the hum is still in the signal: the caller allows for it (see
+     * {@link Conditioner#humSettlingNm()}).
+     */
+    public boolean learned() {
+        for (double c : coefficients) {
+            if (c != 0.0) {
+                return true;
+            }
+        }
+        return false;
+    }
+
     /** Peak of the learned fundamental and harmonics together (the sum of their amplitudes), N·m. */
     public float amplitudeNm() {
         return amplitudeNm;

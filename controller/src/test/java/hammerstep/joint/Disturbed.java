@@ -24,6 +24,8 @@ final class Disturbed {
             FinalTorque.MAX_PEAK, new JointProgram.Blows(60, 30, 4, 30, 7.5),
             new JointProgram.Rundown(30, 200, 5000), 205, 2);
 
+    /** The program the chain judges with; {@link #PROGRAM} unless a test sets another. */
+    JointProgram program = PROGRAM;
     final double rateHz;
     final List<List<Strike>> rundowns = new ArrayList<>();
     final List<Strike> strikes = new ArrayList<>();
@@ -115,7 +117,7 @@ final class Disturbed {
 
     List<JointResult> run(float[] trace, Conditioning conditioning, int block) {
         RecordingJointEvents ev = new RecordingJointEvents();
-        JointMonitor m = new JointMonitor(PROGRAM, conditioning, rateHz, block, ev);
+        JointMonitor m = new JointMonitor(program, conditioning, rateHz, block, ev);
         for (int off = 0; off < trace.length; off += block) {
             m.onSamples(trace, off, Math.min(block, trace.length - off), (long) (off * 1e9 / rateHz));
         }

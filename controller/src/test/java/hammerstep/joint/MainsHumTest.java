@@ -55,6 +55,25 @@ class MainsHumTest {
         d.assertMatchesTruth(d.run(c, block), c);
     }
 
+    /** {@link Disturbed#PROGRAM} with rundowns starting at 10 N·m: the hum alone reaches that. */
+    static final JointProgram LOW_START = new JointProgram("plant-low", "", Disturbed.PROGRAM.torque(),
+            FinalTorque.MAX_PEAK, Disturbed.PROGRAM.blows(), new JointProgram.Rundown(10, 200, 5000), 205, 2);
+
+    @ParameterizedTest(name = "{0} Hz, mains {1} Hz, blocks of {2}, seed {3}")
+    @MethodSource("cases")
+    void humAboveTheStartLevelFromTheFirstSampleStartsNoRundownBeforeItIsLearned(double rate, double mains,
+                                                                                 int block, long seed) {
+        // the canceller learns in its first 0.1 s of idle; until then the hum (up to 23 N·m with its
+        // harmonics) is all in the signal, above a start level of 10 N·m, and must not start a rundown:
+        // a rundown started by it would never end, since nothing is learned during a rundown
+        Disturbed d = new Disturbed(rate, 2, seed);
+        d.program = LOW_START;
+        d.hum(mains, HUM_NM);
+        d.noise(1.0);
+        Conditioning c = JointMonitor.replayConditioning(LOW_START).withMains(mains);
+        d.assertMatchesTruth(d.run(c, block), c);
+    }
+
     @ParameterizedTest(name = "{0} Hz")
     @ValueSource(doubles = {20_000, 50_000, 100_000})
     void withoutTheCancellerTheSameHumMovesThePeaks(double rate) {
