@@ -101,14 +101,7 @@ public final class MemoryOutbox implements Outbox {
     @Override
     public synchronized List<Loss> raiseSeqs(long[] lastSeqElsewhere, Restamp restamp) throws ResultStoreException {
         long[] delta = new long[runStartSeq.length];
-        List<Loss> found = new ArrayList<>();
-        for (MessageKind kind : MessageKind.values()) {
-            int k = kind.ordinal();
-            if (lastSeqElsewhere[k] >= runStartSeq[k]) {
-                delta[k] = lastSeqElsewhere[k] + 1 - runStartSeq[k];
-                found.add(new Loss(kind, runStartSeq[k], lastSeqElsewhere[k]));
-            }
-        }
+        List<Loss> found = Outbox.raisedRanges(lastSeqElsewhere, runStartSeq, delta);
         if (found.isEmpty()) {
             return List.of();
         }

@@ -140,6 +140,23 @@ public interface Outbox extends AutoCloseable {
         return List.of();
     }
 
+    /**
+     * The rule of {@link #raiseSeqs} for every store: the kinds whose seq {@code lastSeqElsewhere}
+     * reaches this run's first ({@code runStartSeq}) are lost from there up to it, and their seqs
+     * must rise by {@code delta[kind]} (set here; 0 for the others).
+     */
+    static List<Loss> raisedRanges(long[] lastSeqElsewhere, long[] runStartSeq, long[] delta) {
+        List<Loss> found = new java.util.ArrayList<>();
+        for (MessageKind kind : MessageKind.values()) {
+            int k = kind.ordinal();
+            if (lastSeqElsewhere[k] >= runStartSeq[k]) {
+                delta[k] = lastSeqElsewhere[k] + 1 - runStartSeq[k];
+                found.add(new Loss(kind, runStartSeq[k], lastSeqElsewhere[k]));
+            }
+        }
+        return found;
+    }
+
     /** Writes a new seq into a stored payload. */
     @FunctionalInterface
     interface Restamp {
