@@ -2,10 +2,8 @@ package hammerstep.analysis;
 
 import java.io.BufferedReader;
 import java.io.IOException;
-import java.nio.charset.MalformedInputException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -51,12 +49,8 @@ public final class AuditFile {
             if (col == null) {
                 throw new InputException(file + ": no header; expected the columns " + String.join(",", COLUMNS));
             }
-        } catch (NoSuchFileException e) {
-            throw new InputException(file + ": no such file");
-        } catch (MalformedInputException e) {
-            throw new InputException(file + ": not a text file (invalid UTF-8)");
         } catch (IOException e) {
-            throw new InputException(file + ": cannot read: " + e.getMessage());
+            throw InputException.reading(file, e);
         }
         return audits;
     }

@@ -6,10 +6,8 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 
 import java.io.BufferedReader;
 import java.io.IOException;
-import java.nio.charset.MalformedInputException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 
 /**
@@ -53,12 +51,8 @@ final class MessageLines {
                 }
                 reader.message(line, node);
             }
-        } catch (NoSuchFileException e) {
-            throw new InputException(file + ": no such file");
-        } catch (MalformedInputException e) {
-            throw new InputException(file + ": not a text file (invalid UTF-8)");
         } catch (IOException e) {
-            throw new InputException(file + ": cannot read: " + e.getMessage());
+            throw InputException.reading(file, e);
         }
     }
 
