@@ -224,12 +224,10 @@ public final class Conditioner {
             // hum that makes the idle not quiet must still be seen; a strike is far beyond twice the band
             humIdle = trackZero && max - mean < 2 * band && mean - min < 2 * band;
             if (settlingNm > 0) {
-                // before the first window the hum is all there: learn from an idle that spreads by it
-                float settling = band + HUM_SETTLING_NM;
+                // before the first window the hum is all there: learn from an idle that spreads by it,
+                // and take no zero (a block shorter than a mains period has the hum's mean, not the offset's)
+                float settling = band + settlingNm;
                 idle = trackZero && max - mean < settling && mean - min < settling;
-            }
-            if (settlingNm > 0) {
-                // nor a zero: a block shorter than a mains period has the hum's mean, not the offset's
                 quiet = false;
             }
             if (trackZero && quiet && !zeroSet) {
