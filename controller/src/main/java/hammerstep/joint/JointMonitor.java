@@ -227,9 +227,14 @@ public final class JointMonitor implements PulseSink {
 
     private int scanIdle(float[] x, int i, int length, long firstNs, int faults) {
         // mains hum not yet learned is still in the signal: it must not start a rundown
-        float settling = stage.conditioner().humSettlingNm();
+        Conditioner conditioner = stage.conditioner();
+        float settling = conditioner.humSettlingNm();
         float high = idleHigh + settling;
         float low = idleLow - settling;
+        if (conditioner.conditionedHigh() < high && conditioner.conditionedLow() > low) {
+            // x is the block the stage's conditioner just wrote: nothing in it starts a rundown
+            return length;
+        }
         while (i < length && x[i] < high && x[i] > low) {
             i++;
         }

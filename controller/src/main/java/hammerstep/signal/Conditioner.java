@@ -140,19 +140,14 @@ public final class Conditioner {
         float[] src = in;
         int base = offset;
         if (rejector != null && length > 0) {
-            base = reject(in, offset, length);
+            base = carryIn(in, offset, length);
             src = work;
         }
-        // the flat-top check looks at the samples as they came: a rail is flat, the rail less hum is not
-        float[] raw = src;
-        int rawBase = base;
         int humPhase = 0;
         if (hum != null) {
             // the allowance belongs to the block as it is cleaned now, before this block's learning
             settlingNm = hum.learned() ? 0f : HUM_SETTLING_NM;
-            humPhase = hum.subtract(src, base, out, length);
-            src = out;
-            base = 0;
+            humPhase = hum.phase();
         }
         int watchPhase50 = 0, watchPhase60 = 0;
         if (watch50 != null) {
@@ -160,55 +155,45 @@ public final class Conditioner {
             watchPhase60 = watch60.subtract(src, base, out, length);
         }
         float zero = zeroNm;
-        // four independent accumulators keep the loop free of long dependency chains
-        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
-        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
-        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
-        int i = 0;
-        for (int last = length - 3; i < last; i += 4) {
-            float x0 = src[base + i];
-            float x1 = src[base + i + 1];
-            float x2 = src[base + i + 2];
-            float x3 = src[base + i + 3];
-            max0 = x0 > max0 ? x0 : max0;
-            max1 = x1 > max1 ? x1 : max1;
-            max2 = x2 > max2 ? x2 : max2;
-            max3 = x3 > max3 ? x3 : max3;
-            min0 = x0 < min0 ? x0 : min0;
-            min1 = x1 < min1 ? x1 : min1;
-            min2 = x2 < min2 ? x2 : min2;
-            min3 = x3 < min3 ? x3 : min3;
-            sum0 += x0;
-            sum1 += x1;
-            sum2 += x2;
-            sum3 += x3;
-            out[i] = x0 - zero;
-            out[i + 1] = x1 - zero;
-            out[i + 2] = x2 - zero;
-            out[i + 3] = x3 - zero;
+        // one pass: hum subtracted, extremes and sum taken, zero subtracted; with impulse rejection on,
+        // the same pass finds the largest bend, and only a block that bends as sharply as an impulse
+        // (rare: a strike's crest bends far less) has its impulses replaced and is passed over again
+        boolean equalNeighbours = true;
+        if (rejector != null && length > 0) {
+            conditionWithBends(src, base, length, out, zero, humPhase);
+            equalNeighbours = equalPairs > 0;
+            if (largestBend >= rejector.level()) {
+                rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, base + length + 1);
+                condition(src, base, length, out, zero, humPhase);
+                equalNeighbours = true;
+            }
+            System.arraycopy(work, length, tail, 0, tail.length);
+        } else {
+            condition(src, base, length, out, zero, humPhase);
         }
-        for (; i < length; i++) {
-            float x = src[base + i];
-            max0 = x > max0 ? x : max0;
-            min0 = x < min0 ? x : min0;
-            sum0 += x;
-            out[i] = x - zero;
+        if (hum != null) {
+            hum.advance(length);
         }
-        float max = Math.max(Math.max(max0, max1), Math.max(max2, max3));
-        float min = Math.min(Math.min(min0, min1), Math.min(min2, min3));
-        float sum = (sum0 + sum1) + (sum2 + sum3);
+        float max = blockMax;
+        float min = blockMin;
+        float sum = blockSum;
         int now = faults & ~(OVER_RANGE_OR_NAN);
         if (sum != sum || max == Float.POSITIVE_INFINITY || min == Float.NEGATIVE_INFINITY) {
             now |= SignalFaults.NOT_FINITE;
             sum = repairNonFinite(out, length);
         }
+        // rounding is monotone: the largest x − zero is the largest x less zero
+        outHigh = filtered || (now & SignalFaults.NOT_FINITE) != 0 ? Float.NaN : max - zero;
+        outLow = filtered || (now & SignalFaults.NOT_FINITE) != 0 ? Float.NaN : min - zero;
         if (max >= overRange || -min >= overRange) {
             now |= SignalFaults.OVER_RANGE;
         }
         if (clipLevel > 0 && length > 0) {
-            // without hum subtraction the block's extremes are those of the samples as they came
-            now = hum == null ? checkFlatTop(now, raw, rawBase, length, min, max, true)
-                    : checkFlatTop(now, raw, rawBase, length, min - hum.amplitudeNm(), max + hum.amplitudeNm(), false);
+            // the flat-top check looks at the samples as they came: a rail is flat, the rail less hum
+            // is not; without hum subtraction the block's extremes are those of the samples as they came
+            now = hum == null ? checkFlatTop(now, src, base, length, min, max, true, equalNeighbours)
+                    : checkFlatTop(now, src, base, length, min - hum.amplitudeNm(), max + hum.amplitudeNm(), false,
+                            equalNeighbours);
         }
         now = checkFlatLine(now, min, max, length);
         boolean quiet = false;
@@ -238,6 +223,8 @@ public final class Conditioner {
                 for (int k = 0; k < length; k++) {
                     out[k] -= shift;
                 }
+                outHigh -= shift;
+                outLow -= shift;
                 quiet = false;
             }
         }
@@ -266,12 +253,12 @@ public final class Conditioner {
     }
 
     /**
-     * Copies the carried samples and the block into {@link #work}, replaces the impulses that can be
-     * decided now, and carries the last {@code HISTORY + delay} samples on.
+     * Copies the carried samples and the block into {@link #work}; {@link #process} replaces the
+     * impulses that can be decided now and carries the last {@code HISTORY + delay} samples on.
      *
      * @return where in {@link #work} the block's output starts
      */
-    private int reject(float[] in, int offset, int length) {
+    private int carryIn(float[] in, int offset, int length) {
         int keep = tail.length;
         int end = keep + length;
         if (work.length < end) {
@@ -283,10 +270,196 @@ public final class Conditioner {
         }
         System.arraycopy(tail, 0, work, 0, keep);
         System.arraycopy(in, offset, work, keep, length);
-        // an impulse starting at p is decided once its widest form and two samples after it are here
-        rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, end - rejector.lookAhead() + 1);
-        System.arraycopy(work, length, tail, 0, keep);
         return ImpulseRejector.HISTORY;
+    }
+
+    /** The hum model where none is subtracted: the oscillator stands at its one entry, 0. */
+    private static final float[] NO_HUM = new float[1];
+
+    // what the last pass found, read back by process (four fields rather than an allocated result)
+    private float blockMax;
+    private float blockMin;
+    private float blockSum;
+    /** The largest |second difference| of the samples as they came ({@link ImpulseRejector}'s test). */
+    private float largestBend;
+    /** Neighbouring samples exactly equal, as they came: without any, nothing in the block is flat. */
+    private int equalPairs;
+
+    /**
+     * {@code out[i] = s[b+i] − hum − zero} for the block, with the extremes and the sum of the
+     * samples less hum (four independent accumulators keep the loop free of long dependency chains).
+     */
+    private void condition(float[] s, int b, int length, float[] out, float zero, int phase) {
+        if (hum == null) {
+            conditionPlain(s, b, length, out, zero);
+            return;
+        }
+        float[] t = hum.table();
+        int step = hum.step();
+        int p = phase;
+        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
+        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
+        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
+        int i = 0;
+        for (int last = length - 3; i < last; i += 4) {
+            float x0 = s[b + i] - t[p >>> HumCanceller.SHIFT];
+            float x1 = s[b + i + 1] - t[(p + step) >>> HumCanceller.SHIFT];
+            float x2 = s[b + i + 2] - t[(p + 2 * step) >>> HumCanceller.SHIFT];
+            float x3 = s[b + i + 3] - t[(p + 3 * step) >>> HumCanceller.SHIFT];
+            p += 4 * step;
+            max0 = x0 > max0 ? x0 : max0;
+            max1 = x1 > max1 ? x1 : max1;
+            max2 = x2 > max2 ? x2 : max2;
+            max3 = x3 > max3 ? x3 : max3;
+            min0 = x0 < min0 ? x0 : min0;
+            min1 = x1 < min1 ? x1 : min1;
+            min2 = x2 < min2 ? x2 : min2;
+            min3 = x3 < min3 ? x3 : min3;
+            sum0 += x0;
+            sum1 += x1;
+            sum2 += x2;
+            sum3 += x3;
+            out[i] = x0 - zero;
+            out[i + 1] = x1 - zero;
+            out[i + 2] = x2 - zero;
+            out[i + 3] = x3 - zero;
+        }
+        for (; i < length; i++) {
+            float x = s[b + i] - t[p >>> HumCanceller.SHIFT];
+            p += step;
+            max0 = x > max0 ? x : max0;
+            min0 = x < min0 ? x : min0;
+            sum0 += x;
+            out[i] = x - zero;
+        }
+        keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
+    }
+
+    private void conditionPlain(float[] s, int b, int length, float[] out, float zero) {
+        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
+        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
+        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
+        int i = 0;
+        for (int last = length - 3; i < last; i += 4) {
+            float x0 = s[b + i];
+            float x1 = s[b + i + 1];
+            float x2 = s[b + i + 2];
+            float x3 = s[b + i + 3];
+            max0 = x0 > max0 ? x0 : max0;
+            max1 = x1 > max1 ? x1 : max1;
+            max2 = x2 > max2 ? x2 : max2;
+            max3 = x3 > max3 ? x3 : max3;
+            min0 = x0 < min0 ? x0 : min0;
+            min1 = x1 < min1 ? x1 : min1;
+            min2 = x2 < min2 ? x2 : min2;
+            min3 = x3 < min3 ? x3 : min3;
+            sum0 += x0;
+            sum1 += x1;
+            sum2 += x2;
+            sum3 += x3;
+            out[i] = x0 - zero;
+            out[i + 1] = x1 - zero;
+            out[i + 2] = x2 - zero;
+            out[i + 3] = x3 - zero;
+        }
+        for (; i < length; i++) {
+            float x = s[b + i];
+            max0 = x > max0 ? x : max0;
+            min0 = x < min0 ? x : min0;
+            sum0 += x;
+            out[i] = x - zero;
+        }
+        keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
+    }
+
+    /**
+     * {@link #condition} over {@link #work}, which holds a sample before the block and the look-ahead
+     * after it, that also takes the largest bend of the samples as they came, at {@code b+1 ..
+     * b+length} (where {@link ImpulseRejector#reject} would look for impulses), and counts exactly
+     * equal neighbours among them.
+     */
+    private void conditionWithBends(float[] s, int b, int length, float[] out, float zero, int phase) {
+        float[] t = hum == null ? NO_HUM : hum.table();
+        int step = hum == null ? 0 : hum.step();
+        int p = phase;
+        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
+        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
+        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
+        // Math.abs is one and-instruction; a new largest bend is rare, so the compare-and-keep is a
+        // well-predicted branch where Math.max would pay for its NaN handling on every sample
+        float m0 = 0f, m1 = 0f, m2 = 0f, m3 = 0f;
+        int equal = 0;
+        int i = 0;
+        for (int last = length - 3; i < last; i += 4) {
+            float r0 = s[b + i];
+            float r1 = s[b + i + 1];
+            float r2 = s[b + i + 2];
+            float r3 = s[b + i + 3];
+            float r4 = s[b + i + 4];
+            float d0 = Math.abs(r1 - 2f * r0 + s[b + i - 1]);
+            float d1 = Math.abs(r2 - 2f * r1 + r0);
+            float d2 = Math.abs(r3 - 2f * r2 + r1);
+            float d3 = Math.abs(r4 - 2f * r3 + r2);
+            if (d0 > m0) {
+                m0 = d0;
+            }
+            if (d1 > m1) {
+                m1 = d1;
+            }
+            if (d2 > m2) {
+                m2 = d2;
+            }
+            if (d3 > m3) {
+                m3 = d3;
+            }
+            equal += (r0 == r1 ? 1 : 0) + (r1 == r2 ? 1 : 0) + (r2 == r3 ? 1 : 0) + (r3 == r4 ? 1 : 0);
+            float x0 = r0 - t[p >>> HumCanceller.SHIFT];
+            float x1 = r1 - t[(p + step) >>> HumCanceller.SHIFT];
+            float x2 = r2 - t[(p + 2 * step) >>> HumCanceller.SHIFT];
+            float x3 = r3 - t[(p + 3 * step) >>> HumCanceller.SHIFT];
+            p += 4 * step;
+            max0 = x0 > max0 ? x0 : max0;
+            max1 = x1 > max1 ? x1 : max1;
+            max2 = x2 > max2 ? x2 : max2;
+            max3 = x3 > max3 ? x3 : max3;
+            min0 = x0 < min0 ? x0 : min0;
+            min1 = x1 < min1 ? x1 : min1;
+            min2 = x2 < min2 ? x2 : min2;
+            min3 = x3 < min3 ? x3 : min3;
+            sum0 += x0;
+            sum1 += x1;
+            sum2 += x2;
+            sum3 += x3;
+            out[i] = x0 - zero;
+            out[i + 1] = x1 - zero;
+            out[i + 2] = x2 - zero;
+            out[i + 3] = x3 - zero;
+        }
+        for (; i < length; i++) {
+            float r = s[b + i];
+            float next = s[b + i + 1];
+            float d = Math.abs(next - 2f * r + s[b + i - 1]);
+            if (d > m0) {
+                m0 = d;
+            }
+            equal += r == next ? 1 : 0;
+            float x = r - t[p >>> HumCanceller.SHIFT];
+            p += step;
+            max0 = x > max0 ? x : max0;
+            min0 = x < min0 ? x : min0;
+            sum0 += x;
+            out[i] = x - zero;
+        }
+        keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
+        largestBend = Math.max(Math.max(m0, m1), Math.max(m2, m3));
+        equalPairs = equal;
+    }
+
+    private void keep(float max0, float max1, float max2, float max3, float min0, float min1, float min2, float min3,
+                      float sum0, float sum1, float sum2, float sum3) {
+        blockMax = Math.max(Math.max(max0, max1), Math.max(max2, max3));
+        blockMin = Math.min(Math.min(min0, min1), Math.min(min2, min3));
+        blockSum = (sum0 + sum1) + (sum2 + sum3);
     }
 
     /**
@@ -297,12 +470,20 @@ public final class Conditioner {
      * in fine int16 steps, where noise made three samples read the same count) is a coincidence, not a
      * rail. Reported as {@code OVER_RANGE}.
      */
-    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max, boolean exact) {
+    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max, boolean exact,
+                             boolean equalNeighbours) {
         int run = clipRun;
         float value = clipValue;
         float level = clipLevel;
         if (max < level && min > -level) {
             clipRun = 0;
+            return now;
+        }
+        if (!equalNeighbours && length > 1 && (src[base] != value || run + 1 < clipRunSamples)) {
+            // no two neighbours equal and no run carried on from the last block that its first sample
+            // could lengthen to a flat top: every run in the block is one sample long
+            clipRun = 1;
+            clipValue = src[base + length - 1];
             return now;
         }
         float high = max;
@@ -556,6 +737,23 @@ public final class Conditioner {
     public float humSettlingNm() {
         return settlingNm;
     }
+
+    /**
+     * The largest sample of the block last conditioned, as {@link #process} wrote it out, N·m; NaN
+     * when it is not known without looking (a low-pass filter ran over it, or a non-finite sample was
+     * repaired). With {@link #conditionedLow()} it lets an idle block be passed over whole.
+     */
+    public float conditionedHigh() {
+        return outHigh;
+    }
+
+    /** The smallest sample of the block last conditioned, as written out, N·m; NaN as for {@link #conditionedHigh()}. */
+    public float conditionedLow() {
+        return outLow;
+    }
+
+    private float outHigh = Float.NaN;
+    private float outLow = Float.NaN;
 
     /** {@link #humSettlingNm()} of the block last conditioned. */
     private float settlingNm;

@@ -35,7 +35,8 @@ public final class HumCanceller {
     public static final int MAX_HARMONIC = 5;
     /** Entries in one period of the model. */
     public static final int TABLE = 1024;
-    private static final int SHIFT = 32 - 10;
+    /** The phase (a fraction of 2³²) shifted right by this many bits is the table entry. */
+    static final int SHIFT = 32 - 10;
     /** A learning window, s. */
     public static final double WINDOW_S = 0.1;
     /** Learning samples per second (every {@code stride}-th sample). */
@@ -155,6 +156,26 @@ public final class HumCanceller {
         }
         phase = p;
         return p0;
+    }
+
+    /** The model over one period, indexed by {@code phase >>> SHIFT}: for a caller fusing the subtraction into its own pass. */
+    float[] table() {
+        return table;
+    }
+
+    /** The oscillator's phase at the next sample, as a fraction of 2³². */
+    int phase() {
+        return phase;
+    }
+
+    /** The oscillator's phase step per sample, as a fraction of 2³². */
+    int step() {
+        return step;
+    }
+
+    /** Advances the oscillator over {@code length} samples, as {@link #subtract} does. */
+    void advance(int length) {
+        phase += length * step;
     }
 
     /**

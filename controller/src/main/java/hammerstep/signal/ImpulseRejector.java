@@ -58,6 +58,11 @@ public final class ImpulseRejector {
         return maxWidth + 4;
     }
 
+    /** The smallest departure that counts as an impulse, N·m. */
+    public float level() {
+        return level;
+    }
+
     public int maxWidth() {
         return maxWidth;
     }
