@@ -158,14 +158,11 @@ public final class Conditioner {
         // one pass: hum subtracted, extremes and sum taken, zero subtracted; with impulse rejection on,
         // the same pass finds the largest bend, and only a block that bends as sharply as an impulse
         // (rare: a strike's crest bends far less) has its impulses replaced and is passed over again
-        boolean equalNeighbours = true;
         if (rejector != null && length > 0) {
             conditionWithBends(src, base, length, out, zero, humPhase);
-            equalNeighbours = equalPairs > 0;
             if (largestBend >= rejector.level()) {
                 rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, base + length + 1);
                 condition(src, base, length, out, zero, humPhase);
-                equalNeighbours = true;
             }
             System.arraycopy(work, length, tail, 0, tail.length);
         } else {
@@ -191,9 +188,8 @@ public final class Conditioner {
         if (clipLevel > 0 && length > 0) {
             // the flat-top check looks at the samples as they came: a rail is flat, the rail less hum
             // is not; without hum subtraction the block's extremes are those of the samples as they came
-            now = hum == null ? checkFlatTop(now, src, base, length, min, max, true, equalNeighbours)
-                    : checkFlatTop(now, src, base, length, min - hum.amplitudeNm(), max + hum.amplitudeNm(), false,
-                            equalNeighbours);
+            now = hum == null ? checkFlatTop(now, src, base, length, min, max, true)
+                    : checkFlatTop(now, src, base, length, min - hum.amplitudeNm(), max + hum.amplitudeNm(), false);
         }
         now = checkFlatLine(now, min, max, length);
         boolean quiet = false;
@@ -282,8 +278,6 @@ public final class Conditioner {
     private float blockSum;
     /** The largest |second difference| of the samples as they came ({@link ImpulseRejector}'s test). */
     private float largestBend;
-    /** Neighbouring samples exactly equal, as they came: without any, nothing in the block is flat. */
-    private int equalPairs;
 
     /**
      * {@code out[i] = s[b+i] − hum − zero} for the block, with the extremes and the sum of the
@@ -375,8 +369,7 @@ public final class Conditioner {
     /**
      * {@link #condition} over {@link #work}, which holds a sample before the block and the look-ahead
      * after it, that also takes the largest bend of the samples as they came, at {@code b+1 ..
-     * b+length} (where {@link ImpulseRejector#reject} would look for impulses), and counts exactly
-     * equal neighbours among them.
+     * b+length} (where {@link ImpulseRejector#reject} would look for impulses).
      */
     private void conditionWithBends(float[] s, int b, int length, float[] out, float zero, int phase) {
         float[] t = hum == null ? NO_HUM : hum.table();
@@ -388,7 +381,6 @@ public final class Conditioner {
         // Math.abs is one and-instruction; a new largest bend is rare, so the compare-and-keep is a
         // well-predicted branch where Math.max would pay for its NaN handling on every sample
         float m0 = 0f, m1 = 0f, m2 = 0f, m3 = 0f;
-        int equal = 0;
         int i = 0;
         for (int last = length - 3; i < last; i += 4) {
             float r0 = s[b + i];
@@ -412,7 +404,6 @@ public final class Conditioner {
             if (d3 > m3) {
                 m3 = d3;
             }
-            equal += (r0 == r1 ? 1 : 0) + (r1 == r2 ? 1 : 0) + (r2 == r3 ? 1 : 0) + (r3 == r4 ? 1 : 0);
             float x0 = r0 - t[p >>> HumCanceller.SHIFT];
             float x1 = r1 - t[(p + step) >>> HumCanceller.SHIFT];
             float x2 = r2 - t[(p + 2 * step) >>> HumCanceller.SHIFT];
@@ -442,7 +433,6 @@ public final class Conditioner {
             if (d > m0) {
                 m0 = d;
             }
-            equal += r == next ? 1 : 0;
             float x = r - t[p >>> HumCanceller.SHIFT];
             p += step;
             max0 = x > max0 ? x : max0;
@@ -452,7 +442,6 @@ public final class Conditioner {
         }
         keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
         largestBend = Math.max(Math.max(m0, m1), Math.max(m2, m3));
-        equalPairs = equal;
     }
 
     private void keep(float max0, float max1, float max2, float max3, float min0, float min1, float min2, float min3,
@@ -470,20 +459,10 @@ public final class Conditioner {
      * in fine int16 steps, where noise made three samples read the same count) is a coincidence, not a
      * rail. Reported as {@code OVER_RANGE}.
      */
-    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max, boolean exact,
-                             boolean equalNeighbours) {
-        int run = clipRun;
-        float value = clipValue;
+    private int checkFlatTop(int now, float[] src, int base, int length, float min, float max, boolean exact) {
         float level = clipLevel;
         if (max < level && min > -level) {
             clipRun = 0;
-            return now;
-        }
-        if (!equalNeighbours && length > 1 && (src[base] != value || run + 1 < clipRunSamples)) {
-            // no two neighbours equal and no run carried on from the last block that its first sample
-            // could lengthen to a flat top: every run in the block is one sample long
-            clipRun = 1;
-            clipValue = src[base + length - 1];
             return now;
         }
         float high = max;
@@ -497,28 +476,44 @@ public final class Conditioner {
                 low = v < low ? v : low;
             }
         }
-        float flatHigh = Float.NaN;
-        float flatLow = Float.NaN;
-        for (int i = 0; i < length; i++) {
-            float v = src[base + i];
-            if (v == value) {
-                if (++run >= clipRunSamples) {
-                    if (v >= level && !(v <= flatHigh)) {
-                        flatHigh = v;
-                    } else if (v <= -level && !(v >= flatLow)) {
-                        flatLow = v;
-                    }
-                }
-            } else {
-                value = v;
-                run = 1;
+        // only the block's largest magnitude can be a rail: nothing passes a rail
+        float extreme = high > -low ? high : -low;
+        boolean flat = high >= level && high >= extreme && flatAt(src, base, length, high)
+                || low <= -level && -low >= extreme && flatAt(src, base, length, low);
+        // carried on: the run of equal samples the block ends with
+        int end = base + length - 1;
+        float last = src[end];
+        int k = end - 1;
+        while (k >= base && src[k] == last) {
+            k--;
+        }
+        int trailing = end - k;
+        clipRun = trailing == length && last == clipValue ? clipRun + length : trailing;
+        clipValue = last;
+        return flat ? now | SignalFaults.OVER_RANGE : now;
+    }
+
+    /**
+     * Whether {@code value} stands {@code clipRunSamples} times in a row in the block, a run at its
+     * start lengthened by the one the last block ended with.
+     */
+    private boolean flatAt(float[] src, int base, int length, float value) {
+        int end = base + length;
+        int i = base;
+        while (i < end) {
+            while (i < end && src[i] != value) {
+                i++;
+            }
+            int start = i;
+            while (i < end && src[i] == value) {
+                i++;
+            }
+            int run = i - start + (start == base && value == clipValue ? clipRun : 0);
+            if (run >= clipRunSamples) {
+                return true;
             }
         }
-        clipRun = run;
-        clipValue = value;
-        float extreme = high > -low ? high : -low;
-        boolean flat = flatHigh >= extreme || -flatLow >= extreme;
-        return flat ? now | SignalFaults.OVER_RANGE : now;
+        return false;
     }
 
     /**
