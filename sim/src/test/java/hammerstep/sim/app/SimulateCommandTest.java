@@ -38,6 +38,24 @@ class SimulateCommandTest {
     }
 
     @Test
+    void theDogClutchPresetsRunByNameForwardAndInReverse(@TempDir Path dir) throws Exception {
+        for (String tool : new String[] {"air-rocking-dog", "air-three-jaw", "air-twin-pin-oil-bath"}) {
+            for (boolean reverse : new boolean[] {false, true}) {
+                Path truthFile = dir.resolve(tool + reverse + ".json");
+                String[] args = {"simulate", "--tool", tool, "--joint", "wheel-stud-m14", "--rate", "20000",
+                        "--hold-ms", "500", "--gap-ms", "200", "--count-above", "100",
+                        "--out", dir.resolve(tool + ".csv").toString(), "--truth", truthFile.toString()};
+                assertThat(run(reverse ? concat(args, "--reverse") : args)).as(tool).isZero();
+                JsonNode rundown = new ObjectMapper().readTree(truthFile.toFile()).get("rundowns").get(0);
+                assertThat(rundown.get("blows").asInt()).as(tool).isGreaterThan(3);
+                assertThat(rundown.get("direction").asText()).isEqualTo(reverse ? "loosen" : "tighten");
+                double firstPeak = rundown.get("peaks_nm").get(0).asDouble();
+                assertThat(reverse ? -firstPeak : firstPeak).as(tool).isGreaterThan(100);
+            }
+        }
+    }
+
+    @Test
     void aBadPresetFileIsOneLineWithItsPlaceAndExitTwo(@TempDir Path dir) throws Exception {
         Path joint = dir.resolve("joint.yaml");
         Files.writeString(joint, "prevailing_torque_nm: -1\n");
