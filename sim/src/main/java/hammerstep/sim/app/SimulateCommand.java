@@ -4,6 +4,8 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import hammerstep.app.UserError;
 import hammerstep.config.ConfigException;
+import hammerstep.joint.JointProgram;
+import hammerstep.joint.ProgramFile;
 import hammerstep.sim.physics.JointSpec;
 import hammerstep.sim.physics.Presets;
 import hammerstep.sim.physics.Rig;
@@ -28,7 +30,10 @@ import java.util.concurrent.Callable;
 @Command(name = "simulate", mixinStandardHelpOptions = true,
         description = {"Simulates rundowns of a tool on a joint and writes the transducer trace and the ground truth.",
                 "Each rundown: the trigger held --hold-ms, released, then --gap-ms of quiet; a new fastener each time.",
-                "With --reverse each fastener is first tightened so (not written), then loosened so: the tool in reverse."})
+                "With --reverse each fastener is first tightened so (not written), then loosened so: the tool in reverse.",
+                "With --program the station's relay stops the tool when a blow reaches the program's shutoff_at, and the",
+                "operator lets go of the trigger --reaction-ms later; --hold-ms is then the longest hold.",
+                "Runs longer than a second show a progress line on stderr when it is a terminal."})
 public final class SimulateCommand implements Callable<Integer> {
 
     static final int BLOCK = 4096;
@@ -77,6 +82,14 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--reverse", description = "the tool in reverse: loosen each fastener after tightening it unrecorded")
     boolean reverse;
 
+    @Option(names = "--program", paramLabel = "FILE",
+            description = "joint program: its shutoff_at stops the tool through the station's relay (default: hold --hold-ms)")
+    Path program;
+
+    @Option(names = "--reaction-ms", paramLabel = "MS", defaultValue = "200",
+            description = "with --program: the operator lets go of the trigger this long after the shut-off (default: ${DEFAULT-VALUE}, a simple reaction time)")
+    double reactionMs;
+
     @Option(names = "--out", required = true, paramLabel = "FILE", description = "trace to write: CSV (time_s,torque_nm), or raw float32 N·m if FILE ends in .f32")
     Path out;
 
@@ -94,6 +107,13 @@ public final class SimulateCommand implements Callable<Integer> {
         if (!(holdMs > 0) || !(gapMs >= 0) || !(leadMs >= 0) || holdMs > 600_000) {
             throw new UserError("--hold-ms must be positive (at most 600000); --gap-ms and --lead-ms not negative");
         }
+        if (!(reactionMs >= 0 && reactionMs <= 5000)) {
+            throw new UserError("--reaction-ms " + reactionMs + ": expected 0 to 5000");
+        }
+        if (program != null && reverse) {
+            throw new UserError("--program stops a tightening at its shutoff_at; it does not apply to --reverse");
+        }
+        JointProgram jointProgram = program == null ? null : ProgramFile.load(program);
         ToolSpec toolSpec = Presets.tool(tool);
         JointSpec jointSpec = Presets.joint(joint);
         TransducerSpec transducerSpec = Presets.transducer(transducer);
@@ -114,11 +134,17 @@ public final class SimulateCommand implements Callable<Integer> {
         if (reverse) {
             meta.put("direction", "loosen");
         }
+        RelayOperator relay = null;
+        if (jointProgram != null) {
+            meta.put("program", jointProgram.id());
+            relay = new RelayOperator(jointProgram, rateHz);
+        }
+        Progress progress = Progress.onStderr(rundowns);
         List<Map<String, Object>> results = new ArrayList<>();
         long skippedSamples = 0;
         float[] block = new float[BLOCK];
         try (TraceWriter writer = new TraceWriter(out, rateHz, meta)) {
-            run(rig, writer, block, samplesFor(leadMs));
+            run(rig, writer, block, samplesFor(leadMs), relay);
             for (int r = 0; r < rundowns; r++) {
                 if (r > 0) {
                     rig.newFastener(jointSpec);
@@ -136,12 +162,29 @@ public final class SimulateCommand implements Callable<Integer> {
                 }
                 double startS = (rig.samplesElapsed() - skippedSamples) / rateHz;
                 rig.setTrigger(true);
-                run(rig, writer, block, samplesFor(holdMs));
+                long crossing = -1;
+                if (relay == null) {
+                    run(rig, writer, block, samplesFor(holdMs), null);
+                } else {
+                    crossing = holdUntilShutoff(rig, writer, block, samplesFor(holdMs), relay);
+                }
+                long releasedAt = rig.samplesElapsed();
                 rig.setTrigger(false);
-                run(rig, writer, block, samplesFor(gapMs));
-                results.add(Truth.rundown(rig, startS, firstBlow, skippedSamples / rateHz));
+                rig.setEnabled(true);
+                run(rig, writer, block, samplesFor(gapMs), relay);
+                Map<String, Object> truthRundown = Truth.rundown(rig, startS, firstBlow, skippedSamples / rateHz);
+                if (relay != null) {
+                    truthRundown.put("shutoff_s", crossing < 0 ? null : Truth.round(crossing / rateHz, 1e6));
+                    truthRundown.put("trigger_released_s", Truth.round(releasedAt / rateHz, 1e6));
+                }
+                results.add(truthRundown);
+                progress.update(r + 1);
             }
         }
+        if (relay != null) {
+            relay.finish();
+        }
+        progress.finish(rundowns);
         Map<String, Object> doc = new LinkedHashMap<>();
         doc.put("tool", toolSpec.name());
         doc.put("joint", jointSpec.name());
@@ -150,6 +193,11 @@ public final class SimulateCommand implements Callable<Integer> {
         doc.put("seed", seed);
         doc.put("count_above_nm", countAboveNm);
         doc.put("direction", reverse ? "loosen" : "tighten");
+        if (jointProgram != null) {
+            doc.put("program", jointProgram.id());
+            doc.put("shutoff_at_nm", jointProgram.hasShutoff() ? jointProgram.shutoffAtNm() : null);
+            doc.put("reaction_ms", reactionMs);
+        }
         doc.put("rundowns", results);
         new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(truth.toFile(), doc);
         return 0;
@@ -169,13 +217,59 @@ public final class SimulateCommand implements Callable<Integer> {
         }
     }
 
-    private static void run(Rig rig, TraceWriter writer, float[] block, long samples) throws IOException {
+    /** Advances the rig by {@code samples}, writing them, and feeding them to the relay's chain if there is one. */
+    private static void run(Rig rig, TraceWriter writer, float[] block, long samples, RelayOperator relay)
+            throws IOException {
         long left = samples;
         while (left > 0) {
             int n = (int) Math.min(block.length, left);
+            long first = rig.samplesElapsed();
             rig.fill(block, 0, n);
             writer.write(block, 0, n);
+            if (relay != null) {
+                feed(relay, block, n, first);
+            }
             left -= n;
+        }
+    }
+
+    /**
+     * The trigger held for at most {@code samples}, in blocks of {@link RelayOperator#BLOCK}: when a
+     * sample reaches {@code shutoff_at}, tool enable drops at the end of that block (the relay), and the
+     * hold ends {@code --reaction-ms} after the crossing (the operator lets go). Returns the crossing
+     * sample, or -1 when the rundown never reached it.
+     */
+    private long holdUntilShutoff(Rig rig, TraceWriter writer, float[] block, long samples, RelayOperator relay)
+            throws IOException {
+        relay.nextRundown();
+        long end = rig.samplesElapsed() + samples;
+        long reaction = samplesFor(reactionMs);
+        while (rig.samplesElapsed() < end) {
+            long crossing = relay.crossingSample();
+            if (crossing >= 0) {
+                end = Math.min(end, crossing + reaction);
+                if (rig.samplesElapsed() >= end) {
+                    break;
+                }
+            }
+            int n = (int) Math.min(RelayOperator.BLOCK, end - rig.samplesElapsed());
+            long first = rig.samplesElapsed();
+            rig.fill(block, 0, n);
+            writer.write(block, 0, n);
+            relay.onSamples(block, n, first);
+            if (relay.crossingSample() >= 0) {
+                rig.setEnabled(false);
+            }
+        }
+        return relay.crossingSample();
+    }
+
+    private static void feed(RelayOperator relay, float[] block, int n, long firstSample) {
+        float[] slice = relay.slice();
+        for (int i = 0; i < n; i += RelayOperator.BLOCK) {
+            int m = Math.min(RelayOperator.BLOCK, n - i);
+            System.arraycopy(block, i, slice, 0, m);
+            relay.onSamples(slice, m, firstSample + i);
         }
     }
 

@@ -14,7 +14,8 @@ package hammerstep.sim.physics;
  *
  * <p>The mechanism books the work its drive does; the rig books the work done on the train. Single-threaded; allocation-free after construction.
  */
-abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPulseMechanism {
+abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPulseMechanism,
+        ClutchMechanism {
 
     protected final Drive drive;
     /** Stiffness of the train from the striking face to the nut, transducer shaft included. */
@@ -41,6 +42,9 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
         }
         if (spec instanceof MechanismSpec.TwinHammer t) {
             return new TwinHammerMechanism(t, drive, trainStiffness, dampingRatio);
+        }
+        if (spec instanceof ClutchSpec c) {
+            return ClutchMechanism.of(c, drive, trainStiffness, dampingRatio);
         }
         return new OilPulseMechanism((MechanismSpec.OilPulse) spec, drive, trainStiffness);
     }

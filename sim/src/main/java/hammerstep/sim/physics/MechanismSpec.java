@@ -1,7 +1,8 @@
 package hammerstep.sim.physics;
 
 /** How a tool turns the drive's rotation into blows. */
-public sealed interface MechanismSpec permits MechanismSpec.Cam, MechanismSpec.TwinHammer, MechanismSpec.OilPulse {
+public sealed interface MechanismSpec permits MechanismSpec.Cam, MechanismSpec.TwinHammer, MechanismSpec.OilPulse,
+        ClutchSpec {
 
     /** Strikes per relative revolution of the striking body against the anvil. */
     double strikesPerRev();

@@ -77,7 +77,8 @@ final class PresetReaders {
     }
 
     private static MechanismSpec mechanism(MapReader m) {
-        String type = m.choice("type", "", List.of("cam", "twin-hammer", "oil-pulse"));
+        String type = m.choice("type", "", List.of("cam", "twin-hammer", "oil-pulse",
+                "rocking-dog", "three-jaw", "twin-pin-oil-bath"));
         MechanismSpec spec;
         switch (type) {
             case "cam": {
@@ -124,9 +125,14 @@ final class PresetReaders {
                 spec = new MechanismSpec.OilPulse(jl, pulses, window, k, leak, relief, vent, shear);
                 break;
             }
+            case "rocking-dog":
+            case "three-jaw":
+            case "twin-pin-oil-bath":
+                spec = ClutchReader.read(type, m);
+                break;
             default:
                 if (!m.has("type")) {
-                    m.problem("type", "missing key '" + m.path("type") + "': expected cam, twin-hammer or oil-pulse");
+                    m.problem("type", "missing key '" + m.path("type") + "': expected cam, twin-hammer, oil-pulse, rocking-dog, three-jaw or twin-pin-oil-bath");
                 }
                 spec = new MechanismSpec.TwinHammer(1e-3, 0.5, 10, 3);
                 break;

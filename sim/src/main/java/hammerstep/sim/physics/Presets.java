@@ -20,7 +20,8 @@ import java.util.List;
 public final class Presets {
 
     public static final List<String> TOOLS = List.of(
-            "cordless-two-dog", "cordless-three-dog", "cordless-skip-dog", "air-twin-hammer", "oil-pulse");
+            "cordless-two-dog", "cordless-three-dog", "cordless-skip-dog", "air-twin-hammer", "oil-pulse",
+            "air-rocking-dog", "air-three-jaw", "air-twin-pin-oil-bath");
     public static final List<String> JOINTS = List.of("iso-hard", "iso-soft", "wheel-stud-m14", "flange-m16");
     public static final List<String> TRANSDUCERS = List.of("inline-1000", "inline-300");
     public static final String DEFAULT_TRANSDUCER = "inline-1000";

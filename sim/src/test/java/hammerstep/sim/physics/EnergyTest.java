@@ -9,7 +9,8 @@ class EnergyTest {
 
     /** Work–energy balance: drive work = stored energy + strike losses + work into the joint (textbook mechanics). */
     @ParameterizedTest(name = "{0}: drive work = stored + losses + joint work within 1 %, shrinking with the step (work-energy theorem)")
-    @ValueSource(strings = {"cordless-two-dog", "cordless-three-dog", "cordless-skip-dog", "air-twin-hammer", "oil-pulse"})
+    @ValueSource(strings = {"cordless-two-dog", "cordless-three-dog", "cordless-skip-dog", "air-twin-hammer", "oil-pulse",
+            "air-rocking-dog", "air-three-jaw", "air-twin-pin-oil-bath"})
     void driveWorkBalancesStoredEnergyLossesAndJointWork(String tool) throws Exception {
         Rig.Energy e = run(tool, Rig.MIN_INTERNAL_RATE_HZ);
         assertThat(Math.abs(e.balanceErrorJ())).isLessThan(0.01 * e.driveWorkJ());
