@@ -58,6 +58,14 @@ class HardwareCommandsTest {
     }
 
     @Test
+    void aShuntDeviationThatRoundsToZeroCarriesNoSign() {
+        assertThat(ShuntCheckCommand.signedPercent(-0.004)).isEqualTo("0.00");
+        assertThat(ShuntCheckCommand.signedPercent(0.004)).isEqualTo("0.00");
+        assertThat(ShuntCheckCommand.signedPercent(-0.006)).isEqualTo("-0.01");
+        assertThat(ShuntCheckCommand.signedPercent(0.25)).isEqualTo("+0.25");
+    }
+
+    @Test
     void checkAcceptsTheExampleStation() {
         Captured run = Captured.run("check", STATION, "../config/patterns");
 
