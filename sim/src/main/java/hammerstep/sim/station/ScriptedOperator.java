@@ -4,7 +4,10 @@ import hammerstep.station.LampMode;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.TowerLamp;
 
+import java.util.Collections;
+import java.util.EnumMap;
 import java.util.List;
+import java.util.Map;
 import java.util.SplittableRandom;
 
 /**
@@ -43,6 +46,7 @@ public final class ScriptedOperator {
     private long toolStoppedNs = Long.MIN_VALUE;
 
     private int mistakes;
+    private final Map<Mistake, Integer> mistakesByKind = new EnumMap<>(Mistake.class);
     private int socketAt = -1;
     private boolean poweredSeen;
     private int blowsAtStart;
@@ -67,6 +71,28 @@ public final class ScriptedOperator {
     /** Mistakes made so far (each drawn habit that fired). */
     public int mistakes() {
         return mistakes;
+    }
+
+    /** The mistakes made so far by kind, in the order of the habits; kinds never made are left out. */
+    public Map<Mistake, Integer> mistakesByKind() {
+        return Collections.unmodifiableMap(mistakesByKind);
+    }
+
+    /** The kinds of mistake, named as the station file's {@code operator.mistakes} keys. */
+    public enum Mistake {
+        SKIP("skip"), REHIT("rehit"), RELEASE_EARLY("release_early"), HOLD_TOO_LONG("hold_too_long"),
+        FORGET_ACK("forget_ack"), LOOSEN("loosen");
+
+        private final String key;
+
+        Mistake(String key) {
+            this.key = key;
+        }
+
+        /** The habit's key in the station file. */
+        public String key() {
+            return key;
+        }
     }
 
     public void onTick(long nowNs) {
@@ -186,19 +212,19 @@ public final class ScriptedOperator {
     private void prompt(int lit, long now) {
         int go = lit;
         loosenNow = false;
-        if (lastDone >= 0 && draw(habits.loosen())) {
+        if (lastDone >= 0 && draw(Mistake.LOOSEN, habits.loosen())) {
             go = lastDone;
             loosenNow = true;
-        } else if (lastDone >= 0 && draw(habits.rehit())) {
+        } else if (lastDone >= 0 && draw(Mistake.REHIT, habits.rehit())) {
             go = lastDone;
-        } else if (positions > 1 && draw(habits.skip())) {
+        } else if (positions > 1 && draw(Mistake.SKIP, habits.skip())) {
             go = (lit + 1) % positions;
         }
         lastDone = -1;
         target = go;
-        releaseEarlyNow = draw(habits.releaseEarly());
+        releaseEarlyNow = draw(Mistake.RELEASE_EARLY, habits.releaseEarly());
         earlyBlows = 1 + random.nextInt(2);
-        holdLongNow = draw(habits.holdTooLong());
+        holdLongNow = draw(Mistake.HOLD_TOO_LONG, habits.holdTooLong());
         doing = Doing.MOVING;
         wait(now, habits.reactionMs() + (go != socketAt ? habits.moveMs() : 0));
     }
@@ -271,7 +297,7 @@ public final class ScriptedOperator {
         switch (reworkStage) {
             case 0 -> {
                 reworkStage = 1;
-                if (draw(habits.forgetAck())) {
+                if (draw(Mistake.FORGET_ACK, habits.forgetAck())) {
                     wait(now, habits.forgetAckMs());
                 } else {
                     wait(now, habits.reactionMs());
@@ -300,10 +326,11 @@ public final class ScriptedOperator {
         untilNs = now + (long) (ms * 1e6);
     }
 
-    private boolean draw(double p) {
+    private boolean draw(Mistake kind, double p) {
         boolean hit = p > 0 && random.nextDouble() < p;
         if (hit) {
             mistakes++;
+            mistakesByKind.merge(kind, 1, Integer::sum);
         }
         return hit;
     }
