@@ -112,7 +112,7 @@ public final class ScriptedOperator {
             case PRESSING -> {
                 station.pressAcknowledge(false);
                 doing = Doing.LOOKING;
-                wait(nowNs, 0.5 * habits.reactionMs());
+                busyFor(nowNs, 0.5 * habits.reactionMs());
             }
             case WAITING_SUPERVISOR -> {
                 station.turnKey(true);
@@ -123,12 +123,12 @@ public final class ScriptedOperator {
                 station.turnKey(false);
                 reworkStage = 0;
                 doing = Doing.LOOKING;
-                wait(nowNs, habits.reactionMs());
+                busyFor(nowNs, habits.reactionMs());
             }
             case LOADING -> {
                 station.scan(parts.get(nextPart++));
                 doing = Doing.LOOKING;
-                wait(nowNs, 2 * habits.reactionMs());
+                busyFor(nowNs, 2 * habits.reactionMs());
             }
             default -> { }
         }
@@ -172,7 +172,7 @@ public final class ScriptedOperator {
                 partLoaded = true;
                 lastDone = -1;
                 doing = Doing.LOADING;
-                wait(now, habits.reactionMs());
+                busyFor(now, habits.reactionMs());
             } else {
                 doing = Doing.DONE;
             }
@@ -184,7 +184,7 @@ public final class ScriptedOperator {
         socketAt = -1;
         station.removePart();
         partLoaded = false;
-        wait(now, 2 * habits.reactionMs());
+        busyFor(now, 2 * habits.reactionMs());
     }
 
     private boolean allPositionsSteady(long now) {
@@ -226,7 +226,7 @@ public final class ScriptedOperator {
         earlyBlows = 1 + random.nextInt(2);
         holdLongNow = draw(Mistake.HOLD_TOO_LONG, habits.holdTooLong());
         doing = Doing.MOVING;
-        wait(now, habits.reactionMs() + (go != socketAt ? habits.moveMs() : 0));
+        busyFor(now, habits.reactionMs() + (go != socketAt ? habits.moveMs() : 0));
     }
 
     private void startTightening(long now) {
@@ -262,7 +262,7 @@ public final class ScriptedOperator {
             if (now - startedNs >= 1_000_000_000L) { // the tool does not run here: let go and look again
                 station.pullTrigger(false);
                 doing = Doing.RELEASED;
-                wait(now, habits.reactionMs());
+                busyFor(now, habits.reactionMs());
             }
             return;
         }
@@ -288,7 +288,7 @@ public final class ScriptedOperator {
             station.pullTrigger(false);
             lastDone = loosenNow ? -1 : target;
             doing = Doing.RELEASED;
-            wait(now, habits.reactionMs());
+            busyFor(now, habits.reactionMs());
         }
     }
 
@@ -298,9 +298,9 @@ public final class ScriptedOperator {
             case 0 -> {
                 reworkStage = 1;
                 if (draw(Mistake.FORGET_ACK, habits.forgetAck())) {
-                    wait(now, habits.forgetAckMs());
+                    busyFor(now, habits.forgetAckMs());
                 } else {
-                    wait(now, habits.reactionMs());
+                    busyFor(now, habits.reactionMs());
                 }
             }
             case 1 -> {
@@ -318,10 +318,11 @@ public final class ScriptedOperator {
 
     private void callSupervisor(long now) {
         doing = Doing.WAITING_SUPERVISOR;
-        wait(now, habits.supervisorMs());
+        busyFor(now, habits.supervisorMs());
     }
 
-    private void wait(long now, double meanMs) {
+    /** The operator is busy (noticing, moving, waiting for the supervisor) for about {@code meanMs}, scattered ±40 %. */
+    private void busyFor(long now, double meanMs) {
         double ms = meanMs * (0.6 + 0.8 * random.nextDouble());
         untilNs = now + (long) (ms * 1e6);
     }
