@@ -48,7 +48,7 @@ class HardwareCommandsTest {
     }
 
     @Test
-    @DisplayName("shunt-check expects 0.8735 mV/V for 100 kΩ on a 350 Ω arm and measures it on the mock (CHECKS.md)")
+    @DisplayName("shunt-check expects 0.8735 mV/V for 100 kΩ on a 350 Ω arm and measures it on the mock (bridge basics, derived: Vo/E = R / (2R + 4Rs))")
     void shuntCheckAgreesWithTheBridgeFormula() {
         Captured run = Captured.run("shunt-check", "--config", STATION, "--hardware", "mock", "--seconds", "0.2");
 
