@@ -31,7 +31,7 @@ import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
-import hammerstep.station.setup.StationSection;
+import hammerstep.config.StationSection;
 import hammerstep.station.setup.TimingSection;
 
 import java.io.PrintStream;
