@@ -75,12 +75,18 @@ public final class ShuntCheckCommand implements Callable<Integer> {
         double measuredMvPerV = deltaNm / t.fullScaleNm() * t.ratedOutput();
         double errPct = (measuredMvPerV - expectedMvPerV) / expectedMvPerV * 100;
         boolean ok = Math.abs(errPct) <= tolerancePct;
-        System.out.printf(Locale.ROOT, "measured: %.4f mV/V = %.2f N·m (%+.2f %%): %s ±%s %%%n", measuredMvPerV, deltaNm,
-                errPct, ok ? "within" : "OUTSIDE", MeasureOptions.fmt(tolerancePct));
+        System.out.printf(Locale.ROOT, "measured: %.4f mV/V = %.2f N·m (%s %%): %s ±%s %%%n", measuredMvPerV, deltaNm,
+                signedPercent(errPct), ok ? "within" : "OUTSIDE", MeasureOptions.fmt(tolerancePct));
         if (!ok) {
             System.out.println("check the transducer's calibration certificate, the shunt resistor, the cable and the"
                     + " station file's rated output before use");
         }
         return ok ? 0 : 1;
+    }
+
+    /** A deviation with its sign and two decimals; one that rounds to zero reads {@code 0.00}, never {@code -0.00}. */
+    static String signedPercent(double pct) {
+        String s = String.format(Locale.ROOT, "%+.2f", pct);
+        return s.equals("+0.00") || s.equals("-0.00") ? "0.00" : s;
     }
 }

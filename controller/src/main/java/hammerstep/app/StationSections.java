@@ -9,7 +9,7 @@ import hammerstep.results.StorageSettings;
 import hammerstep.station.setup.IdentitySection;
 import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.PartsSection;
-import hammerstep.station.setup.StationSection;
+import hammerstep.config.StationSection;
 import hammerstep.station.setup.TimingSection;
 import hammerstep.trace.TracesSection;
 

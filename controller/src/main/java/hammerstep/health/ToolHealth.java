@@ -13,9 +13,12 @@ import java.util.Map;
  * Watches each tool on each program for a loss of blow rate or blow energy, which is how low
  * supply pressure, a weak battery or a worn hammer shows. Per (tool, program) it learns a
  * baseline over the first {@code baselineJoints} qualifying joints (the median of each figure),
- * then compares the median of the last {@code window} joints with it: a figure whose median falls
- * by {@code dropFraction} or more below its baseline turns WEAK; it turns OK again once the median
- * is back within half that fraction. The median means one or two odd joints trip nothing.
+ * then compares the median of the last {@code window} joints with it. One state per tool and
+ * program, with hysteresis: a figure whose median falls by {@code dropFraction} or more below its
+ * baseline turns the tool WEAK (a further figure that falls while it is WEAK is named in a change of
+ * its own); it turns OK again only once every figure's median is back within half that fraction of
+ * its baseline, above or below (a blow rate far above its baseline, as when a weak hammer strikes
+ * twice per jaw, clears nothing). The median means one or two odd joints trip nothing.
  *
  * <p>Figures per joint: blow rate (blows per minute between the first and last peak), the mean
  * blow peak and the mean blow impulse (∫T dt per blow, N·m·s: the momentum the hammer hands over,
@@ -29,16 +32,23 @@ public final class ToolHealth {
 
     /** What is watched. */
     public enum Figure {
-        BLOW_RATE("blow rate", "/min"),
-        BLOW_PEAK("blow peak", "N·m"),
-        BLOW_IMPULSE("blow impulse", "N·m·s");
+        BLOW_RATE("blow rate", "/min", "%.0f"),
+        BLOW_PEAK("blow peak", "N·m", "%.1f"),
+        BLOW_IMPULSE("blow impulse", "N·m·s", "%.4g");
 
         private final String label;
         private final String unit;
+        private final String format;
 
-        Figure(String label, String unit) {
+        Figure(String label, String unit, String format) {
             this.label = label;
             this.unit = unit;
+            this.format = format;
+        }
+
+        /** The value as events print it, without its unit. */
+        public String format(double value) {
+            return String.format(java.util.Locale.ROOT, format, value);
         }
 
         public String label() {
@@ -70,24 +80,69 @@ public final class ToolHealth {
     }
 
     /**
-     * A figure of a tool on a program turned WEAK ({@code weak}) or OK again.
+     * Where one figure stands: its learned baseline and the median of the last joints.
      *
-     * @param baseline  the learned value
-     * @param recent    the median of the last joints
+     * @param baseline the learned value
+     * @param recent   the median of the last joints
      */
-    public record Change(String tool, String program, Figure figure, boolean weak, double baseline, double recent) {
+    public record Reading(Figure figure, double baseline, double recent) {
 
-        /** Fall of the recent median below the baseline, as a fraction (0.2 = 20 % lower). */
-        public double drop() {
-            return 1 - recent / baseline;
+        /** Change of the recent median against the baseline, as a fraction (−0.2 = 20 % lower, +0.1 = 10 % higher). */
+        public double change() {
+            return recent / baseline - 1;
         }
 
-        /** One line for a person. */
+        /** Fall of the recent median below the baseline, as a fraction (0.2 = 20 % lower; negative when higher). */
+        public double drop() {
+            return -change();
+        }
+
+        /** "blow rate fell 17 % below its baseline (2524 → 2101 /min)", or "rose 39 % above", or "is within 2 % of". */
+        String text(double band) {
+            double pct = 100 * Math.abs(change());
+            String how = Math.abs(change()) < band ? String.format(java.util.Locale.ROOT, "is within %.0f %% of", Math.max(pct, 1))
+                    : change() < 0 ? String.format(java.util.Locale.ROOT, "fell %.0f %% below", pct)
+                    : String.format(java.util.Locale.ROOT, "rose %.0f %% above", pct);
+            return figure.label() + " " + how + " its baseline (" + figure.format(baseline) + " → "
+                    + figure.format(recent) + " " + figure.unit() + ")";
+        }
+    }
+
+    /**
+     * The state of a tool on a program changed, or a further figure fell while it was WEAK.
+     *
+     * @param weak     WEAK (a {@code TOOL_WEAK} event) or OK again ({@code TOOL_OK})
+     * @param moved    WEAK: the figures that fell by the drop fraction or more (new ones only, when the
+     *                 tool was already WEAK); OK: every figure, each back within half the fraction
+     * @param band     half the drop fraction: how near its baseline a figure must be to count as back
+     * @param escalation true when the tool was already WEAK and a further figure fell
+     */
+    public record Change(String tool, String program, boolean weak, List<Reading> moved, double band,
+                         boolean escalation) {
+
+        public Change {
+            moved = List.copyOf(moved);
+        }
+
+        /** The first figure named (the one that moved most, for a WEAK change). */
+        public Figure figure() {
+            return moved.get(0).figure();
+        }
+
+        /** One line for a person, naming each figure with its baseline and its recent median. */
         public String message() {
-            return String.format(java.util.Locale.ROOT, "tool %s on program %s: %s %s %.0f %% below its baseline"
-                            + " (%.4g → %.4g %s)%s", tool, program, figure.label(), weak ? "fell" : "is back,",
-                    100 * drop(), baseline, recent, figure.unit(),
-                    weak ? "; check supply pressure or battery, then the hammer" : "");
+            StringBuilder b = new StringBuilder("tool ").append(tool).append(" on program ").append(program).append(": ");
+            if (!weak) {
+                b.append("every figure back within ").append(String.format(java.util.Locale.ROOT, "%.1f", 100 * band))
+                        .append(" % of its baseline: ");
+            }
+            for (int i = 0; i < moved.size(); i++) {
+                b.append(i == 0 ? "" : ", ").append(moved.get(i).text(band));
+            }
+            if (weak) {
+                b.append(escalation ? " as well" : "").append("; check supply pressure or battery, then the hammer");
+            }
+            return b.toString();
         }
     }
 
@@ -131,7 +186,7 @@ public final class ToolHealth {
         return false;
     }
 
-    /** True while a figure of this tool on this program is WEAK. */
+    /** True while this tool on this program is WEAK and this figure is one of those that fell. */
     public boolean weak(String tool, String program, Figure f) {
         Track t = tracks.get(tool + "\u0000" + program);
         return t != null && t.weak.get(f);
@@ -201,21 +256,44 @@ public final class ToolHealth {
             if (seen < s.window()) {
                 return List.of();
             }
-            List<Change> changes = new ArrayList<>(1);
+            Reading[] now = new Reading[v.length];
             for (Figure f : Figure.values()) {
                 double b = baseline[f.ordinal()];
-                if (!(b > 0)) {
-                    continue;
-                }
-                double m = median(recent[f.ordinal()], s.window());
-                boolean was = weak.get(f);
-                boolean now = was ? m < b * (1 - s.dropFraction() / 2) : m <= b * (1 - s.dropFraction());
-                if (now != was) {
-                    weak.put(f, now);
-                    changes.add(new Change(tool, program, f, now, b, m));
+                now[f.ordinal()] = b > 0 ? new Reading(f, b, median(recent[f.ordinal()], s.window())) : null;
+            }
+            // one state per tool and program: a figure that fell by the fraction raises it (or, when it is
+            // already raised, is named as well); only every figure back within half the fraction, on either
+            // side of its baseline, clears it, so a figure out of band the other way clears nothing
+            List<Reading> fell = new ArrayList<>(v.length);
+            for (Reading r : now) {
+                if (r != null && !weak.get(r.figure()) && r.drop() >= s.dropFraction()) {
+                    fell.add(r);
                 }
             }
-            return changes;
+            if (!fell.isEmpty()) {
+                boolean escalation = anyWeak();
+                fell.sort((a, b) -> Double.compare(b.drop(), a.drop()));
+                for (Reading r : fell) {
+                    weak.put(r.figure(), true);
+                }
+                return List.of(new Change(tool, program, true, fell, s.dropFraction() / 2, escalation));
+            }
+            if (!anyWeak()) {
+                return List.of();
+            }
+            List<Reading> all = new ArrayList<>(v.length);
+            for (Reading r : now) {
+                if (r != null) {
+                    if (Math.abs(r.change()) >= s.dropFraction() / 2) {
+                        return List.of();
+                    }
+                    all.add(r);
+                }
+            }
+            for (Figure f : Figure.values()) {
+                weak.put(f, false);
+            }
+            return List.of(new Change(tool, program, false, all, s.dropFraction() / 2, false));
         }
 
         boolean anyWeak() {

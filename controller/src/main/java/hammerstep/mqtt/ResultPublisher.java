@@ -150,7 +150,12 @@ public final class ResultPublisher implements Agent {
         delivery.restart(Math.max(1, Math.min(settings.inflight(), receiveMax - 2)));
         seqCheck.subscribe(connection.link(), now);
         publishStatus(now);
-        LOG.info("connected to {}; {} results to send", settings.url(), outbox.backlog());
+        if (connection.connects() > 1) {
+            // the loss was a warning: its end is told at the same level, so a reader of warnings sees both
+            LOG.warn("connection to {} is back; {} results to send", settings.url(), outbox.backlog());
+        } else {
+            LOG.info("connected to {}; {} results to send", settings.url(), outbox.backlog());
+        }
     }
 
     private void drop(long now, String cause) {

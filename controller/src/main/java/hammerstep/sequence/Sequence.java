@@ -538,7 +538,7 @@ public final class Sequence {
         } else {
             progress.failed(pos, pass.afterNoGo() == AfterNoGo.SKIP_POSITION);
             reworkRetry = false;
-            records.event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO-GO after "
+            records.event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO_GO after "
                     + tried + (tried == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
                     part.serial(), nowNs);
             if (pass.afterNoGo() == AfterNoGo.REJECT) {
@@ -556,7 +556,7 @@ public final class Sequence {
     }
 
     private void releaseRework(String by, long nowNs) {
-        records.event(StationEvent.Severity.NOTICE, "REWORK_ACKNOWLEDGED", "NO-GO on position " + label(reworkPosition)
+        records.event(StationEvent.Severity.NOTICE, "REWORK_ACKNOWLEDGED", "NO_GO on position " + label(reworkPosition)
                 + " acknowledged by the " + by, part.serial(), nowNs);
         if (reworkRetry) {
             prompted = reworkPosition;

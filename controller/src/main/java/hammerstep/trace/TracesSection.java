@@ -1,7 +1,7 @@
 package hammerstep.trace;
 
 import hammerstep.config.MapReader;
-import hammerstep.station.setup.StationSection;
+import hammerstep.config.StationSection;
 
 import java.nio.file.Path;
 

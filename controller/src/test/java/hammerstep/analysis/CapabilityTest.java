@@ -15,7 +15,7 @@ class CapabilityTest {
 
     /*
      * Worked by hand (Cm = (USL - LSL) / 6s, Cmk = min(USL - mean, mean - LSL) / 3s; VDI/VDE 2645-2
-     * style machine capability, ISO 22514-3 style indices; formulas as in CHECKS.md):
+     * style machine capability (memory), ISO 22514-3 style indices):
      *   final torques 92, 94, 96, 93, 95 N·m, window 80..100 N·m
      *   mean = 470 / 5 = 94.0
      *   deviations -2, 0, 2, -1, 1; squares 4, 0, 4, 1, 1; sum 10

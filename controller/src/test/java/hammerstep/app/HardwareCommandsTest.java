@@ -48,13 +48,21 @@ class HardwareCommandsTest {
     }
 
     @Test
-    @DisplayName("shunt-check expects 0.8735 mV/V for 100 kΩ on a 350 Ω arm and measures it on the mock (CHECKS.md)")
+    @DisplayName("shunt-check expects 0.8735 mV/V for 100 kΩ on a 350 Ω arm and measures it on the mock (bridge basics, derived: Vo/E = R / (2R + 4Rs))")
     void shuntCheckAgreesWithTheBridgeFormula() {
         Captured run = Captured.run("shunt-check", "--config", STATION, "--hardware", "mock", "--seconds", "0.2");
 
         assertThat(run.exit()).as(run.out() + run.err()).isZero();
         assertThat(run.out()).contains("expected: 100000 Ω across a 350 Ω arm gives 0.8735 mV/V = 218.37 N·m of 500 N·m")
                 .contains("measured: 0.873").contains("within ±0.5 %");
+    }
+
+    @Test
+    void aShuntDeviationThatRoundsToZeroCarriesNoSign() {
+        assertThat(ShuntCheckCommand.signedPercent(-0.004)).isEqualTo("0.00");
+        assertThat(ShuntCheckCommand.signedPercent(0.004)).isEqualTo("0.00");
+        assertThat(ShuntCheckCommand.signedPercent(-0.006)).isEqualTo("-0.01");
+        assertThat(ShuntCheckCommand.signedPercent(0.25)).isEqualTo("+0.25");
     }
 
     @Test

@@ -23,11 +23,11 @@ class Ads1256Test {
     }
 
     /*
-     * CHECKS.md (derived): a 24-bit ADC at gain 128 on a 2 mV/V transducer at full scale reads about
+     * Strain-gauge bridge basics (derived): a 24-bit ADC at gain 128 on a 2 mV/V transducer at full scale reads about
      * 2 147 484 counts, ratiometric: 2^23 x 128 x 0.002 = 2 147 483.6. By hand 2 147 484 = 0x20C49C.
      */
     @Test
-    @DisplayName("frame 20 C4 9C reads full scale: 24 bit, gain 128, 2 mV/V ratiometric (CHECKS.md, bridge basics)")
+    @DisplayName("frame 20 C4 9C reads full scale: 24 bit, gain 128, 2 mV/V ratiometric (strain-gauge bridge basics, derived)")
     void frameAtFullScaleReadsRatedTorque() {
         int counts = Ads1256.decode24((byte) 0x20, (byte) 0xC4, (byte) 0x9C);
         Calibration cal = new Calibration(2.0, 500.0, 128, 5.0, 5.0, 24);

@@ -9,6 +9,7 @@ import org.junit.jupiter.api.io.TempDir;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
+import java.util.List;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
@@ -54,8 +55,10 @@ class ToolHealthSectionTest {
 
     @Test
     void aWeakToolIsAWarningEventAndARecoveryANotice() {
-        ToolHealth.Change weak = new ToolHealth.Change("AW-07", "hub", ToolHealth.Figure.BLOW_PEAK, true, 420, 330);
-        ToolHealth.Change ok = new ToolHealth.Change("AW-07", "hub", ToolHealth.Figure.BLOW_PEAK, false, 420, 410);
+        ToolHealth.Change weak = new ToolHealth.Change("AW-07", "hub", true,
+                List.of(new ToolHealth.Reading(ToolHealth.Figure.BLOW_PEAK, 420, 330)), 0.075, false);
+        ToolHealth.Change ok = new ToolHealth.Change("AW-07", "hub", false,
+                List.of(new ToolHealth.Reading(ToolHealth.Figure.BLOW_PEAK, 420, 410)), 0.075, false);
 
         assertThat(ToolHealthEvents.of(weak, "TR-1", Instant.EPOCH)).satisfies(e -> {
             assertThat(e.code()).isEqualTo("TOOL_WEAK");

@@ -174,12 +174,12 @@ class SequenceOperatorViewTest {
         StationEvent failed = events().get(events().size() - 1);
         assertThat(failed.code()).isEqualTo("POSITION_FAILED");
         assertThat(failed.partSerial()).isEqualTo("SN-7");
-        assertThat(failed.message()).isEqualTo("position 3 (C) is NO-GO after 2 attempts in pass snug");
+        assertThat(failed.message()).isEqualTo("position 3 (C) is NO_GO after 2 attempts in pass snug");
         Harness once = new Harness(false);
         once.start(TestPrograms.fourBolt(1, Acknowledge.OPERATOR, AfterNoGo.CONTINUE), "SN-8");
         once.rundown(noGo(SNUG));
         assertThat(once.stored).filteredOn(s -> s instanceof Store.Event).extracting(s -> ((Store.Event) s).event().message())
-                .containsExactly("position 1 (A) is NO-GO after 1 attempt in pass snug");
+                .containsExactly("position 1 (A) is NO_GO after 1 attempt in pass snug");
     }
 
     @Test

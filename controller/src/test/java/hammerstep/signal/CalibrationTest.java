@@ -12,7 +12,7 @@ class CalibrationTest {
     private static final Calibration BRIDGE_24_BIT = new Calibration(2.0, 500.0, 128, 5.0, 5.0, 24);
 
     @Test
-    @DisplayName("24-bit ADC at gain 128 on a 2 mV/V bridge reads about 2 147 484 counts at full scale (strain-gauge bridge basics, derived; CHECKS.md)")
+    @DisplayName("24-bit ADC at gain 128 on a 2 mV/V bridge reads about 2 147 484 counts at full scale (strain-gauge bridge basics: r = counts·Vref / (2^(N−1)·G·Vexc), derived)")
     void fullScaleCountsOfRatiometricBridge() {
         // 2^23 · 128 · 0.002 = 2 147 483.6
         assertThat(BRIDGE_24_BIT.countsAtFullScale()).isCloseTo(2_147_484, within(0.5));

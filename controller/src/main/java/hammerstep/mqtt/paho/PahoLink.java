@@ -248,8 +248,19 @@ public final class PahoLink implements Link {
         if (e instanceof MqttException me) {
             Throwable cause = me.getCause();
             String text = me.getMessage() + " (" + me.getReasonCode() + ")";
-            return cause == null ? text : text + ": " + cause.getMessage();
+            return cause == null ? text : text + ": " + readable(cause);
         }
-        return String.valueOf(e.getMessage());
+        return readable(e);
+    }
+
+    /** An exception's message, or for one without (an end of stream, a reset) what it means. */
+    static String readable(Throwable e) {
+        if (e.getMessage() != null && !e.getMessage().isBlank()) {
+            return e.getMessage();
+        }
+        if (e instanceof java.io.EOFException) {
+            return "the broker closed the connection";
+        }
+        return e.getClass().getSimpleName().replaceAll("(?<=[a-z])(?=[A-Z])", " ").toLowerCase(java.util.Locale.ROOT);
     }
 }

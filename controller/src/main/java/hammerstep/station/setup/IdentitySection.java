@@ -1,6 +1,7 @@
 package hammerstep.station.setup;
 
 import hammerstep.config.MapReader;
+import hammerstep.config.StationSection;
 import hammerstep.results.StationId;
 
 import java.nio.file.Path;

@@ -4,6 +4,7 @@ import hammerstep.config.ConfigException;
 import hammerstep.config.ConfigNode;
 import hammerstep.config.MapReader;
 import hammerstep.config.Problem;
+import hammerstep.config.StationSection;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.PatternFile;
 

@@ -1,5 +1,6 @@
 package hammerstep.station.setup;
 
+import hammerstep.config.StationSection;
 import java.nio.file.Path;
 import java.util.Map;
 

@@ -5,6 +5,7 @@ import hammerstep.config.ConfigNode;
 import hammerstep.config.MapReader;
 import hammerstep.config.Problem;
 import hammerstep.config.Problems;
+import hammerstep.config.StationSection;
 import hammerstep.config.YamlDocument;
 
 import java.nio.file.Path;

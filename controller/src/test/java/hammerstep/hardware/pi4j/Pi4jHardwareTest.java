@@ -188,7 +188,7 @@ class Pi4jHardwareTest {
     }
 
     @Test
-    @DisplayName("simulated shunt: 350 Ω arm with 100 kΩ reads 0.8735 mV/V = 218.4 N·m of 500 (CHECKS.md bridge formula)")
+    @DisplayName("simulated shunt: 350 Ω arm with 100 kΩ reads 0.8735 mV/V = 218.4 N·m of 500 (bridge basics, derived: Vo/E = R / (2R + 4Rs))")
     void simulatedShuntReadsTheBridgeFormula() throws Exception {
         Pi4jHardware hw = mock(STATION);
         hw.adc().start();

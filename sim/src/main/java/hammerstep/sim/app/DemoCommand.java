@@ -3,6 +3,7 @@ package hammerstep.sim.app;
 import ch.qos.logback.classic.Level;
 import hammerstep.app.Logging;
 import hammerstep.sim.demo.DemoOptions;
+import hammerstep.sim.demo.DemoOutput;
 import hammerstep.sim.demo.DemoRunner;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -30,7 +31,8 @@ public final class DemoCommand implements Callable<Integer> {
     @Option(names = "--fast", description = "run in virtual time as fast as possible instead of real time")
     boolean fast;
 
-    @Option(names = "--plain", description = "one line per result or event instead of the live view")
+    @Option(names = "--plain", description = "one line per result or event instead of the live view (the default"
+            + " when the output is not a terminal)")
     boolean plain;
 
     @Option(names = "--supply-drop", paramLabel = "PERCENT", defaultValue = "0",
@@ -74,7 +76,9 @@ public final class DemoCommand implements Callable<Integer> {
         if (broker != null && !broker.matches("tcp://[^/:]+:[0-9]{1,5}")) {
             throw new hammerstep.app.UserError("demo: --broker must be tcp://HOST:PORT, got " + broker, 2);
         }
-        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain, supplyDropPercent, traces, true,
-                broker, resultsOut, summaryOut, state), System.out).run();
+        // the live view redraws a terminal in place; into a pipe or a file it would write escape codes
+        boolean terminal = System.console() != null;
+        return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain || !terminal, supplyDropPercent, traces,
+                true, broker, resultsOut, summaryOut, state), DemoOutput.stdout()).run();
     }
 }

@@ -124,6 +124,30 @@ public final class EmbeddedBroker implements AutoCloseable {
         }
     }
 
+    /**
+     * Stops the broker on a thread of its own and returns at once: the demo's summary is printed and
+     * its process may end without waiting the seconds a broker takes to stop. The working folder is
+     * removed when the stop is done, or as the JVM exits, whichever comes first.
+     */
+    public void closeInBackground() {
+        Thread cleanup = new Thread(() -> deleteTree(home), "embedded-broker-cleanup");
+        try {
+            Runtime.getRuntime().addShutdownHook(cleanup);
+        } catch (IllegalStateException e) {
+            // the JVM is already exiting
+        }
+        Thread stopper = new Thread(() -> {
+            close();
+            try {
+                Runtime.getRuntime().removeShutdownHook(cleanup);
+            } catch (IllegalStateException e) {
+                // the JVM is exiting: the hook removes the folder
+            }
+        }, "embedded-broker-stop");
+        stopper.setDaemon(true);
+        stopper.start();
+    }
+
     private static int freePort() throws IOException {
         try (ServerSocket s = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
             return s.getLocalPort();

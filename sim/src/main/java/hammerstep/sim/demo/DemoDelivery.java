@@ -260,7 +260,7 @@ final class DemoDelivery implements AutoCloseable {
         }
         outbox.close();
         if (broker != null) {
-            broker.close();
+            broker.closeInBackground(); // the summary is out: the process need not wait for the broker to stop
         }
         if (temporaryState) {
             try (Stream<Path> s = Files.walk(stateDir)) {

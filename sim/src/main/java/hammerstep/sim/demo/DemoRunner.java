@@ -31,18 +31,19 @@ import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
-import hammerstep.station.setup.StationSection;
+import hammerstep.config.StationSection;
 import hammerstep.station.setup.TimingSection;
 
 import java.io.PrintStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
-import java.time.Instant;
 import java.time.ZoneOffset;
 import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 
 /**
  * Runs the demo: a station from a station file with its {@code simulation:} section, the scripted
@@ -53,15 +54,20 @@ public final class DemoRunner {
 
     /** Virtual time a part may take before the run is called stuck. */
     private static final long PART_LIMIT_NS = 600_000_000_000L;
-    /** Virtual start of every run, so the same seed stamps the same times. */
-    private static final Instant EPOCH = Instant.parse("2026-03-02T06:00:00Z");
 
     private final DemoOptions options;
     private final PrintStream out;
+    private final DemoView view;
 
     public DemoRunner(DemoOptions options, PrintStream out) {
+        this(options, out, null);
+    }
+
+    /** With a view of the caller's (tests: a live view of a fixed size); null: as the options say. */
+    DemoRunner(DemoOptions options, PrintStream out, DemoView view) {
         this.options = options;
         this.out = out;
+        this.view = view;
     }
 
     public int run() throws ConfigException, InterruptedException {
@@ -79,9 +85,22 @@ public final class DemoRunner {
         StationId id = config.get(IdentitySection.INSTANCE);
         Map<String, Pattern> patterns = config.get(PartsSection.INSTANCE).byModel();
         TimingSection.Timing timing = config.get(TimingSection.INSTANCE);
-        List<PartIdentity> parts = parts(sim, patterns);
+        DemoState state = DemoState.read(options.stateDir());
+        List<PartIdentity> parts = parts(sim, patterns, state.partsRun());
 
-        VirtualClock clock = new VirtualClock(EPOCH);
+        // the view first: the embedded broker takes seconds to come up, the view shows at once that it does
+        DemoView view = this.view != null ? this.view : options.plain() ? new PlainView(out) : new LiveView(out);
+        view.start(id, config, parts.size());
+        if (options.delivery()) {
+            view.status(options.brokerUrl() == null ? "starting: the embedded MQTT broker is coming up on 127.0.0.1"
+                    : "starting: connecting to the MQTT broker " + options.brokerUrl());
+        }
+        if (state.partsRun() > 0) {
+            view.status("continuing the runs on " + options.stateDir() + ": " + DemoText.count(state.partsRun(), "part")
+                    + " before, virtual time from " + state.start());
+        }
+
+        VirtualClock clock = new VirtualClock(state.start());
         RigToolModel tool = new RigToolModel(sim.tool(), sim.joint(), sim.transducer(), sim.rateHz(), options.seed(),
                 sim.fixture().positions(), sim.internalRateHz());
         tool.setBlowThresholdNm(lowestCountAbove(patterns));
@@ -101,7 +120,7 @@ public final class DemoRunner {
                 desk)
                 : null;
         try {
-            return run(config, sim, id, patterns, timing, parts, clock, tool, hardware, delivery, desk);
+            return run(config, sim, id, patterns, timing, parts, clock, tool, hardware, delivery, desk, view, state);
         } finally {
             if (delivery != null) {
                 delivery.close();
@@ -111,13 +130,17 @@ public final class DemoRunner {
 
     private int run(StationConfig config, SimulationSection.Simulation sim, StationId id, Map<String, Pattern> patterns,
                     TimingSection.Timing timing, List<PartIdentity> parts, VirtualClock clock, RigToolModel tool,
-                    VirtualStation hardware, DemoDelivery delivery, CommandDesk desk) throws InterruptedException {
+                    VirtualStation hardware, DemoDelivery delivery, CommandDesk desk, DemoView view, DemoState state)
+            throws InterruptedException {
         long[] ids = {0};
         JournalWriter journal = delivery != null ? delivery.journal()
                 : new JournalWriter(new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
-                Clock.fixed(EPOCH, ZoneOffset.UTC)));
-        DemoTally tally = new DemoTally();
-        DemoView view = options.plain() ? new PlainView(out) : new LiveView(out);
+                Clock.fixed(state.start(), ZoneOffset.UTC)));
+        Set<String> serials = new HashSet<>();
+        for (PartIdentity p : parts) {
+            serials.add(p.serial());
+        }
+        DemoTally tally = new DemoTally(serials);
         Pattern first = patterns.values().iterator().next();
         Conditioning conditioning = JointMonitor.replayConditioning(first.passes().get(0).program())
                 .withOverRange(sim.transducer().ratedTorqueNm())
@@ -140,7 +163,6 @@ public final class DemoRunner {
         SupplyFade fade = new SupplyFade(tool, sim.tool(), SupplyFade.nominalOf(sim.tool(), sim.supplyBar(), sim.batteryV()),
                 options.supplyDropPercent(), parts.size());
 
-        view.start(id, config, parts.size());
         long wallStart = System.nanoTime();
         long limit = PART_LIMIT_NS * Math.max(1, parts.size());
         while (!station.finished() && station.nowNs() < limit && errors.isEmpty()) {
@@ -161,6 +183,7 @@ public final class DemoRunner {
         view.end(station, tally);
         station.agent().onClose(); // the station has stopped: a command from now on is answered UNAVAILABLE
         boolean finished = station.finished();
+        state.write(options.stateDir(), parts.size(), clock.instantOf(station.nowNs()));
         new DemoSummary(tally, station, tool, parts.size(), System.nanoTime() - wallStart, finished).print(out);
         for (Throwable t : errors) {
             out.println("station error: " + t);
@@ -186,7 +209,8 @@ public final class DemoRunner {
         return lowest;
     }
 
-    private List<PartIdentity> parts(SimulationSection.Simulation sim, Map<String, Pattern> patterns) {
+    /** The parts of this run: the simulation's part streams in turn, from the {@code before}-th part on. */
+    private List<PartIdentity> parts(SimulationSection.Simulation sim, Map<String, Pattern> patterns, int before) {
         List<SimulationSection.PartStream> streams = sim.parts();
         for (SimulationSection.PartStream s : streams) {
             if (!patterns.containsKey(s.model())) {
@@ -196,7 +220,7 @@ public final class DemoRunner {
         }
         int n = options.parts() > 0 ? options.parts() : streams.size();
         List<PartIdentity> list = new ArrayList<>(n);
-        for (int k = 0; k < n; k++) {
+        for (int k = before; k < before + n; k++) {
             SimulationSection.PartStream s = streams.get(k % streams.size());
             list.add(new PartIdentity(s.serial(k / streams.size()), s.model()));
         }
@@ -213,7 +237,7 @@ public final class DemoRunner {
             @Override
             public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {
                 tally.joint(joint);
-                view.line(clock.nanoTime(), DemoLines.joint(joint));
+                view.joint(clock.nanoTime(), joint);
             }
 
             @Override

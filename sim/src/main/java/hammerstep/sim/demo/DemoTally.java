@@ -7,17 +7,19 @@ import hammerstep.results.JointOutcome;
 import hammerstep.results.PartOutcome;
 import hammerstep.results.StationEvent;
 
-import java.util.ArrayDeque;
-import java.util.Deque;
 import java.util.EnumMap;
 import java.util.LinkedHashMap;
 import java.util.Map;
+import java.util.Set;
 import java.util.TreeMap;
 
 /** What happened in a demo run, counted as results came back from the store; feeds the view and the summary. */
 final class DemoTally {
 
+    /** Every part message, the scripted parts' and any other's. */
     int parts;
+    /** Part messages of parts that were not in the run's list (a plant's {@code cmd/part}, a part interrupted before). */
+    int partsOther;
     final Map<String, Integer> partsBy = new LinkedHashMap<>();
     int joints;
     int jointsGo;
@@ -26,9 +28,14 @@ final class DemoTally {
     double maxBlowRatePerMin;
     final Map<Reason, Integer> reasons = new EnumMap<>(Reason.class);
     final Map<String, Integer> events = new TreeMap<>();
-    final Deque<String> recent = new ArrayDeque<>();
+    private final Set<String> scripted;
     final double[] currentPeaks = new double[64];
     int currentBlows;
+
+    /** @param scripted the serials of the parts the scripted operator was given */
+    DemoTally(Set<String> scripted) {
+        this.scripted = Set.copyOf(scripted);
+    }
 
     void joint(JointOutcome j) {
         JointResult r = j.result();
@@ -44,18 +51,18 @@ final class DemoTally {
         }
         blowsAfterShutoff += r.blowsAfterShutoff();
         maxBlowRatePerMin = Math.max(maxBlowRatePerMin, r.blowRatePerMin());
-        remember(DemoLines.joint(j));
     }
 
     void part(PartOutcome p) {
         parts++;
+        if (!scripted.contains(p.partSerial())) {
+            partsOther++;
+        }
         partsBy.merge(p.verdict() + " " + p.ended(), 1, Integer::sum);
-        remember(DemoLines.part(p));
     }
 
     void event(StationEvent e) {
         events.merge(e.code(), 1, Integer::sum);
-        remember(DemoLines.event(e));
     }
 
     void blow(int index, double peakNm) {
@@ -66,12 +73,5 @@ final class DemoTally {
             currentPeaks[currentBlows] = peakNm;
         }
         currentBlows++;
-    }
-
-    private void remember(String line) {
-        recent.addLast(line);
-        while (recent.size() > 8) {
-            recent.removeFirst();
-        }
     }
 }

@@ -19,7 +19,12 @@ final class PlainView implements DemoView {
     @Override
     public void start(StationId id, StationConfig config, int parts) {
         out.println("demo station " + id + " (" + config.file() + ", revision " + config.revision() + "), "
-                + parts + (parts == 1 ? " part" : " parts"));
+                + DemoText.count(parts, "part"));
+    }
+
+    @Override
+    public void status(String text) {
+        out.println(text);
     }
 
     @Override

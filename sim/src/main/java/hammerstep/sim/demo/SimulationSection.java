@@ -9,7 +9,7 @@ import hammerstep.sim.physics.ToolSpec;
 import hammerstep.sim.physics.TransducerSpec;
 import hammerstep.sim.station.Habits;
 import hammerstep.sim.station.VirtualStation;
-import hammerstep.station.setup.StationSection;
+import hammerstep.config.StationSection;
 
 import java.nio.file.Path;
 import java.time.LocalDate;

@@ -13,7 +13,7 @@ import hammerstep.sim.physics.TransducerSpec;
  */
 public final class RigToolModel implements ToolModel {
 
-    /** Longest strike pulse (CHECKS: strike pulses last about 1 to 5 ms): a blow peaking later began after. */
+    /** Longest strike pulse (strike pulses last about 1 to 5 ms: transducer practice, memory): a blow peaking later began after. */
     private static final double PULSE_S = 0.005;
 
     private final Rig[] rigs;

@@ -4,7 +4,10 @@ import hammerstep.station.LampMode;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.TowerLamp;
 
+import java.util.Collections;
+import java.util.EnumMap;
 import java.util.List;
+import java.util.Map;
 import java.util.SplittableRandom;
 
 /**
@@ -43,6 +46,7 @@ public final class ScriptedOperator {
     private long toolStoppedNs = Long.MIN_VALUE;
 
     private int mistakes;
+    private final Map<Mistake, Integer> mistakesByKind = new EnumMap<>(Mistake.class);
     private int socketAt = -1;
     private boolean poweredSeen;
     private int blowsAtStart;
@@ -69,6 +73,28 @@ public final class ScriptedOperator {
         return mistakes;
     }
 
+    /** The mistakes made so far by kind, in the order of the habits; kinds never made are left out. */
+    public Map<Mistake, Integer> mistakesByKind() {
+        return Collections.unmodifiableMap(mistakesByKind);
+    }
+
+    /** The kinds of mistake, named as the station file's {@code operator.mistakes} keys. */
+    public enum Mistake {
+        SKIP("skip"), REHIT("rehit"), RELEASE_EARLY("release_early"), HOLD_TOO_LONG("hold_too_long"),
+        FORGET_ACK("forget_ack"), LOOSEN("loosen");
+
+        private final String key;
+
+        Mistake(String key) {
+            this.key = key;
+        }
+
+        /** The habit's key in the station file. */
+        public String key() {
+            return key;
+        }
+    }
+
     public void onTick(long nowNs) {
         if (nowNs - untilNs < 0) {
             return;
@@ -86,7 +112,7 @@ public final class ScriptedOperator {
             case PRESSING -> {
                 station.pressAcknowledge(false);
                 doing = Doing.LOOKING;
-                wait(nowNs, 0.5 * habits.reactionMs());
+                busyFor(nowNs, 0.5 * habits.reactionMs());
             }
             case WAITING_SUPERVISOR -> {
                 station.turnKey(true);
@@ -97,12 +123,12 @@ public final class ScriptedOperator {
                 station.turnKey(false);
                 reworkStage = 0;
                 doing = Doing.LOOKING;
-                wait(nowNs, habits.reactionMs());
+                busyFor(nowNs, habits.reactionMs());
             }
             case LOADING -> {
                 station.scan(parts.get(nextPart++));
                 doing = Doing.LOOKING;
-                wait(nowNs, 2 * habits.reactionMs());
+                busyFor(nowNs, 2 * habits.reactionMs());
             }
             default -> { }
         }
@@ -146,7 +172,7 @@ public final class ScriptedOperator {
                 partLoaded = true;
                 lastDone = -1;
                 doing = Doing.LOADING;
-                wait(now, habits.reactionMs());
+                busyFor(now, habits.reactionMs());
             } else {
                 doing = Doing.DONE;
             }
@@ -158,7 +184,7 @@ public final class ScriptedOperator {
         socketAt = -1;
         station.removePart();
         partLoaded = false;
-        wait(now, 2 * habits.reactionMs());
+        busyFor(now, 2 * habits.reactionMs());
     }
 
     private boolean allPositionsSteady(long now) {
@@ -186,21 +212,21 @@ public final class ScriptedOperator {
     private void prompt(int lit, long now) {
         int go = lit;
         loosenNow = false;
-        if (lastDone >= 0 && draw(habits.loosen())) {
+        if (lastDone >= 0 && draw(Mistake.LOOSEN, habits.loosen())) {
             go = lastDone;
             loosenNow = true;
-        } else if (lastDone >= 0 && draw(habits.rehit())) {
+        } else if (lastDone >= 0 && draw(Mistake.REHIT, habits.rehit())) {
             go = lastDone;
-        } else if (positions > 1 && draw(habits.skip())) {
+        } else if (positions > 1 && draw(Mistake.SKIP, habits.skip())) {
             go = (lit + 1) % positions;
         }
         lastDone = -1;
         target = go;
-        releaseEarlyNow = draw(habits.releaseEarly());
+        releaseEarlyNow = draw(Mistake.RELEASE_EARLY, habits.releaseEarly());
         earlyBlows = 1 + random.nextInt(2);
-        holdLongNow = draw(habits.holdTooLong());
+        holdLongNow = draw(Mistake.HOLD_TOO_LONG, habits.holdTooLong());
         doing = Doing.MOVING;
-        wait(now, habits.reactionMs() + (go != socketAt ? habits.moveMs() : 0));
+        busyFor(now, habits.reactionMs() + (go != socketAt ? habits.moveMs() : 0));
     }
 
     private void startTightening(long now) {
@@ -236,7 +262,7 @@ public final class ScriptedOperator {
             if (now - startedNs >= 1_000_000_000L) { // the tool does not run here: let go and look again
                 station.pullTrigger(false);
                 doing = Doing.RELEASED;
-                wait(now, habits.reactionMs());
+                busyFor(now, habits.reactionMs());
             }
             return;
         }
@@ -262,7 +288,7 @@ public final class ScriptedOperator {
             station.pullTrigger(false);
             lastDone = loosenNow ? -1 : target;
             doing = Doing.RELEASED;
-            wait(now, habits.reactionMs());
+            busyFor(now, habits.reactionMs());
         }
     }
 
@@ -271,10 +297,10 @@ public final class ScriptedOperator {
         switch (reworkStage) {
             case 0 -> {
                 reworkStage = 1;
-                if (draw(habits.forgetAck())) {
-                    wait(now, habits.forgetAckMs());
+                if (draw(Mistake.FORGET_ACK, habits.forgetAck())) {
+                    busyFor(now, habits.forgetAckMs());
                 } else {
-                    wait(now, habits.reactionMs());
+                    busyFor(now, habits.reactionMs());
                 }
             }
             case 1 -> {
@@ -292,18 +318,20 @@ public final class ScriptedOperator {
 
     private void callSupervisor(long now) {
         doing = Doing.WAITING_SUPERVISOR;
-        wait(now, habits.supervisorMs());
+        busyFor(now, habits.supervisorMs());
     }
 
-    private void wait(long now, double meanMs) {
+    /** The operator is busy (noticing, moving, waiting for the supervisor) for about {@code meanMs}, scattered ±40 %. */
+    private void busyFor(long now, double meanMs) {
         double ms = meanMs * (0.6 + 0.8 * random.nextDouble());
         untilNs = now + (long) (ms * 1e6);
     }
 
-    private boolean draw(double p) {
+    private boolean draw(Mistake kind, double p) {
         boolean hit = p > 0 && random.nextDouble() < p;
         if (hit) {
             mistakes++;
+            mistakesByKind.merge(kind, 1, Integer::sum);
         }
         return hit;
     }

@@ -33,6 +33,40 @@ class DemoRunnerTest {
     }
 
     @Test
+    void namesTheOperatorsMistakesByKindAndOneVerdictSpelling() throws Exception {
+        String out = run(new DemoOptions(STATION, 6, 1, true, true), 0);
+
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("operator +(\\d+) mistakes: (.*)").matcher(out);
+        assertThat(m.find()).as(out).isTrue();
+        int sum = 0;
+        for (String kind : m.group(2).split(", ")) {
+            assertThat(kind).matches("(skip|rehit|release_early|hold_too_long|forget_ack|loosen) \\d+");
+            sum += Integer.parseInt(kind.substring(kind.indexOf(' ') + 1));
+        }
+        assertThat(sum).isEqualTo(Integer.parseInt(m.group(1)));
+        assertThat(out).doesNotContain("NO-GO").contains("NO_GO").doesNotContain(" 1 blows").contains("  1 blow      -/min");
+    }
+
+    @Test
+    void aSecondRunOnTheSameStateContinuesThePartSerialsAndTheTime(@org.junit.jupiter.api.io.TempDir Path state)
+            throws Exception {
+        DemoOptions once = new DemoOptions(STATION, 1, 1, true, true, 0, null, false, null, null, null, state);
+        String first = run(once, 0);
+        java.util.Properties p1 = new java.util.Properties();
+        p1.load(java.nio.file.Files.newBufferedReader(state.resolve(DemoState.FILE)));
+        String second = run(once, 0);
+        java.util.Properties p2 = new java.util.Properties();
+        p2.load(java.nio.file.Files.newBufferedReader(state.resolve(DemoState.FILE)));
+
+        assertThat(first).contains("part  PS40D-2611-0301");
+        assertThat(second).contains("continuing the runs on " + state + ": 1 part before")
+                .contains("part  PS40S-2611-0088").doesNotContain("PS40D-2611-0301");
+        assertThat(p2.getProperty("parts_run")).isEqualTo("2");
+        assertThat(java.time.Instant.parse(p2.getProperty("virtual_end")))
+                .isAfter(java.time.Instant.parse(p1.getProperty("virtual_end")).plusSeconds(60));
+    }
+
+    @Test
     void theSameSeedGivesTheSameRun() throws Exception {
         String a = run(new DemoOptions(STATION, 1, 9, true, true), 0);
         String b = run(new DemoOptions(STATION, 1, 9, true, true), 0);

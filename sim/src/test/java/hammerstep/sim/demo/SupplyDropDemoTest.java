@@ -6,6 +6,7 @@ import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
+import java.util.List;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
@@ -26,6 +27,14 @@ class SupplyDropDemoTest {
         assertThat(out).containsPattern("event WARNING TOOL_WEAK +tool CW-3D-17 on program flange-final");
         // the warning comes only after the supply has fallen, never while it is at nominal
         assertThat(out.indexOf("TOOL_WEAK")).isGreaterThan(out.indexOf("(15 % below nominal)"));
+        // one state: the rate falls first; at 30 % below nominal the weak hammer strikes each jaw twice, the
+        // counted rate jumps above its baseline while peak and impulse fall: named as well, never "back"
+        List<String> health = out.lines().filter(l -> l.contains("event ") && l.contains(" TOOL_"))
+                .map(l -> l.replaceAll("^.*event \\w+ +(TOOL_\\w+) +tool CW-3D-17 on program flange-final: (blow \\w+) .*$",
+                        "$1 $2")).toList();
+        assertThat(health).containsExactly("TOOL_WEAK blow rate", "TOOL_WEAK blow impulse", "TOOL_WEAK blow peak");
+        assertThat(out).contains("blow rate fell 17 % below its baseline (2524 → 2101 /min)")
+                .contains("blow peak fell 26 % below its baseline (273.7 → 201.4 N·m) as well").doesNotContain("TOOL_OK");
     }
 
     @Test

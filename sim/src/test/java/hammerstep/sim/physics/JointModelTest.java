@@ -39,7 +39,7 @@ class JointModelTest {
     }
 
     @Test
-    @DisplayName("clamp load follows T = K·F·d: M12 at 88.0 N·m, K 0.2 clamps 36.7 kN (CHECKS.md worked example)")
+    @DisplayName("clamp load follows T = K·F·d: M12 at 88.0 N·m, K 0.2 clamps 36.7 kN (short-form torque-tension relation, worked by hand)")
     void clampLoadFollowsTheShortFormTorqueTension() {
         JointSpec m12 = new JointSpec("m12", 0, 0, 100, 1, 1.1, 0, 0, 0.2, 0.012, 0, 100);
         assertThat(m12.clampLoadN(88.0)).isCloseTo(36_667, within(10.0));

@@ -66,7 +66,7 @@ class StrikeTest {
     /**
      * Hammer on a nut that slips against a running torque, with unloading damping: the rig's own
      * step (semi-implicit Euler at 1 MHz) against Hipparchus' Dormand–Prince 8(5,3) on the same
-     * equations (test oracle, CHECKS.md).
+     * equations (a reference integrator as test oracle).
      */
     @Test
     @DisplayName("strike on a slipping nut agrees with Dormand-Prince 8(5,3) on the same equations within 0.5 %")

@@ -1,12 +1,11 @@
-package hammerstep.station.setup;
+package hammerstep.config;
 
-import hammerstep.config.MapReader;
 
 import java.nio.file.Path;
 
 /**
  * One top-level section of the station file and the reader that turns it into one validated
- * record. Each subsystem owns its section (identity and parts here; transducer, hardware, broker,
+ * record. Each subsystem owns its section (identity and parts in the station's setup; transducer, hardware, broker,
  * storage in their own packages) and registers it in {@code hammerstep.app.StationSections}.
  *
  * @param <T> the record the section reads into
