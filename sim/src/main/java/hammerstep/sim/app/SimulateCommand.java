@@ -149,6 +149,7 @@ public final class SimulateCommand implements Callable<Integer> {
         doc.put("rate_hz", rateHz);
         doc.put("seed", seed);
         doc.put("count_above_nm", countAboveNm);
+        doc.put("recontact_ms", Truth.round(rig.recontactS() * 1e3, 100));
         doc.put("direction", reverse ? "loosen" : "tighten");
         doc.put("rundowns", results);
         new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(truth.toFile(), doc);
