@@ -156,7 +156,8 @@ final class Fastener {
     }
 
     private void relax(double h) {
-        double clampAngle = angle - joint.freeAngleRad();
+        // embedding takes back a part of the elastic clamp angle (the clamp load), not of the bolt's set
+        double clampAngle = angle - joint.freeAngleRad() - plasticRad;
         if (clampAngle <= 0 || joint.relaxationLoss() <= 0) {
             return;
         }

@@ -34,10 +34,10 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
 
     /**
      * Coefficient of restitution of the striker on the anvil (train contact) with the presets' damping
-     * ratio 0.3 on unloading: about 0.6 (measured on the model, {@code ContactLossTest}); steel on steel
+     * ratio 0.3 on unloading: about 0.67 (measured on the model, {@code ContactLossTest}); steel on steel
      * lies at roughly 0.5 to 0.9 depending on speed and geometry (contact mechanics, memory).
      */
-    static final double TRAIN_RESTITUTION_AT_PRESET_DAMPING = 0.6;
+    static final double TRAIN_RESTITUTION_AT_PRESET_DAMPING = 0.67;
 
     Mechanism(Drive drive, double trainStiffness, double dampingRatio, double strikingInertia) {
         this.drive = drive;
