@@ -63,6 +63,8 @@ public final class Rig {
     private double blowPeakTurns;
     private double blowLowNm;
     private long blowLowStep;
+    /** The open blow reached the threshold backwards first: a back contact, never a blow. */
+    private boolean backFirst;
     private final double[] blowPeaksNm = new double[MAX_BLOWS];
     private final double[] blowTimesS = new double[MAX_BLOWS];
     private final double[] blowTurns = new double[MAX_BLOWS];
@@ -175,7 +177,8 @@ public final class Rig {
      * One definition of a blow (docs/simulator.md): a contact episode of the striker on the anvil, with
      * every episode that begins sooner than the mechanism's re-contact time after its start (the moment
      * its torque reached the blow threshold, as a detector starts a blow; else its first touch); it counts
-     * when its highest train torque reaches the blow threshold. {@code t} is in the tool's sense.
+     * when its highest train torque reaches the blow threshold. One that reached the threshold backwards
+     * first is a back contact, with what follows it. {@code t} is in the tool's sense.
      */
     private void trackBlow(double t) {
         if (mechanism.inContact(t)) {
@@ -187,17 +190,24 @@ public final class Rig {
                 blowStartStep = steps;
                 blowPeakNm = 0;
                 blowLowNm = 0;
+                backFirst = false;
                 openCutShort = false;
             }
             touching = true;
             if (t > blowPeakNm) {
-                if (blowPeakNm < blowThresholdNm && t >= blowThresholdNm) {
+                if (blowPeakNm < blowThresholdNm && t >= blowThresholdNm && -blowLowNm < blowThresholdNm) {
                     blowStartStep = steps;
                 }
                 blowPeakNm = t;
                 blowPeakStep = steps;
                 blowPeakTurns = relativeTurns();
             } else if (t < blowLowNm) {
+                if (-blowLowNm < blowThresholdNm && -t >= blowThresholdNm && blowPeakNm < blowThresholdNm) {
+                    // reached the threshold backwards first: a back contact; what follows within the
+                    // re-contact time is its rebound, as the detector keeps a reverse strike's lobes
+                    blowStartStep = steps;
+                    backFirst = true;
+                }
                 blowLowNm = t;
                 blowLowStep = steps;
             }
@@ -218,7 +228,7 @@ public final class Rig {
 
     private void closeBlow() {
         blowOpen = false;
-        if (blowPeakNm >= blowThresholdNm) {
+        if (blowPeakNm >= blowThresholdNm && !backFirst) {
             if (closedBlows < MAX_BLOWS) {
                 blowPeaksNm[closedBlows] = reverse ? -blowPeakNm : blowPeakNm;
                 blowTimesS[closedBlows] = blowPeakStep * h;
@@ -339,7 +349,7 @@ public final class Rig {
     }
 
     private boolean openBlowCounts() {
-        return blowOpen && blowPeakNm >= blowThresholdNm;
+        return blowOpen && blowPeakNm >= blowThresholdNm && !backFirst;
     }
 
     /** Peak shaft torque of blow {@code i} (0-based) of the present fastener, N·m; negative for a reverse blow. */

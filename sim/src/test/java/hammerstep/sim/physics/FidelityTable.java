@@ -20,7 +20,7 @@ import java.util.Locale;
  *
  * <pre>
  * mvn -o -q -pl sim -am test-compile
- * java -cp "sim/target/test-classes:sim/target/hammerstep-sim.jar" hammerstep.sim.physics.FidelityTable [seeds] [hold-ms]
+ * java -cp "sim/target/test-classes:sim/target/hammerstep-sim.jar" hammerstep.sim.physics.FidelityTable [seeds] [hold-ms] [tool,...]
  * </pre>
  */
 public final class FidelityTable {
@@ -103,6 +103,7 @@ public final class FidelityTable {
     public static void main(String[] args) throws Exception {
         int seeds = args.length > 0 ? Integer.parseInt(args[0]) : 3;
         double holdMs = args.length > 1 ? Double.parseDouble(args[1]) : 1500;
+        List<String> tools = args.length > 2 ? List.of(args[2].split(",")) : Presets.TOOLS;
         System.out.printf(Locale.ROOT, "count_above %.0f N·m, hold %.0f ms, %.0f Hz, seeds 1-%d%n%n", COUNT_ABOVE_NM,
                 holdMs, RATE_HZ, seeds);
         System.out.println("| tool | joint | seed | truth blows | replay blows | agree | peaks off (cut short) "
@@ -110,7 +111,7 @@ public final class FidelityTable {
         System.out.println("|---|---|---|---|---|---|---|---|---|---|---|---|");
         int agree = 0;
         int total = 0;
-        for (String tool : Presets.TOOLS) {
+        for (String tool : tools) {
             for (String joint : Presets.JOINTS) {
                 for (long seed = 1; seed <= seeds; seed++) {
                     Row r = rundown(tool, joint, seed, holdMs);
