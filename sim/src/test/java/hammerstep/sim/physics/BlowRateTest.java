@@ -54,14 +54,14 @@ class BlowRateTest {
      * Strikes per relative turn of hammer against anvil, as the mechanism's geometry gives them: two dogs 2,
      * three dogs 3, skip mode 1.5, twin hammer 1 (mechanism geometry; cam-and-ball tools strike twice per
      * relative turn, twin hammers once: common practice), within ±10 % where the hammer strikes every jaw.
-     * Where it does not (the rows left out: the hard joint for cam-and-ball tools, skip mode on the wheel
+     * Where it does not (the rows left out: two-dog and skip mode on the hard joint, skip mode on the wheel
      * stud) docs/simulator.md, "Strikes per turn", shows the figures and says why.
      */
     @ParameterizedTest(name = "{0} on {1}: {2} strikes per relative turn ±10 % (mechanism geometry)")
     @CsvSource({
             "cordless-two-dog, iso-soft, 2", "cordless-two-dog, wheel-stud-m14, 2", "cordless-two-dog, flange-m16, 2",
-            "cordless-three-dog, iso-soft, 3", "cordless-three-dog, wheel-stud-m14, 3",
-            "cordless-three-dog, flange-m16, 3",
+            "cordless-three-dog, iso-hard, 3", "cordless-three-dog, iso-soft, 3",
+            "cordless-three-dog, wheel-stud-m14, 3", "cordless-three-dog, flange-m16, 3",
             "cordless-skip-dog, iso-soft, 1.5", "cordless-skip-dog, flange-m16, 1.5",
             "air-twin-hammer, iso-hard, 1", "air-twin-hammer, iso-soft, 1", "air-twin-hammer, wheel-stud-m14, 1",
             "air-twin-hammer, flange-m16, 1"})
