@@ -72,12 +72,53 @@ class BackContactTest {
         assertThat(r.blows()).isEqualTo(rig.blows());
     }
 
+    /**
+     * The demo's tool and joint (config/demo/station.yaml: three-dog on the flange, 20 kHz) with its final
+     * program's shut-off at 285 N·m: about 45 ms after the shut-off the hammer, released over a jaw by the
+     * stopping spindle, swings back onto the back of that jaw (docs/simulator.md, "Back contacts").
+     */
+    @org.junit.jupiter.params.ParameterizedTest(name = "seed {0}")
+    @org.junit.jupiter.params.provider.ValueSource(longs = {1, 2, 3})
+    void theDemosSpikeAfterTheShutoffIsABackContactAndStaysATightening(long seed) throws Exception {
+        double rateHz = 20_000;
+        Rig rig = Rig.create(Presets.tool("cordless-three-dog"), Presets.joint("flange-m16"),
+                Presets.defaultTransducer(), rateHz, seed);
+        rig.setBlowThresholdNm(100);
+        String yaml = String.format(PROGRAM.replace("count_above: 40.0", "count_above: 100.0"),
+                Double.toString(rig.recontactS() * 1e3));
+        JointProgram program = ProgramFile.read(YamlDocument.parse("back-contact.yaml",
+                yaml.getBytes(StandardCharsets.UTF_8)));
+        List<JointResult> results = new ArrayList<>();
+        JointMonitor monitor = new JointMonitor(program, JointMonitor.replayConditioning(program), rateHz, 20,
+                results::add);
+        float[] block = new float[20];
+        run(rig, monitor, block, 50, rateHz);
+        rig.setTrigger(true);
+        while (rig.blows() == 0 || rig.blowPeakNm(rig.blows() - 1) < 285) {
+            run(rig, monitor, block, 1, rateHz);
+        }
+        rig.setTrigger(false);
+        double shutoffS = rig.timeS();
+        int before = rig.backContacts();
+        int blows = rig.blows();
+        run(rig, monitor, block, 400, rateHz);
+        monitor.finish();
+
+        assertThat(rig.backContacts()).isGreaterThan(before);
+        assertThat(rig.backContactNm(before)).isLessThan(-150);
+        assertThat(rig.backContactTimeS(before) - shutoffS).isBetween(0.03, 0.06);
+        assertThat(rig.blows()).isEqualTo(blows);
+        assertThat(results).hasSize(1);
+        assertThat(results.get(0).loosening()).isFalse();
+        assertThat(results.get(0).blows()).isEqualTo(blows);
+    }
+
     private static void run(Rig rig, JointMonitor monitor, float[] block, double ms, double rateHz) {
         int samples = (int) (ms * 1e-3 * rateHz);
-        for (int done = 0; done < samples; done += BLOCK) {
+        for (int done = 0; done < samples; done += block.length) {
             long t0 = Math.round(rig.samplesElapsed() * 1e9 / rateHz);
-            rig.fill(block, 0, BLOCK);
-            monitor.onSamples(block, 0, BLOCK, t0);
+            rig.fill(block, 0, block.length);
+            monitor.onSamples(block, 0, block.length, t0);
         }
     }
 }
