@@ -192,6 +192,7 @@ public final class SimulateCommand implements Callable<Integer> {
         doc.put("rate_hz", rateHz);
         doc.put("seed", seed);
         doc.put("count_above_nm", countAboveNm);
+        doc.put("recontact_ms", Truth.round(rig.recontactS() * 1e3, 100));
         doc.put("direction", reverse ? "loosen" : "tighten");
         if (jointProgram != null) {
             doc.put("program", jointProgram.id());

@@ -45,7 +45,22 @@ final class Truth {
         m.put("angle_deg", round(rig.angleDeg(), 100));
         m.put("angle_after_snug_deg", round(rig.angleAfterSnugDeg(), 100));
         m.put("clamp_load_kn", round(rig.clampLoadN() * 1e-3, 100));
+        m.put("yield_load_kn", Double.isNaN(rig.yieldLoadN()) ? null : round(rig.yieldLoadN() * 1e-3, 100));
+        m.put("yielded", rig.yielded());
         m.put("blow_rate_per_min", round(blowRatePerMin(rig, firstBlow), 10));
+        double spr = rig.strikesPerRev(firstBlow);
+        m.put("strikes_per_rev", Double.isNaN(spr) ? null : round(spr, 1000));
+        List<Map<String, Object>> back = new ArrayList<>();
+        for (int i = 0; i < Math.min(rig.backContacts(), Rig.MAX_BACK_CONTACTS); i++) {
+            if (rig.backContactTimeS(i) - skippedS < startS) {
+                continue;
+            }
+            Map<String, Object> b = new LinkedHashMap<>();
+            b.put("time_s", round(rig.backContactTimeS(i) - skippedS, 1e6));
+            b.put("peak_nm", round(rig.backContactNm(i), 100));
+            back.add(b);
+        }
+        m.put("back_contacts", back);
         return m;
     }
 

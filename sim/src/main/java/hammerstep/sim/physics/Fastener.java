@@ -16,6 +16,11 @@ import java.util.SplittableRandom;
  *
  * <p>Relaxation: while the fastener rests, embedding takes back a part of the angle that makes
  * clamp load, approaching {@code relaxationLoss} of it with the relaxation time constant.
+ *
+ * <p>Yield ({@link Bolt}): the clamp load is elastic–plastic in the clamp angle. Elastic it rises at the
+ * joint's rate; at the bolt's yield load the bolt takes a permanent set and hardens (Voce) toward its
+ * saturation load. The running torque follows the clamp load (T = K·F·d), so the torque-angle curve
+ * flattens and the nut keeps turning under the blows. Turning back, the bolt unloads elastically.
  */
 final class Fastener {
 
@@ -30,7 +35,6 @@ final class Fastener {
     private final double invInertia;
     private final SplittableRandom random;
     private JointSpec joint;
-    private double rate;
     private double invRelaxS;
 
     private double angle;
@@ -40,6 +44,12 @@ final class Fastener {
     private double frictionScale = 1.0;
     private double holdScale = 1.0;
     private double embeddedRad;
+    /** Permanent set of the bolt, in nut angle, rad. */
+    private double plasticRad;
+    private double clampRate;
+    private double yieldN;
+    private double hardenSpanN;
+    private double hardenScaleRad;
     private double jointWorkJ;
     private double restS;
 
@@ -53,8 +63,13 @@ final class Fastener {
     /** A new fastener of {@code joint}: loose, at angle zero, with its own friction. */
     void renew(JointSpec joint) {
         this.joint = joint;
-        this.rate = joint.rateNmPerRad();
         this.invRelaxS = 1.0 / (joint.relaxationTimeConstantMs() * 1e-3);
+        this.clampRate = joint.clampRateNPerRad();
+        Bolt bolt = joint.bolt();
+        this.yieldN = bolt == null ? Double.POSITIVE_INFINITY : bolt.yieldLoadN();
+        this.hardenSpanN = bolt == null ? 0.0 : bolt.saturationLoadN() - bolt.yieldLoadN();
+        this.hardenScaleRad = hardenSpanN / (Bolt.HARDENING * clampRate);
+        plasticRad = 0;
         angle = 0;
         speed = 0;
         stuck = true;
@@ -72,9 +87,36 @@ final class Fastener {
 
     /** Running torque at the present angle, N·m, with this fastener's friction and embedding. */
     double runningTorqueNm() {
-        double past = angle - joint.freeAngleRad() - embeddedRad;
-        double nominal = joint.prevailingTorqueNm() + (past > 0 ? rate * past : 0.0);
+        double f = clampLoadN();
+        double nominal = joint.prevailingTorqueNm() + (f > 0 ? f * joint.kFactor() * joint.diameterM() : 0.0);
         return frictionScale * nominal;
+    }
+
+    /** Load the yielded bolt holds at a permanent set of {@code plastic} rad: the hardening curve, N. */
+    private double flowLoadN(double plastic) {
+        return yieldN + hardenSpanN * (1.0 - Math.exp(-plastic / hardenScaleRad));
+    }
+
+    /** After the nut turned: past the flow load, the bolt takes a permanent set (return mapping). */
+    private void yieldBolt() {
+        if (joint.bolt() == null) {
+            return;
+        }
+        double clampAngle = angle - joint.freeAngleRad() - embeddedRad;
+        if (clampRate * (clampAngle - plasticRad) <= flowLoadN(plasticRad)) {
+            return;
+        }
+        // Newton on k·(u − p) = flow(p); the flow curve is smooth and rising, two steps suffice
+        for (int i = 0; i < 3; i++) {
+            double g = clampRate * (clampAngle - plasticRad) - flowLoadN(plasticRad);
+            double slope = clampRate + hardenSpanN / hardenScaleRad * Math.exp(-plasticRad / hardenScaleRad);
+            plasticRad += g / slope;
+        }
+    }
+
+    /** Whether the bolt has yielded (taken a permanent set). */
+    boolean yielded() {
+        return plasticRad > 0;
     }
 
     /** Which way the tool turns the nut from now on; the nut must be at rest. */
@@ -108,10 +150,14 @@ final class Fastener {
         }
         angle += reverse ? -h * speed : h * speed;
         jointWorkJ += running * speed * h;
+        if (!reverse) {
+            yieldBolt();
+        }
     }
 
     private void relax(double h) {
-        double clampAngle = angle - joint.freeAngleRad();
+        // embedding takes back a part of the elastic clamp angle (the clamp load), not of the bolt's set
+        double clampAngle = angle - joint.freeAngleRad() - plasticRad;
         if (clampAngle <= 0 || joint.relaxationLoss() <= 0) {
             return;
         }
@@ -137,10 +183,13 @@ final class Fastener {
         return joint.staticFrictionRatio() * runningTorqueNm();
     }
 
-    /** Clamp load now, N, from T = K·F·d with this fastener's torque coefficient. */
+    /**
+     * Clamp load now, N: the joint's rate from T = K·F·d (nominal torque coefficient) on the clamp angle
+     * less embedding and the bolt's permanent set.
+     */
     double clampLoadN() {
-        double past = angle - joint.freeAngleRad() - embeddedRad;
-        return past > 0 ? joint.clampLoadN(joint.prevailingTorqueNm() + rate * past) : 0.0;
+        double past = angle - joint.freeAngleRad() - embeddedRad - plasticRad;
+        return past > 0 ? clampRate * past : 0.0;
     }
 
     double kineticJ() {

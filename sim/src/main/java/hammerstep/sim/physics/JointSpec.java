@@ -19,10 +19,18 @@ package hammerstep.sim.physics;
  * @param diameterM            nominal thread diameter d
  * @param relaxationLoss       fraction of clamp load lost to embedding once the fastener rests
  * @param relaxationTimeConstantMs time constant of that loss
+ * @param bolt                 the bolt (size and ISO 898-1 property class) that yields; {@code null}: an
+ *                             elastic bolt that never yields (a joint file without a {@code bolt} section)
  */
 public record JointSpec(String name, double prevailingTorqueNm, double freeAngleRad, double fullTorqueNm,
                         double angleToFullRad, double staticFrictionRatio, double frictionScatter, double blowScatter,
-                        double kFactor, double diameterM, double relaxationLoss, double relaxationTimeConstantMs) {
+                        double kFactor, double diameterM, double relaxationLoss, double relaxationTimeConstantMs,
+                        Bolt bolt) {
+
+    /** Clamp load per radian past the snug point while the bolt is elastic, N/rad (from T = K·F·d). */
+    public double clampRateNPerRad() {
+        return rateNmPerRad() / (kFactor * diameterM);
+    }
 
     /** Torque rise per radian after seating, at the nominal torque coefficient. */
     public double rateNmPerRad() {
@@ -35,7 +43,10 @@ public record JointSpec(String name, double prevailingTorqueNm, double freeAngle
         return past <= 0 ? prevailingTorqueNm : prevailingTorqueNm + rateNmPerRad() * past;
     }
 
-    /** Clamp load for a running torque, N, from T = K·F·d (the prevailing part clamps nothing). */
+    /**
+     * Clamp load for a running torque, N, from T = K·F·d (the prevailing part clamps nothing), elastic
+     * bolt (the fastener applies yield).
+     */
     public double clampLoadN(double torqueNm) {
         return Math.max(0.0, torqueNm - prevailingTorqueNm) / (kFactor * diameterM);
     }

@@ -6,11 +6,12 @@ package hammerstep.sim.physics;
  * the new velocities. The train torque couples the mechanism to the fastener: it is computed once
  * per step by {@link #trainTorque} and handed to {@link #advance} as the reaction.
  *
- * <p>A <em>blow</em> begins at a release of the striking body (the cam letting the hammer go,
- * the twin hammers swinging out; for the oil-pulse unit, a sealing window beginning), or when the striker meets the
- * anvil again after more than {@link #REBLOW_S} apart without a release (the drive has
- * accelerated it anew). Re-contacts sooner than that (rebounds, a hammer following a nut that
- * stopped) belong to the blow before. The rig takes the highest train torque of a blow as its peak.
+ * <p>A <em>blow</em> (docs/simulator.md, "What a blow is") is a contact episode of the striker on the
+ * anvil ({@link #inContact}); episodes apart less than the mechanism's re-contact time
+ * ({@link #recontactS()}) are one blow. The rig takes the highest train torque of a blow as its peak.
+ * A <em>release</em> (the cam letting the hammer go forward over a jaw, the twin hammers swinging out,
+ * a sealing window beginning) does not bound a blow; it marks a blow cut short when it comes in
+ * mid-strike.
  *
  * <p>The mechanism books the work its drive does; the rig books the work done on the train. Single-threaded; allocation-free after construction.
  */
@@ -23,12 +24,21 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     protected final double trainDamping;
 
     protected double driveWorkJ;
+    /** Energy lost inside the mechanism (end stops, ball friction), J. */
+    protected double internalLossJ;
     protected int releases;
     private double apartS;
     private boolean releasedSinceContact;
 
-    /** Free flight after which a contact without a release begins a new blow, s. */
+    /** Free flight after which a contact without a release begins a new blow, s (kept for {@link #trackContact}). */
     static final double REBLOW_S = 5.0e-3;
+
+    /**
+     * Coefficient of restitution of the striker on the anvil (train contact) with the presets' damping
+     * ratio 0.3 on unloading: about 0.67 (measured on the model, {@code ContactLossTest}); steel on steel
+     * lies at roughly 0.5 to 0.9 depending on speed and geometry (contact mechanics, memory).
+     */
+    static final double TRAIN_RESTITUTION_AT_PRESET_DAMPING = 0.67;
 
     Mechanism(Drive drive, double trainStiffness, double dampingRatio, double strikingInertia) {
         this.drive = drive;
@@ -47,6 +57,24 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
             return ClutchMechanism.of(c, drive, trainStiffness, dampingRatio);
         }
         return new OilPulseMechanism((MechanismSpec.OilPulse) spec, drive, trainStiffness);
+    }
+
+    /**
+     * Whether the striker touches the anvil now, given the train torque of this step (a sealed chamber
+     * for the oil-pulse unit): the contact episodes that make blows.
+     */
+    boolean inContact(double trainNm) {
+        return trainNm != 0.0;
+    }
+
+    /**
+     * The mechanism's own re-contact time, s: a contact episode that begins sooner than this after the
+     * start of a blow belongs to that blow. It is the shortest interval between strikes on successive
+     * jaws (one jaw pitch at the input's free speed); any contact sooner is a rebound or the striker
+     * following a nut that moved on (docs/simulator.md, "What a blow is").
+     */
+    double recontactS() {
+        return REBLOW_S;
     }
 
     /** Torque in the train (at the transducer) from the present state; forward is positive. */
@@ -110,6 +138,11 @@ abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPu
     final void restAgainstAnvil() {
         apartS = 0;
         releasedSinceContact = false;
+    }
+
+    /** Energy lost inside the mechanism (not in the train), J. */
+    final double internalLossJ() {
+        return internalLossJ;
     }
 
     /** Work the drive has done on the mechanism's input shaft, J. */

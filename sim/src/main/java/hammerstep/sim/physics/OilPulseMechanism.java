@@ -12,6 +12,9 @@ package hammerstep.sim.physics;
  */
 final class OilPulseMechanism extends Mechanism {
 
+    /** Chamber torque, as a fraction of the relief torque, above which the sealed chamber makes a pulse. */
+    static final double PULSE_FRACTION = 0.05;
+
     private final double j;
     private final double pitch;
     private final double window;
@@ -40,6 +43,21 @@ final class OilPulseMechanism extends Mechanism {
         this.relief = spec.reliefTorqueNm();
         this.shear = spec.shearNmPerRadS();
         reset();
+    }
+
+    /**
+     * A pulse is the chamber sealed and pressurised above {@link #PULSE_FRACTION} of the relief torque;
+     * a loose nut driven through the oil below it is no pulse.
+     */
+    @Override
+    boolean inContact(double trainNm) {
+        return sealed && oilNm > PULSE_FRACTION * relief;
+    }
+
+    /** The pitch between windows at the liner's free speed: the soonest a new pulse begins after one began. */
+    @Override
+    double recontactS() {
+        return pitch / drive.freeShaftSpeedRadS();
     }
 
     @Override

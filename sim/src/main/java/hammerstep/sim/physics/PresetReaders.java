@@ -161,6 +161,7 @@ final class PresetReaders {
         double d = t.requiredNumber("diameter_mm", 1, 200) * 1e-3;
         double k = t.requiredNumber("k_factor", 0.05, 0.5);
         t.finish();
+        Bolt bolt = bolt(r.optionalMap("bolt"), d);
         MapReader x = r.optionalMap("relaxation");
         double loss = 0;
         double tau = 100;
@@ -169,7 +170,41 @@ final class PresetReaders {
             tau = x.number("time_constant_ms", 100, 1, 1e6);
             x.finish();
         }
-        return new JointSpec(name, prevailing, free, full, toFull, ratio, scatter, blow, k, d, loss, tau);
+        return new JointSpec(name, prevailing, free, full, toFull, ratio, scatter, blow, k, d, loss, tau, bolt);
+    }
+
+    /** {@code bolt: { size: M16, property_class: 10.9 }} or {@code size: M14x1.5}; null when absent. */
+    private static Bolt bolt(MapReader b, double threadDiameterM) {
+        if (b == null) {
+            return null;
+        }
+        String size = b.string("size");
+        String cls = b.choice("property_class", "", Bolt.CLASSES);
+        if (!b.has("property_class")) {
+            b.problem("property_class", "missing key '" + b.path("property_class") + "': expected one of "
+                    + String.join(", ", Bolt.CLASSES));
+        }
+        b.finish();
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("M(\\d+(?:\\.\\d+)?)(?:[x×](\\d+(?:\\.\\d+)?))?")
+                .matcher(size);
+        if (!m.matches()) {
+            if (!size.isEmpty()) {
+                b.problem("size", "'" + b.path("size") + "' is \"" + size + "\": expected a metric size such as M16 or M14x1.5");
+            }
+            return null;
+        }
+        double diameterMm = Double.parseDouble(m.group(1));
+        double pitchMm = m.group(2) != null ? Double.parseDouble(m.group(2)) : Bolt.coarsePitchMm(diameterMm);
+        if (Double.isNaN(pitchMm)) {
+            b.problem("size", "'" + b.path("size") + "' is \"" + size + "\": no coarse pitch known for it; give the pitch, e.g. M"
+                    + m.group(1) + "x1.5");
+            return null;
+        }
+        if (!Double.isNaN(threadDiameterM) && Math.abs(diameterMm * 1e-3 - threadDiameterM) > 1e-9) {
+            b.problem("size", "'" + b.path("size") + "' is " + size + " but thread.diameter_mm is "
+                    + Math.round(threadDiameterM * 1e3) + ": the same bolt");
+        }
+        return cls.isEmpty() ? null : new Bolt(size, diameterMm, pitchMm, cls);
     }
 
     static TransducerSpec transducer(MapReader r, String label) {

@@ -7,8 +7,9 @@ import java.util.SplittableRandom;
  * Each output sample integrates the mechanics over {@code substeps} internal steps (at least
  * {@link #MIN_INTERNAL_RATE_HZ}), then reads the transducer's ADC.
  *
- * <p>Ground truth: every blow of the mechanism (release to release, see {@link Mechanism}) whose
- * highest shaft torque reaches the blow threshold counts, timed at that peak; per fastener.
+ * <p>Ground truth: every blow of the mechanism (a contact episode, episodes apart less than the
+ * mechanism's re-contact time merged, see {@link Mechanism}) whose highest shaft torque reaches the
+ * blow threshold counts, timed at that peak; per fastener.
  *
  * <p>Reverse ({@link #setReverse}): the tool loosens. The mechanism runs as it does forward (its dogs
  * first cross the free travel between the jaws), on the
@@ -28,6 +29,8 @@ public final class Rig {
     public static final double CUT_SHORT_FRACTION = 0.5;
     /** Blows kept per fastener; the count stays right beyond it. */
     public static final int MAX_BLOWS = 8192;
+    /** Back-face contacts kept per fastener. */
+    public static final int MAX_BACK_CONTACTS = 256;
 
     private final ToolSpec tool;
     private final TransducerSpec transducerSpec;
@@ -49,12 +52,27 @@ public final class Rig {
     private double blowThresholdNm = DEFAULT_BLOW_THRESHOLD_NM;
 
     private int seenReleases;
+    /** Contact episodes apart less than this are one blow, s (the mechanism's re-contact time). */
+    private final double mergeS;
+    private boolean blowOpen;
+    private boolean touching;
+    private long blowStartStep;
+    private boolean openCutShort;
     private double blowPeakNm;
     private long blowPeakStep;
+    private double blowPeakTurns;
+    private double blowLowNm;
+    private long blowLowStep;
+    /** The open blow reached the threshold backwards first: a back contact, never a blow. */
+    private boolean backFirst;
     private final double[] blowPeaksNm = new double[MAX_BLOWS];
     private final double[] blowTimesS = new double[MAX_BLOWS];
+    private final double[] blowTurns = new double[MAX_BLOWS];
     private final boolean[] blowCutShort = new boolean[MAX_BLOWS];
     private int closedBlows;
+    private final double[] backPeaksNm = new double[MAX_BACK_CONTACTS];
+    private final double[] backTimesS = new double[MAX_BACK_CONTACTS];
+    private int backContacts;
     private double trainWorkJ;
     private double lastShaftNm;
 
@@ -73,6 +91,7 @@ public final class Rig {
         this.drive = Drive.of(tool.drive());
         double k = tool.train().seriesStiffness(transducer.shaftStiffness());
         this.mechanism = Mechanism.of(tool.mechanism(), drive, k, tool.train().dampingRatio());
+        this.mergeS = mechanism.recontactS();
         this.fastener = new Fastener(joint, tool.train().inertiaKgM2() + transducer.inertiaKgM2(), root.split());
         this.transducer = new Transducer(transducer, internal, root.split());
         if (transducer.bandwidthHz() >= 0.5 * internal) {
@@ -150,23 +169,92 @@ public final class Rig {
         double shaft = reverse ? -t : t;
         transducer.filter(shaft);
         lastShaftNm = shaft;
-        if (t > blowPeakNm) {
-            blowPeakNm = t;
-            blowPeakStep = steps;
+        trackBlow(t);
+        steps++;
+    }
+
+    /**
+     * One definition of a blow (docs/simulator.md): a contact episode of the striker on the anvil, with
+     * every episode that begins sooner than the mechanism's re-contact time after its start (the moment
+     * its torque reached the blow threshold, as a detector starts a blow; else its first touch); it counts
+     * when its highest train torque reaches the blow threshold. One that reached the threshold backwards
+     * first is a back contact, with what follows it. {@code t} is in the tool's sense.
+     */
+    private void trackBlow(double t) {
+        if (mechanism.inContact(t)) {
+            if (blowOpen && !touching && (steps - blowStartStep) * h >= mergeS) {
+                closeBlow();
+            }
+            if (!blowOpen) {
+                blowOpen = true;
+                blowStartStep = steps;
+                blowPeakNm = 0;
+                blowLowNm = 0;
+                backFirst = false;
+                openCutShort = false;
+            }
+            touching = true;
+            if (t > blowPeakNm) {
+                if (blowPeakNm < blowThresholdNm && t >= blowThresholdNm && -blowLowNm < blowThresholdNm) {
+                    blowStartStep = steps;
+                }
+                blowPeakNm = t;
+                blowPeakStep = steps;
+                blowPeakTurns = relativeTurns();
+            } else if (t < blowLowNm) {
+                if (-blowLowNm < blowThresholdNm && -t >= blowThresholdNm && blowPeakNm < blowThresholdNm) {
+                    // reached the threshold backwards first: a back contact; what follows within the
+                    // re-contact time is its rebound, as the detector keeps a reverse strike's lobes
+                    blowStartStep = steps;
+                    backFirst = true;
+                }
+                blowLowNm = t;
+                blowLowStep = steps;
+            }
+        } else {
+            touching = false;
+            if (blowOpen && (steps - blowStartStep) * h >= mergeS) {
+                closeBlow();
+            }
         }
         if (mechanism.releases() != seenReleases) {
             seenReleases = mechanism.releases();
-            if (blowPeakNm >= blowThresholdNm) {
-                if (closedBlows < MAX_BLOWS) {
-                    blowPeaksNm[closedBlows] = reverse ? -blowPeakNm : blowPeakNm;
-                    blowTimesS[closedBlows] = blowPeakStep * h;
-                    blowCutShort[closedBlows] = t >= CUT_SHORT_FRACTION * blowPeakNm;
-                }
-                closedBlows++;
+            // released in mid-strike: the torque falls from near the peak faster than the chain follows
+            if (blowOpen && blowPeakNm >= blowThresholdNm && t >= CUT_SHORT_FRACTION * blowPeakNm) {
+                openCutShort = true;
             }
-            blowPeakNm = 0;
         }
-        steps++;
+    }
+
+    private void closeBlow() {
+        blowOpen = false;
+        if (blowPeakNm >= blowThresholdNm && !backFirst) {
+            if (closedBlows < MAX_BLOWS) {
+                blowPeaksNm[closedBlows] = reverse ? -blowPeakNm : blowPeakNm;
+                blowTimesS[closedBlows] = blowPeakStep * h;
+                blowTurns[closedBlows] = blowPeakTurns;
+                blowCutShort[closedBlows] = openCutShort;
+            }
+            closedBlows++;
+        }
+        if (-blowLowNm >= blowThresholdNm) {
+            if (backContacts < MAX_BACK_CONTACTS) {
+                backPeaksNm[backContacts] = reverse ? -blowLowNm : blowLowNm;
+                backTimesS[backContacts] = blowLowStep * h;
+            }
+            backContacts++;
+        }
+        blowPeakNm = 0;
+        blowLowNm = 0;
+    }
+
+    /** Forgets the blow under way (a new fastener, a direction switch). */
+    private void dropOpenBlow() {
+        blowOpen = false;
+        touching = false;
+        blowPeakNm = 0;
+        blowLowNm = 0;
+        seenReleases = mechanism.releases();
     }
 
     /**
@@ -182,8 +270,7 @@ public final class Rig {
         switchRad = fastener.angleRad();
         fastener.setReverse(reverse);
         mechanism.resetSwitched();
-        seenReleases = mechanism.releases();
-        blowPeakNm = 0;
+        dropOpenBlow();
     }
 
     /** The nut's angle as the mechanism sees it: from the last switch, mirrored in reverse. */
@@ -202,9 +289,9 @@ public final class Rig {
         switchRad = 0;
         fastener.renew(joint);
         mechanism.reset();
-        seenReleases = mechanism.releases();
-        blowPeakNm = 0;
+        dropOpenBlow();
         closedBlows = 0;
+        backContacts = 0;
     }
 
     /** Torque to turn the present fastener further now (first movement), N·m. */
@@ -227,9 +314,42 @@ public final class Rig {
         return fastener.clampLoadN();
     }
 
+    /** Load at which the present fastener's bolt yields (ISO 898-1: stress area × Rp0.2), N; NaN without a bolt. */
+    public double yieldLoadN() {
+        Bolt bolt = fastener.joint().bolt();
+        return bolt == null ? Double.NaN : bolt.yieldLoadN();
+    }
+
+    /** Whether the present fastener's bolt has yielded. */
+    public boolean yielded() {
+        return fastener.yielded();
+    }
+
+    /**
+     * Strikes per relative turn of striker against anvil over the present fastener's blows: blows less
+     * one over the relative turns from the first blow's peak to the last's; NaN with fewer than two.
+     */
+    public double strikesPerRev() {
+        return strikesPerRev(0);
+    }
+
+    /** As {@link #strikesPerRev()} over the blows from {@code firstBlow} on. */
+    public double strikesPerRev(int firstBlow) {
+        int last = Math.min(blows(), MAX_BLOWS) - 1;
+        if (last - firstBlow < 1) {
+            return Double.NaN;
+        }
+        double turns = blowTurns(last) - blowTurns(firstBlow);
+        return turns > 0 ? (last - firstBlow) / turns : Double.NaN;
+    }
+
     /** Blows on the present fastener so far (a blow still open counts once its peak qualifies). */
     public int blows() {
-        return closedBlows + (blowPeakNm >= blowThresholdNm ? 1 : 0);
+        return closedBlows + (openBlowCounts() ? 1 : 0);
+    }
+
+    private boolean openBlowCounts() {
+        return blowOpen && blowPeakNm >= blowThresholdNm && !backFirst;
     }
 
     /** Peak shaft torque of blow {@code i} (0-based) of the present fastener, N·m; negative for a reverse blow. */
@@ -242,13 +362,42 @@ public final class Rig {
         return i == closedBlows ? blowPeakStep * h : blowTimesS[i];
     }
 
+    /** Turns of the mechanism's input relative to the fastener at blow {@code i}'s peak (see {@link #relativeTurns()}). */
+    public double blowTurns(int i) {
+        return i == closedBlows ? blowPeakTurns : blowTurns[i];
+    }
+
     /**
      * Whether blow {@code i} was cut short: the striker was released in mid-strike (dogs sliding
      * off a jaw they barely engaged), so its torque fell from near its peak within microseconds,
      * faster than a transducer and ADC can follow. Its measured peak reads low.
      */
     public boolean blowCutShort(int i) {
-        return i < closedBlows && blowCutShort[i];
+        return i < closedBlows ? blowCutShort[i] : (i == closedBlows && openCutShort);
+    }
+
+    /**
+     * Back-face contacts on the present fastener whose torque reached the blow threshold against the
+     * tool's sense: the hammer's back dog face meeting the jaw behind it (docs/simulator.md, "The back
+     * contact after the last blow"). Never a blow.
+     */
+    public int backContacts() {
+        return backContacts;
+    }
+
+    /** Lowest shaft torque of back contact {@code i}, N·m (negative when tightening). */
+    public double backContactNm(int i) {
+        return backPeaksNm[i];
+    }
+
+    /** Time of back contact {@code i}'s lowest torque, seconds of virtual time. */
+    public double backContactTimeS(int i) {
+        return backTimesS[i];
+    }
+
+    /** The re-contact time that merges contact episodes into one blow, s. */
+    public double recontactS() {
+        return mergeS;
     }
 
     /** Samples produced so far. */
@@ -306,24 +455,24 @@ public final class Rig {
     public Energy energy() {
         return new Energy(mechanism.driveWorkJ(), mechanism.storedJ(), fastener.kineticJ(),
                 mechanism.trainElasticJ(toolSense(fastener.angleRad())), trainWorkJ,
-                fastener.jointWorkJ());
+                fastener.jointWorkJ(), mechanism.internalLossJ());
     }
 
     /**
      * Energy ledger, J. {@code driveWorkJ} balances {@code mechanismJ + nutKineticJ + trainWorkJ +
-     * jointWorkJ} to integration tolerance; of the train work, {@code trainElasticJ} is still held
-     * and the rest was lost (contact damping, oil leak, relief and venting, elastic energy left behind
-     * when the striker lets go).
+     * jointWorkJ + mechanismLossJ} to integration tolerance; of the train work, {@code trainElasticJ} is
+     * still held and the rest was lost (contact damping, oil leak, relief and venting, elastic energy left
+     * behind when the striker lets go); {@code mechanismLossJ} was lost inside the mechanism (end stops).
      */
     public record Energy(double driveWorkJ, double mechanismJ, double nutKineticJ, double trainElasticJ,
-                         double trainWorkJ, double jointWorkJ) {
+                         double trainWorkJ, double jointWorkJ, double mechanismLossJ) {
 
         public double balanceErrorJ() {
-            return driveWorkJ - (mechanismJ + nutKineticJ + trainWorkJ + jointWorkJ);
+            return driveWorkJ - (mechanismJ + nutKineticJ + trainWorkJ + jointWorkJ + mechanismLossJ);
         }
 
         public double lossesJ() {
-            return trainWorkJ - trainElasticJ;
+            return trainWorkJ - trainElasticJ + mechanismLossJ;
         }
     }
 }

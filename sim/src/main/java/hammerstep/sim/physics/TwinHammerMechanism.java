@@ -31,6 +31,12 @@ final class TwinHammerMechanism extends Mechanism {
         this.camOutS = spec.camOutMs() * 1e-3;
     }
 
+    /** One relative turn at the cage's free speed: the soonest the hammers can strike the jaw again after swinging out. */
+    @Override
+    double recontactS() {
+        return PITCH / drive.freeShaftSpeedRadS();
+    }
+
     @Override
     double trainTorque(double nutAngle, double nutSpeed) {
         if (!engaged) {

@@ -13,7 +13,8 @@ class JointModelTest {
     /** Turns a fastener of {@code joint} (no scatter) by a slowly rising torque until it reaches {@code torqueNm}. */
     private static double angleAtTorque(JointSpec joint, double torqueNm) {
         JointSpec exact = new JointSpec(joint.name(), joint.prevailingTorqueNm(), joint.freeAngleRad(),
-                joint.fullTorqueNm(), joint.angleToFullRad(), 1.0, 0, 0, joint.kFactor(), joint.diameterM(), 0, 100);
+                joint.fullTorqueNm(), joint.angleToFullRad(), 1.0, 0, 0, joint.kFactor(), joint.diameterM(), 0, 100,
+                null);
         Fastener f = new Fastener(exact, 1e-4, new SplittableRandom(1));
         double h = 1e-5;
         double applied = 0;
@@ -41,7 +42,7 @@ class JointModelTest {
     @Test
     @DisplayName("clamp load follows T = K·F·d: M12 at 88.0 N·m, K 0.2 clamps 36.7 kN (short-form torque-tension relation, worked by hand)")
     void clampLoadFollowsTheShortFormTorqueTension() {
-        JointSpec m12 = new JointSpec("m12", 0, 0, 100, 1, 1.1, 0, 0, 0.2, 0.012, 0, 100);
+        JointSpec m12 = new JointSpec("m12", 0, 0, 100, 1, 1.1, 0, 0, 0.2, 0.012, 0, 100, null);
         assertThat(m12.clampLoadN(88.0)).isCloseTo(36_667, within(10.0));
     }
 

@@ -74,7 +74,7 @@ class StrikeTest {
         double runningNm = 150.0;
         double nutJ = 1.0e-4;
         double zeta = 0.3;
-        JointSpec joint = new JointSpec("test", runningNm, 1e6, runningNm + 1, 1.0, 1.1, 0, 0, 0.2, 0.016, 0, 100);
+        JointSpec joint = new JointSpec("test", runningNm, 1e6, runningNm + 1, 1.0, 1.1, 0, 0, 0.2, 0.016, 0, 100, null);
         TwinHammerMechanism m = cage(zeta);
         Fastener nut = new Fastener(joint, nutJ, new SplittableRandom(1));
         m.setStriker(-1e-3, OMEGA);
