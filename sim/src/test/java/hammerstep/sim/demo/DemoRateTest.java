@@ -1,10 +1,10 @@
 package hammerstep.sim.demo;
 
 import hammerstep.app.StationSections;
+import hammerstep.config.StationSection;
 import hammerstep.sim.physics.SampleRates;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
-import hammerstep.station.setup.StationSection;
 import org.junit.jupiter.api.Test;
 
 import java.nio.file.Files;
