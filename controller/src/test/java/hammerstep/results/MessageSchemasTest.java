@@ -23,7 +23,8 @@ class MessageSchemasTest {
             + "\"site\":\"plant-north\",\"line\":\"axle-2\",\"station\":\"hub-fit-1\",\"time\":\"2026-03-04T05:06:10Z\","
             + "\"state\":\"online\",\"started\":\"2026-03-04T05:00:00Z\",\"version\":\"1.0\",\"storage\":\"OK\","
             + "\"backlog\":0,\"last_seq\":{\"joint\":3,\"part\":1,\"event\":0},"
-            + "\"activity\":{\"mode\":\"READY\",\"part_serial\":null,\"part_model\":null,\"pattern\":null}}";
+            + "\"activity\":{\"mode\":\"WAITING\",\"part_serial\":null,\"part_model\":null,\"pattern\":null,"
+            + "\"queued_part\":{\"serial\":\"WH-0003\",\"model\":\"hub-5\"}}}";
     private static final String RESPONSE = "{\"schema\":\"hammerstep.response.v1\",\"id\":\"r-1\",\"seq\":1,"
             + "\"site\":\"plant-north\",\"line\":\"axle-2\",\"station\":\"hub-fit-1\",\"time\":\"2026-03-04T05:06:10Z\","
             + "\"command\":\"status\",\"ok\":true,\"code\":\"OK\",\"message\":\"status\",\"status\":" + STATUS + "}";
