@@ -9,71 +9,154 @@ import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.HashMap;
+import java.util.Map;
 
 /**
- * A file of messages, one a line: a JSON object, or a topic, a space and the JSON object (as
- * {@code mosquitto_sub -v} prints them). Blank lines and empty payloads (a cleared retained message,
- * printed as a topic alone or followed by {@code (null)}) are skipped. A line that is neither is an
- * error naming file and line, as are a file that is missing, unreadable or not UTF-8 text.
+ * A file of messages, one a line, as a station writes them or a subscriber logs them: a JSON object,
+ * or a topic, a space and the JSON object (as {@code mosquitto_sub -v} prints them). The one reader
+ * of such files; what it hands on and what it leaves out:
+ * <ul>
+ * <li>blank lines and empty payloads (a cleared retained message, printed as a topic alone or followed
+ *     by {@code (null)}) are skipped;</li>
+ * <li>whatever came on a command topic ({@code .../cmd/NAME}) is a request to the station, not its
+ *     result: skipped and counted, whether it is JSON or not (a cut {@code {"serial":});</li>
+ * <li>a message whose {@code id} came earlier in the file with the same content (at-least-once delivery,
+ *     a log spanning a reconnect) is dropped and counted; the same {@code id} with other content is an
+ *     error naming both lines: a station never sends two different messages under one id (logs of two
+ *     stations or two journals mixed), and which one is the result cannot be told;</li>
+ * <li>a line that is not a whole JSON object is skipped and counted when it cannot be a joint result
+ *     (a payload cut short, a word of another tool's); when it may be one (it came on a {@code joint}
+ *     topic, or names the joint schema or a joint's figures) it is an error naming file and line, since
+ *     figures without it would not be honest.</li>
+ * </ul>
+ * A file that is missing, unreadable or not UTF-8 text is an error naming it.
  */
 final class MessageLines {
 
     private static final ObjectMapper JSON = new ObjectMapper();
 
-    /** Takes each message of a file, with its line number. */
+    /** Takes each message of a file, each id once, with its line number. */
     interface Reader {
         void message(int line, JsonNode message) throws InputException;
+    }
+
+    /**
+     * What a read left out.
+     *
+     * @param duplicates          messages dropped because their id came earlier with the same content
+     * @param commands            lines on a command topic, skipped
+     * @param unreadable          lines that are no whole JSON object and cannot be a joint result, skipped
+     * @param firstUnreadableLine the first of those, 0 when none
+     */
+    record Tally(int duplicates, int commands, int unreadable, int firstUnreadableLine) {
+    }
+
+    /** A line split into its topic (null when the line is the payload alone) and its payload ("" when empty). */
+    record Line(String topic, String payload) {
     }
 
     private MessageLines() {
     }
 
-    static void read(Path file, Reader reader) throws InputException {
+    static Tally read(Path file, Reader reader) throws InputException {
+        Map<String, Seen> ids = new HashMap<>();
+        int duplicates = 0;
+        int commands = 0;
+        int unreadable = 0;
+        int firstUnreadable = 0;
         try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
             String text;
             int line = 0;
             while ((text = in.readLine()) != null) {
                 line++;
-                String payload = payload(text);
-                if (payload.isEmpty()) {
+                Line l = split(text);
+                if (l.payload().isEmpty()) {
                     continue;
                 }
-                JsonNode node;
-                try {
-                    node = JSON.readTree(payload);
-                } catch (JsonProcessingException e) {
-                    throw new InputException(file + ":" + line + ": not a JSON object: "
-                            + e.getOriginalMessage().lines().findFirst().orElse(""));
+                if (l.topic() != null && isCommandTopic(l.topic())) {
+                    commands++;
+                    continue;
                 }
-                if (node == null || !node.isObject()) {
-                    throw new InputException(file + ":" + line + ": expected a JSON object, got "
-                            + (node == null ? "nothing" : node.getNodeType()));
+                JsonNode node = parse(file, line, l);
+                if (node == null) {
+                    unreadable++;
+                    firstUnreadable = firstUnreadable == 0 ? line : firstUnreadable;
+                    continue;
+                }
+                JsonNode id = node.get("id");
+                if (id != null && id.isTextual()) {
+                    Seen earlier = ids.putIfAbsent(id.asText(), new Seen(line, node.hashCode()));
+                    if (earlier != null) {
+                        if (earlier.hash() != node.hashCode()) {
+                            throw new InputException(file + ":" + line + ": message id \"" + id.asText()
+                                    + "\" came on line " + earlier.line() + " with other content; a station never"
+                                    + " sends two different messages under one id (logs of two stations or two"
+                                    + " journals mixed?): which one is the result cannot be told");
+                        }
+                        duplicates++;
+                        continue;
+                    }
                 }
                 reader.message(line, node);
             }
         } catch (IOException e) {
             throw InputException.reading(file, e);
         }
+        return new Tally(duplicates, commands, unreadable, firstUnreadable);
+    }
+
+    private record Seen(int line, int hash) {
+    }
+
+    /** The line's JSON object; null when it is none and cannot be a joint result; an error when it may be one. */
+    private static JsonNode parse(Path file, int line, Line l) throws InputException {
+        String problem;
+        try {
+            JsonNode node = JSON.readTree(l.payload());
+            if (node != null && node.isObject()) {
+                return node;
+            }
+            problem = "expected a JSON object, got " + (node == null ? "nothing" : node.getNodeType());
+        } catch (JsonProcessingException e) {
+            problem = "not a JSON object: " + e.getOriginalMessage().lines().findFirst().orElse("");
+        }
+        if (mayBeJoint(l)) {
+            throw new InputException(file + ":" + line + ": " + problem + " (a joint result that cannot be read:"
+                    + " figures without it would not be honest)");
+        }
+        return null;
+    }
+
+    /** True when a line that is no whole message may still have been a joint result. */
+    static boolean mayBeJoint(Line l) {
+        String p = l.payload();
+        return l.topic() != null && l.topic().endsWith("/joint") || p.contains("hammerstep.joint")
+                || p.contains("final_torque_nm") || p.contains("peaks_nm");
+    }
+
+    /** True for a topic under a station's {@code cmd/}: a request to the station, not a message of it. */
+    static boolean isCommandTopic(String topic) {
+        return topic.contains("/cmd/") || topic.endsWith("/cmd");
     }
 
     /**
-     * The JSON object of a line: the line itself, or what follows the topic; "" for a blank line or
-     * an empty payload. Anything else is returned whole, for the caller to refuse as not JSON.
+     * The topic and the payload of a line: the line itself when it starts with {@code {} (or is no
+     * topic and payload), else what precedes and follows the first space when the first word is a topic
+     * (has a {@code /}); the payload is "" for a blank line or an empty payload.
      */
-    static String payload(String line) {
+    static Line split(String line) {
         String s = line.strip();
         if (s.isEmpty() || s.charAt(0) == '{') {
-            return s;
+            return new Line(null, s);
         }
         int space = s.indexOf(' ');
-        if (space < 0) {
-            return s.indexOf('/') > 0 ? "" : s; // a topic alone: an empty payload
+        String first = space < 0 ? s : s.substring(0, space);
+        if (first.indexOf('/') <= 0) {
+            return new Line(null, s);
         }
-        String rest = s.substring(space + 1).strip();
-        if (rest.equals("(null)")) {
-            return "";
-        }
-        return rest.startsWith("{") && s.substring(0, space).indexOf('/') > 0 ? rest : s;
+        String rest = space < 0 ? "" : s.substring(space + 1).strip();
+        return new Line(first, rest.equals("(null)") ? "" : rest);
     }
 
     /** A message's text field, "" when it is missing or null. */

@@ -7,12 +7,16 @@ import java.util.ArrayList;
 import java.util.List;
 
 /**
- * Reads joint results from a JSONL file: one JSON object per line (or a topic and the object, as
- * {@code mosquitto_sub -v} prints them), as the quality system receives the joint messages ({@code schema} {@value #JOINT_SCHEMA}). Lines of other schemas
- * (part, event, status messages) are skipped and counted; a line without {@code schema} that
- * carries {@code final_torque_nm} (the output of {@code hammerstep replay}) is read as a joint.
- * A loosening ({@code "direction": "loosen"}) is no tightening of the joint: skipped and counted too.
- * A line that is not JSON, or a joint line missing a field, is an error naming file and line.
+ * Reads joint results from a file of messages ({@link MessageLines}: one JSON object a line, or a topic
+ * and the object as {@code mosquitto_sub -v} prints them; a station's results, the demo's
+ * {@code --results-out} or a subscriber's raw log), as the quality system receives the joint messages
+ * ({@code schema} {@value #JOINT_SCHEMA}). Only joint results are used: messages of other schemas
+ * (part, event, status, responses) and commands are skipped and counted; a message repeated under its
+ * {@code id} is used once and the repeats counted (the same id with other content is an error); a line
+ * that is no whole message and cannot be a joint result is skipped and counted. A line without
+ * {@code schema} that carries {@code final_torque_nm} (the output of {@code hammerstep replay}) is read
+ * as a joint. A loosening ({@code "direction": "loosen"}) is no tightening of the joint: skipped and
+ * counted too. A joint line missing a field is an error naming file and line.
  */
 public final class ResultsFile {
 
@@ -21,13 +25,39 @@ public final class ResultsFile {
     private ResultsFile() {
     }
 
-    /** The joints of a file in file order, and how many lines were other messages. */
-    public record Contents(Path file, List<JointRecord> joints, int skipped) { }
+    /**
+     * The joints of a file in file order, each id once, and what was left out.
+     *
+     * @param skipped             messages of other kinds, loosenings and commands
+     * @param duplicates          messages dropped because their id came earlier (same content)
+     * @param unreadable          lines that are no whole message and cannot be a joint result
+     * @param firstUnreadableLine the first of those, 0 when none
+     */
+    public record Contents(Path file, List<JointRecord> joints, int skipped, int duplicates, int unreadable,
+                           int firstUnreadableLine) {
+
+        /** What was left out, in words, e.g. "3 repeated messages (same id) dropped"; "" when nothing was. */
+        public String leftOut() {
+            List<String> parts = new ArrayList<>();
+            if (duplicates > 0) {
+                parts.add(duplicates + (duplicates == 1 ? " repeated message" : " repeated messages")
+                        + " (same id) dropped");
+            }
+            if (skipped > 0) {
+                parts.add(skipped + (skipped == 1 ? " line" : " lines") + " of other messages skipped");
+            }
+            if (unreadable > 0) {
+                parts.add(unreadable + (unreadable == 1 ? " line that is" : " lines that are") + " no message, skipped"
+                        + " (first: line " + firstUnreadableLine + ")");
+            }
+            return String.join(", ", parts);
+        }
+    }
 
     public static Contents read(Path file) throws InputException {
         List<JointRecord> joints = new ArrayList<>();
         int[] skipped = {0};
-        MessageLines.read(file, (line, node) -> {
+        MessageLines.Tally tally = MessageLines.read(file, (line, node) -> {
             JsonNode schema = node.get("schema");
             boolean joint = schema == null ? node.has("final_torque_nm") : JOINT_SCHEMA.equals(schema.asText());
             JsonNode direction = node.get("direction");
@@ -37,7 +67,8 @@ public final class ResultsFile {
             }
             joints.add(joint(file, line, node));
         });
-        return new Contents(file, joints, skipped[0]);
+        return new Contents(file, joints, skipped[0] + tally.commands(), tally.duplicates(), tally.unreadable(),
+                tally.firstUnreadableLine());
     }
 
     private static JointRecord joint(Path file, int line, JsonNode n) throws InputException {

@@ -16,10 +16,10 @@ import java.util.Set;
  *
  * <p>The file holds one message a line: a JSON object, or a topic, a space and the JSON object (as
  * {@code mosquitto_sub -v} prints them). Messages of every kind may be mixed (joint, part, event,
- * status, responses); only joint messages ({@value ResultsFile#JOINT_SCHEMA}) are kept, the others
- * counted. A message delivered twice (at-least-once delivery, a subscriber's log spanning a
- * reconnect) is kept once, by its {@code id}. Empty payloads (a cleared retained message, printed
- * as {@code (null)}) are skipped. A line that is neither is an error naming file and line.
+ * status, responses, commands); only joint messages ({@value ResultsFile#JOINT_SCHEMA}) are kept, the
+ * others counted. A message delivered twice (at-least-once delivery, a subscriber's log spanning a
+ * reconnect) is kept once, by its {@code id}; the same id with other content is an error. Empty
+ * payloads and lines that cannot be a joint result are skipped; see {@link MessageLines}.
  *
  * <p>A stored trace is matched to its joint by the trace's file name, which the joint message
  * names in {@code trace} (the station's path; the name alone is compared, so an archive copied
@@ -60,10 +60,8 @@ public final class StoredJoints {
 
     public static StoredJoints read(Path file) throws InputException {
         List<Joint> joints = new ArrayList<>();
-        Set<String> ids = new HashSet<>();
-        int[] duplicates = {0};
         int[] other = {0};
-        MessageLines.read(file, (line, node) -> {
+        MessageLines.Tally tally = MessageLines.read(file, (line, node) -> {
             JsonNode schema = node.get("schema");
             if (schema == null || !ResultsFile.JOINT_SCHEMA.equals(schema.asText())) {
                 other[0]++;
@@ -73,13 +71,9 @@ public final class StoredJoints {
             if (id.isEmpty()) {
                 throw new InputException(file + ":" + line + ": joint message without 'id'");
             }
-            if (!ids.add(id)) {
-                duplicates[0]++;
-                return;
-            }
             joints.add(joint(line, id, node));
         });
-        return new StoredJoints(file, joints, duplicates[0], other[0]);
+        return new StoredJoints(file, joints, tally.duplicates(), other[0] + tally.commands() + tally.unreadable());
     }
 
     private static Joint joint(int line, String id, JsonNode n) {
@@ -131,12 +125,12 @@ public final class StoredJoints {
         return joints;
     }
 
-    /** Joint messages dropped because their id came earlier in the file. */
+    /** Messages dropped because their id came earlier in the file (with the same content). */
     public int duplicates() {
         return duplicates;
     }
 
-    /** Messages of other kinds (part, event, status, responses), skipped. */
+    /** Messages of other kinds (part, event, status, responses), commands and lines that are no message, skipped. */
     public int otherMessages() {
         return otherMessages;
     }

@@ -100,9 +100,13 @@ public final class AuditCommand implements Callable<Integer> {
         }
         if (json) {
             System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT)
-                    .writeValueAsString(toJson(report, audits.size())));
+                    .writeValueAsString(toJson(report, audits.size(), results)));
         } else {
             print(report, audits.size(), System.out);
+            if (!results.leftOut().isEmpty()) {
+                System.out.println(resultsFile + ": " + results.joints().size() + " joint results used, "
+                        + results.leftOut());
+            }
         }
         if (plot != null) {
             AuditChart.write(report, plot);
@@ -113,9 +117,13 @@ public final class AuditCommand implements Callable<Integer> {
         return 0;
     }
 
-    static Map<String, Object> toJson(AuditStudy.Report report, int audits) {
+    static Map<String, Object> toJson(AuditStudy.Report report, int audits, ResultsFile.Contents results) {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("audits", audits);
+        m.put("joint_results", results.joints().size());
+        m.put("duplicates_dropped", results.duplicates());
+        m.put("other_lines_skipped", results.skipped());
+        m.put("unreadable_lines_skipped", results.unreadable());
         m.put("unpaired", report.unpaired().size());
         m.put("unpaired_lines", report.unpaired().stream().map(Audit::line).toList());
         m.put("confidence", report.confidence());

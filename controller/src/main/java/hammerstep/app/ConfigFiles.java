@@ -8,7 +8,6 @@ import hammerstep.joint.ProgramFile;
 import hammerstep.sequence.PatternFile;
 import hammerstep.station.setup.StationFile;
 import hammerstep.station.setup.StationConfig;
-import hammerstep.hardware.HardwareSections;
 
 import java.nio.file.Path;
 
@@ -41,13 +40,7 @@ public final class ConfigFiles {
         }
         if (root.entries().containsKey("identity") || root.entries().containsKey("parts")) {
             StationConfig station = StationFile.read(doc, dir, StationSections.all());
-            String mismatch = station.has(HardwareSections.HARDWARE) && station.has(HardwareSections.TRANSDUCER)
-                    ? HardwareSections.mismatch(station.get(HardwareSections.HARDWARE),
-                    station.get(HardwareSections.TRANSDUCER)) : null;
-            if (mismatch != null) {
-                ConfigNode t = root.entries().get("transducer");
-                throw new ConfigException(new Problem(doc.file(), t.line(), t.column(), mismatch));
-            }
+            StartChecks.check(doc, station, false); // what run would refuse at start, refused here too
             return;
         }
         String hint = root.entries().containsKey("name") && root.entries().containsKey("description")

@@ -80,16 +80,10 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
     @Override
     public Integer call() throws ConfigException, InterruptedException {
         Logging.configure(verbose, Level.INFO);
-        StationConfig station = StationFile.load(hardware.config, StationSections.all());
+        // everything run refuses at start is refused here, before anything opens, as check refuses it (exit 2)
+        StationConfig station = StartChecks.load(hardware.config);
         HardwareSettings hw = station.get(HardwareSections.HARDWARE);
         TransducerSettings td = station.get(HardwareSections.TRANSDUCER);
-        if (hw == null || td == null) {
-            throw new UserError(hardware.config + ": 'hardware' and 'transducer' sections are needed to run a station");
-        }
-        String mismatch = HardwareSections.mismatch(hw, td);
-        if (mismatch != null) {
-            throw new UserError(hardware.config + ": " + mismatch);
-        }
         StationClock clock = new SystemStationClock();
         StationId id = station.get(IdentitySection.INSTANCE);
         java.nio.file.Path file = hardware.config;

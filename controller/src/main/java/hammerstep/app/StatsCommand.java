@@ -33,7 +33,8 @@ import java.util.concurrent.Callable;
                         + " VDI/VDE 2645-2 style)."})
 public final class StatsCommand implements Callable<Integer> {
 
-    @Parameters(index = "0", paramLabel = "RESULTS", description = "joint results, JSON lines (other message kinds are skipped)")
+    @Parameters(index = "0", paramLabel = "RESULTS", description = "joint results, JSON lines or a subscriber's log (mosquitto_sub -v); other message kinds and"
+                    + " commands are skipped, a message repeated under its id is used once")
     Path results;
 
     @Option(names = "--json", description = "print one JSON document instead of a table")
@@ -66,7 +67,7 @@ public final class StatsCommand implements Callable<Integer> {
         }
         if (joints.isEmpty()) {
             throw new UserError(results + ": no joint results" + (program == null ? "" : " of program " + program)
-                    + (contents.skipped() > 0 ? " (" + contents.skipped() + " lines of other messages skipped)" : ""));
+                    + (contents.leftOut().isEmpty() ? "" : " (" + contents.leftOut() + ")"));
         }
         if (plot != null && Picture.formatOf(plot) == null) {
             throw new UserError("--plot " + plot + ": the picture's name must end in .png or .svg");
@@ -74,9 +75,9 @@ public final class StatsCommand implements Callable<Integer> {
         CapabilityStudy.Report report = CapabilityStudy.of(joints, !noPositions);
         if (json) {
             ObjectMapper mapper = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
-            System.out.println(mapper.writeValueAsString(toJson(report, contents.skipped())));
+            System.out.println(mapper.writeValueAsString(toJson(report, contents)));
         } else {
-            printTable(report, contents.skipped(), System.out);
+            printTable(report, contents, System.out);
         }
         if (plot != null) {
             CapabilityCharts.write(report, plot);
@@ -87,11 +88,13 @@ public final class StatsCommand implements Callable<Integer> {
         return 0;
     }
 
-    static Map<String, Object> toJson(CapabilityStudy.Report report, int skipped) {
+    static Map<String, Object> toJson(CapabilityStudy.Report report, ResultsFile.Contents read) {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("joints", report.joints());
         m.put("sensor_fault_excluded", report.sensorFaults());
-        m.put("other_lines_skipped", skipped);
+        m.put("other_lines_skipped", read.skipped());
+        m.put("duplicates_dropped", read.duplicates());
+        m.put("unreadable_lines_skipped", read.unreadable());
         m.put("required_index", Capability.REQUIRED);
         m.put("mixed_limits", report.programsWithMixedLimits());
         List<Map<String, Object>> groups = new ArrayList<>();
@@ -133,7 +136,7 @@ public final class StatsCommand implements Callable<Integer> {
         return Double.isFinite(v) ? Math.round(v * scale) / (double) scale : null;
     }
 
-    static void printTable(CapabilityStudy.Report report, int skipped, PrintStream out) {
+    static void printTable(CapabilityStudy.Report report, ResultsFile.Contents read, PrintStream out) {
         out.printf(Locale.ROOT, "%-16s %-8s %4s %9s %8s %7s %7s  %6s %6s %7s %7s  %s%n", "program", "position", "n",
                 "mean_nm", "sd_nm", "Cm", "Cmk", "blows", "sd", "Cm", "Cmk", "flags");
         for (CapabilityStudy.Entry e : report.entries()) {
@@ -153,7 +156,7 @@ public final class StatsCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, "%d joints%s%s; figures below %.2f or fewer than %d joints are flagged"
                         + " (machine capability as usually asked, VDI/VDE 2645-2 style)%n", report.joints(),
                 report.sensorFaults() > 0 ? ", " + report.sensorFaults() + " with a sensor fault left out" : "",
-                skipped > 0 ? ", " + skipped + " lines of other messages skipped" : "",
+                read.leftOut().isEmpty() ? "" : ", " + read.leftOut(),
                 Capability.REQUIRED, Capability.MIN_STUDY);
     }
 

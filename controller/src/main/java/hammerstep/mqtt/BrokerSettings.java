@@ -103,9 +103,7 @@ public record BrokerSettings(
         long statusInterval = r.integer("status_interval_s", 60, 1, 86_400);
         int inflight = r.integer("inflight", 32, 1, 1000);
         r.finish();
-        if (!url.isEmpty()) {
-            checkUrl(r, url);
-        }
+        checkUrl(r, url);
         if (!clientId.isEmpty() && !clientId.matches("[A-Za-z0-9._-]{1,64}")) {
             r.problem("client_id", "'" + r.path("client_id") + "': expected 1 to 64 letters, digits, '.', '_' or '-'");
         }
@@ -122,14 +120,29 @@ public record BrokerSettings(
             r.problem(has, "'" + r.path(has) + "' needs '" + (certFile != null ? "key_file" : "cert_file")
                     + "' beside it: a client certificate and its private key go together");
         }
-        if (caFile != null && !java.nio.file.Files.isRegularFile(base.resolve(caFile))) {
-            r.problem("ca_file", "'" + r.path("ca_file") + "': no such file " + base.resolve(caFile).normalize());
+        boolean certReadable = false;
+        if (caFile != null) {
+            Path ca = base.resolve(caFile).normalize();
+            String why = java.nio.file.Files.isRegularFile(ca) ? PemFiles.certificateProblem(ca) : "no such file " + ca;
+            if (why != null) {
+                r.problem("ca_file", "'" + r.path("ca_file") + "': " + why);
+            }
         }
-        if (certFile != null && !java.nio.file.Files.isRegularFile(base.resolve(certFile))) {
-            r.problem("cert_file", "'" + r.path("cert_file") + "': no such file " + base.resolve(certFile).normalize());
+        if (certFile != null) {
+            Path cert = base.resolve(certFile).normalize();
+            String why = java.nio.file.Files.isRegularFile(cert) ? PemFiles.certificateProblem(cert)
+                    : "no such file " + cert;
+            if (why != null) {
+                r.problem("cert_file", "'" + r.path("cert_file") + "': " + why);
+            }
+            certReadable = why == null;
         }
         if (keyFile != null) {
-            String why = PasswordFile.problem(base.resolve(keyFile).normalize());
+            Path key = base.resolve(keyFile).normalize();
+            String why = PasswordFile.problem(key);
+            if (why == null && certReadable) {
+                why = PemFiles.keyProblem(key, base.resolve(certFile).normalize());
+            }
             if (why != null) {
                 r.problem("key_file", "'" + r.path("key_file") + "': " + why);
             }
@@ -148,15 +161,28 @@ public record BrokerSettings(
                 keepAlive, connectTimeout, minMs, maxMs, sessionExpiry, commandMaxExpiry, statusInterval, inflight);
     }
 
+    /** Refuses what the client could never connect to: an empty url, another scheme, no host, a port outside 1..65535. */
     private static void checkUrl(MapReader r, String url) {
+        if (!r.has("url")) {
+            return; // reported missing
+        }
+        String expected = "expected tcp://HOST:PORT or ssl://HOST:PORT";
+        if (url.isBlank()) {
+            r.problem("url", "'" + r.path("url") + "' is empty: " + expected);
+            return;
+        }
         try {
             URI u = new URI(url);
             if (!("tcp".equals(u.getScheme()) || "ssl".equals(u.getScheme())) || u.getHost() == null
-                    || u.getPort() < 1 || (u.getPath() != null && !u.getPath().isEmpty())) {
-                r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": expected tcp://HOST:PORT or ssl://HOST:PORT");
+                    || (u.getPath() != null && !u.getPath().isEmpty()) || u.getQuery() != null
+                    || u.getFragment() != null || u.getUserInfo() != null) {
+                r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": " + expected);
+            } else if (u.getPort() < 1 || u.getPort() > 65535) {
+                r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": "
+                        + (u.getPort() == -1 ? "no port; " + expected : "port " + u.getPort() + " is outside 1 to 65535"));
             }
         } catch (URISyntaxException e) {
-            r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": expected tcp://HOST:PORT or ssl://HOST:PORT");
+            r.problem("url", "'" + r.path("url") + "' is \"" + url + "\": " + expected);
         }
     }
 }

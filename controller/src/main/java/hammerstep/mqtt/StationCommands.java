@@ -35,17 +35,29 @@ public interface StationCommands {
     /**
      * What the station is doing, for status messages.
      *
-     * @param mode e.g. {@code READY}, {@code IN_PART}, {@code FAULT}; the station's own words
+     * @param mode         e.g. {@code READY}, {@code IN_PART}, {@code FAULT}; the station's own words
+     * @param queuedSerial the part named for the fixture that has not arrived yet ({@code cmd/part}
+     *                     answered "starts when it is in the fixture", or a scanned label), or null
+     * @param queuedModel  its model, or null
      */
-    record Activity(String mode, String partSerial, String partModel, String pattern) {
+    record Activity(String mode, String partSerial, String partModel, String pattern, String queuedSerial,
+                    String queuedModel) {
 
         public static final Activity UNKNOWN = new Activity("UNKNOWN", null, null, null);
+
+        /** Without a queued part. */
+        public Activity(String mode, String partSerial, String partModel, String pattern) {
+            this(mode, partSerial, partModel, pattern, null, null);
+        }
     }
 
     /** {@code cmd/part}: a part with this serial and model is in the fixture; the model selects the pattern. */
     CompletionStage<Reply> startPart(String serial, String model);
 
-    /** {@code cmd/end-part}: end the part in progress as abandoned, with the requester's reason. */
+    /**
+     * {@code cmd/end-part}: end the part in progress as abandoned, with the requester's reason; with no
+     * part in progress, cancel the part that waits for the fixture (it never started, so nothing is stored).
+     */
     CompletionStage<Reply> endPart(String reason);
 
     /** {@code cmd/reload}: read the program and pattern files again, after the part in progress. */

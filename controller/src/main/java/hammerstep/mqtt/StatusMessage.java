@@ -92,6 +92,14 @@ final class StatusMessage {
         act.put("part_serial", a.partSerial());
         act.put("part_model", a.partModel());
         act.put("pattern", a.pattern());
+        if (a.queuedSerial() != null) {
+            Map<String, Object> queued = new LinkedHashMap<>();
+            queued.put("serial", a.queuedSerial());
+            queued.put("model", a.queuedModel());
+            act.put("queued_part", queued);
+        } else {
+            act.put("queued_part", null);
+        }
         m.put("activity", act);
         StationCommands.DataGaps gaps = dataGaps();
         if (gaps != null) {

@@ -66,6 +66,12 @@ public record StorageSettings(Path dir, long segmentBytes, long retainBytes, lon
         if (lowFreeMb < minFreeMb) {
             r.problem("low_free_mb", "'" + r.path("low_free_mb") + "' must be at least min_free_mb (" + minFreeMb + ")");
         }
+        if (!dir.isEmpty()) {
+            String why = hammerstep.config.Folders.problem(base.resolve(dir));
+            if (why != null) {
+                r.problem("dir", "'" + r.path("dir") + "' cannot hold the result journal: " + why);
+            }
+        }
         if (!r.problems().isEmpty()) {
             return defaults(base.resolve(dir.isEmpty() ? "outbox" : dir));
         }

@@ -46,7 +46,14 @@ public final class TracesSection implements StationSection<TracesSection.Traces>
         double ring = r.number("ring_s", 12, 0.1, 600);
         r.finish();
         Path d = Path.of(dir.isEmpty() ? "traces" : dir);
-        return new Traces(base == null || d.isAbsolute() ? d : base.resolve(d), count, (long) (mb * 1e6),
+        Path where = base == null || d.isAbsolute() ? d : base.resolve(d);
+        if (!dir.isEmpty()) {
+            String why = hammerstep.config.Folders.problem(where);
+            if (why != null) {
+                r.problem("dir", "'" + r.path("dir") + "' cannot hold the stored traces: " + why);
+            }
+        }
+        return new Traces(where, count, (long) (mb * 1e6),
                 enc.equals("float32") ? StoredTrace.Encoding.FLOAT32 : StoredTrace.Encoding.INT16, lead, ring);
     }
 }

@@ -61,18 +61,64 @@ class ResultsFileTest {
     }
 
     @Test
-    void aWordThatIsNoTopicIsNoMessage() throws Exception {
-        Path f = write("{\"schema\":\"hammerstep.part.v1\"}", "garbage");
+    void aLineThatCannotBeAJointIsSkippedAndCountedWithItsLine() throws Exception {
+        Path f = write("{\"schema\":\"hammerstep.part.v1\"}", "garbage", "{\"serial\":", "{not json");
 
-        assertThatThrownBy(() -> ResultsFile.read(f)).hasMessageStartingWith(f + ":2: not a JSON object");
+        ResultsFile.Contents c = ResultsFile.read(f);
+
+        assertThat(c.joints()).isEmpty();
+        assertThat(c.unreadable()).isEqualTo(3);
+        assertThat(c.firstUnreadableLine()).isEqualTo(2);
     }
 
     @Test
-    void namesFileAndLineOfBadJson() throws Exception {
-        Path f = write("{\"schema\":\"hammerstep.part.v1\"}", "{not json");
+    void aLineThatMayBeAJointIsRefusedNamingFileAndLine() throws Exception {
+        Path f = write("{\"schema\":\"hammerstep.part.v1\"}", "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"j");
 
         assertThatThrownBy(() -> ResultsFile.read(f)).isInstanceOf(InputException.class)
                 .hasMessageStartingWith(f + ":2: not a JSON object");
+        Path onTopic = write("hammerstep/v1/s/l/st/joint {\"id\":");
+        assertThatThrownBy(() -> ResultsFile.read(onTopic)).hasMessageStartingWith(onTopic + ":1: not a JSON object");
+    }
+
+    @Test
+    void commandsAndTheirCutPayloadsAreSkippedByTopic() throws Exception {
+        String t = "hammerstep/v1/s/l/st/";
+        Path f = write(t + "cmd/part {\"serial\":", t + "cmd/part {\"serial\":\"A\",\"model\":\"B\"}", t + "cmd/reload {}",
+                t + "joint " + joint("j1", 91.5));
+
+        ResultsFile.Contents c = ResultsFile.read(f);
+
+        assertThat(c.joints()).hasSize(1);
+        assertThat(c.skipped()).isEqualTo(3);
+        assertThat(c.unreadable()).isZero();
+    }
+
+    @Test
+    void aMessageRepeatedUnderItsIdIsUsedOnceAndCounted() throws Exception {
+        String t = "hammerstep/v1/s/l/st/";
+        // the same message as the station sent it and as a subscriber re-serialised it (spacing, key order)
+        Path f = write(t + "joint " + joint("j1", 91.5), joint("j2", 93.0), joint("j1", 91.5).replace(",", ", "),
+                "{\"id\":\"j2\"," + joint("j2", 93.0).substring(1).replace("\"id\":\"j2\",", ""));
+
+        ResultsFile.Contents c = ResultsFile.read(f);
+
+        assertThat(c.joints()).extracting(JointRecord::id).containsExactly("j1", "j2");
+        assertThat(c.duplicates()).isEqualTo(2);
+        assertThat(c.leftOut()).isEqualTo("2 repeated messages (same id) dropped");
+    }
+
+    @Test
+    void theSameIdWithOtherContentIsAnErrorNamingBothLines() throws Exception {
+        Path f = write(joint("j1", 91.5), joint("j2", 93.0), joint("j1", 95.5));
+
+        assertThatThrownBy(() -> ResultsFile.read(f)).isInstanceOf(InputException.class)
+                .hasMessageStartingWith(f + ":3: message id \"j1\" came on line 1 with other content");
+    }
+
+    private static String joint(String id, double finalNm) {
+        return "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"" + id + "\",\"program\":\"p\",\"blows\":6,"
+                + "\"final_torque_nm\":" + finalNm + ",\"verdict\":\"GO\",\"reasons\":[]," + LIMITS + "}";
     }
 
     @Test

@@ -213,7 +213,7 @@ class ArchiveReplayTest {
     @Test
     void badResultsAndMissingPathsAreOneLineAndExitTwo() throws Exception {
         Path bad = dir.resolve("bad.jsonl");
-        Files.writeString(bad, "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"a\"}\nnot json at all\n");
+        Files.writeString(bad, "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"a\"}\n{\"schema\":\"hammerstep.joint.v1\",\"id\n");
         Captured c = Captured.run("replay", archive.toString(), "--program", changed.toString(), "--compare", bad.toString());
         assertThat(c.exit()).isEqualTo(2);
         assertThat(c.err().strip()).startsWith(bad + ":2: not a JSON object");

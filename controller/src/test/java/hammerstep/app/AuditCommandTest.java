@@ -44,6 +44,21 @@ class AuditCommandTest {
     }
 
     @Test
+    void aSubscribersRawLogPairsEachJointOnceAndSaysWhatItDropped() throws Exception {
+        Path log = SubscriberLog.write(Path.of(RESULTS), dir.resolve("qs.log"));
+        Captured clean = Captured.run("audit", AUDITS, RESULTS, "--spec", "85:105", "--json");
+        Captured raw = Captured.run("audit", AUDITS, log.toString(), "--spec", "85:105", "--json");
+
+        assertThat(raw.exit()).as(raw.err()).isZero();
+        JsonNode c = new ObjectMapper().readTree(clean.out());
+        JsonNode r = new ObjectMapper().readTree(raw.out());
+        assertThat(r.get("groups")).as("the same pairs, not each twice").isEqualTo(c.get("groups"));
+        assertThat(r.get("duplicates_dropped").asInt()).isEqualTo(5);
+        assertThat(Captured.run("audit", AUDITS, log.toString(), "--spec", "85:105").out())
+                .contains(log + ": 5 joint results used, 5 repeated messages (same id) dropped");
+    }
+
+    @Test
     void textNamesTheWindowAndItsUncertainty() {
         Captured run = Captured.run("audit", AUDITS, RESULTS, "--spec", "85:105");
 

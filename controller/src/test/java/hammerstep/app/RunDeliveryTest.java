@@ -106,14 +106,16 @@ class RunDeliveryTest {
     }
 
     @Test
-    void aJournalThatCannotBeOpenedIsOneLineAndExitOne() throws Exception {
+    void aStorageFolderThatIsAFileIsRefusedAtStartWithItsLineAndExitTwo() throws Exception {
+        // as check refuses it (StartRefusalTest has every such fault)
         Files.writeString(dir.resolve("outbox"), "a file where the folder should be");
         Path file = station(dir, "");
 
         Captured run = Captured.run("run", "--config", file.toString(), "--hardware", "mock", "--exit-after", "0.5");
 
-        assertThat(run.exit()).isEqualTo(1);
-        assertThat(run.err().strip()).doesNotContain("\n").startsWith("storage: cannot open the result journal in");
+        assertThat(run.exit()).isEqualTo(2);
+        assertThat(run.err().strip()).doesNotContain("\n").startsWith(file + ":")
+                .contains("'storage.dir' cannot hold the result journal: " + dir.resolve("outbox") + " is a file");
     }
 
     private static List<String> threadsNamed(List<String> prefixes) {

@@ -11,6 +11,8 @@ import java.awt.image.BufferedImage;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.Paths;
+import java.util.ArrayList;
+import java.util.List;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
@@ -56,6 +58,54 @@ class StatsCommandTest {
         assertThat(p2.get("position").asText()).isEqualTo("2");
         assertThat(p2.get("cmk").asDouble()).isEqualTo(3.064);
         assertThat(p2.get("blows_cm").isNull()).as("no spread in blows: index undefined").isTrue();
+    }
+
+    @Test
+    void aSubscribersRawLogGivesTheFiguresOfTheCleanFileAndSaysWhatItDropped() throws Exception {
+        Path log = SubscriberLog.write(HAND, dir.resolve("qs.log"));
+        Captured clean = Captured.run("stats", HAND.toString(), "--json");
+        Captured raw = Captured.run("stats", log.toString(), "--json");
+
+        assertThat(raw.exit()).as(raw.err()).isZero();
+        JsonNode c = new ObjectMapper().readTree(clean.out());
+        JsonNode r = new ObjectMapper().readTree(raw.out());
+        assertThat(r.get("groups")).as("every joint once: n not doubled, sd not 0").isEqualTo(c.get("groups"));
+        assertThat(r.get("joints")).isEqualTo(c.get("joints"));
+        assertThat(r.get("duplicates_dropped").asInt()).as("each of the 7 messages came twice").isEqualTo(7);
+        assertThat(c.get("duplicates_dropped").asInt()).isZero();
+        assertThat(r.get("unreadable_lines_skipped").asInt()).as("the cut line of no topic").isEqualTo(1);
+
+        Captured table = Captured.run("stats", log.toString());
+        assertThat(table.out()).contains("7 repeated messages (same id) dropped",
+                "1 line that is no message, skipped (first: line 14)");
+    }
+
+    @Test
+    void theSameIdWithOtherContentIsRefusedNamingBothLines() throws Exception {
+        List<String> lines = Files.readAllLines(HAND);
+        Path f = dir.resolve("mixed.jsonl");
+        List<String> mixed = new ArrayList<>(lines);
+        mixed.add(lines.get(0).replace("\"final_torque_nm\": 92.0", "\"final_torque_nm\": 99.0"));
+        Files.write(f, mixed);
+
+        Captured run = Captured.run("stats", f.toString());
+
+        assertThat(run.exit()).isEqualTo(2);
+        assertThat(run.err().strip()).isEqualTo(f + ":" + mixed.size() + ": message id \"j-0001\" came on line 1"
+                + " with other content; a station never sends two different messages under one id (logs of two"
+                + " stations or two journals mixed?): which one is the result cannot be told");
+    }
+
+    @Test
+    void aJointCutShortIsRefusedNotLeftOut() throws Exception {
+        String first = Files.readAllLines(HAND).get(0);
+        Path f = dir.resolve("cut.jsonl");
+        Files.write(f, List.of(first.replace("j-0001", "j-0009"), first.substring(0, 60)));
+
+        Captured run = Captured.run("stats", f.toString());
+
+        assertThat(run.exit()).isEqualTo(2);
+        assertThat(run.err().strip()).startsWith(f + ":2: not a JSON object").contains("a joint result that cannot be read");
     }
 
     @Test

@@ -61,6 +61,7 @@ public final class CommandDesk implements StationCommands {
     private Reload pendingReload;
     private Phase seenPhase;
     private PartIdentity seenPart;
+    private PartIdentity seenQueued;
 
     /** @param loader reads the programs again for {@code reload}; null when this station cannot reload */
     public CommandDesk(ProgramLoader loader) {
@@ -172,7 +173,7 @@ public final class CommandDesk implements StationCommands {
             if (r instanceof Start s) {
                 r.answer().complete(start(agent, s.identity, nowNs));
             } else if (r instanceof End e) {
-                r.answer().complete(end(agent.sequence(), e.reason, nowNs));
+                r.answer().complete(end(agent, e.reason, nowNs));
             } else if (r instanceof Reload load) {
                 if (free(agent)) {
                     apply(agent, load);
@@ -184,7 +185,7 @@ public final class CommandDesk implements StationCommands {
                 }
             }
         }
-        observe(agent.sequence());
+        observe(agent.sequence(), agent.queuedPart());
         observeGaps(agent.inputStage());
         return work;
     }
@@ -223,8 +224,11 @@ public final class CommandDesk implements StationCommands {
             return Reply.refused("STORAGE_FULL", "result storage is full: no new part until results are delivered");
         }
         if (!agent.partPresent()) {
+            PartIdentity before = agent.queuedPart();
             agent.identify(id);
-            return Reply.accepted("part " + id.serial() + " (" + pattern.id() + ") starts when it is in the fixture");
+            return Reply.accepted("part " + id.serial() + " (" + pattern.id() + ") starts when it is in the fixture"
+                    + (before == null || before.equals(id) ? ""
+                    : "; it replaces part " + before.serial() + ", which was waiting for it and never started"));
         }
         if (!seq.partArrived(id, pattern, nowNs)) {
             return Reply.refused("BUSY", "the station did not start part " + id.serial());
@@ -232,15 +236,23 @@ public final class CommandDesk implements StationCommands {
         return Reply.accepted("part " + id.serial() + " started: pattern " + pattern.id());
     }
 
-    private static Reply end(Sequence seq, String reason, long nowNs) {
+    /** Ends the part in work; with none, cancels the part waiting for the fixture (nothing to store: it never started). */
+    private static Reply end(StationAgent agent, String reason, long nowNs) {
+        Sequence seq = agent.sequence();
         String serial = seq.part() == null ? null : seq.part().serial();
         String refused = seq.endPart(reason, nowNs);
         if (refused == null) {
             return Reply.accepted("part " + serial + " ended");
         }
-        return "FAULT".equals(refused)
-                ? Reply.refused("FAULT", "the station stands in a store fault until the supervisor key")
-                : Reply.refused("NO_PART", "no part in work");
+        if ("FAULT".equals(refused)) {
+            return Reply.refused("FAULT", "the station stands in a store fault until the supervisor key");
+        }
+        PartIdentity queued = agent.cancelQueuedPart();
+        if (queued != null) {
+            return Reply.accepted("part " + queued.serial() + " was waiting for the fixture and is cancelled;"
+                    + " it never started");
+        }
+        return Reply.refused("NO_PART", "no part in work and none waiting for the fixture");
     }
 
     private static boolean free(StationAgent agent) {
@@ -256,16 +268,18 @@ public final class CommandDesk implements StationCommands {
                         + (load.patterns.size() == 1 ? " part model" : " part models")));
     }
 
-    /** Keeps the snapshot for status messages; allocates only when the phase or the part changes. */
-    private void observe(Sequence seq) {
+    /** Keeps the snapshot for status messages; allocates only when the phase, the part or the queued part changes. */
+    private void observe(Sequence seq, PartIdentity queued) {
         Phase phase = seq.phase();
         PartIdentity part = seq.part();
-        if (phase != seenPhase || part != seenPart) {
+        if (phase != seenPhase || part != seenPart || queued != seenQueued) {
             seenPhase = phase;
             seenPart = part;
+            seenQueued = queued;
             Pattern p = seq.pattern();
             activity = new Activity(phase.name(), part == null ? null : part.serial(),
-                    part == null ? null : part.model(), p == null ? null : p.id());
+                    part == null ? null : part.model(), p == null ? null : p.id(),
+                    queued == null ? null : queued.serial(), queued == null ? null : queued.model());
         }
     }
 

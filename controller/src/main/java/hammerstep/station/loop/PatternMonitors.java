@@ -10,13 +10,13 @@ import java.util.HashMap;
 import java.util.Map;
 
 /** The joint monitors a station needs for its patterns: one per distinct program; used at start and on reload. */
-final class PatternMonitors {
+public final class PatternMonitors {
 
     private PatternMonitors() {
     }
 
     /** Why the patterns do not fit the station's position lamps, or null. */
-    static String lampProblem(Map<String, Pattern> patterns, int positionLamps) {
+    public static String lampProblem(Map<String, Pattern> patterns, int positionLamps) {
         for (Pattern pattern : patterns.values()) {
             if (pattern.size() > positionLamps) {
                 return "pattern " + pattern.id() + " has " + pattern.size() + " positions but the station has "

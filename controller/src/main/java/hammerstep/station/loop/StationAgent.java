@@ -560,6 +560,18 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         waitingIdentity = identity;
     }
 
+    /** The part named (by the plant or the scanner) that waits for the fixture, or null. */
+    PartIdentity queuedPart() {
+        return waitingIdentity;
+    }
+
+    /** Forgets the part that waits for the fixture, so it never starts; returns it, or null when none waited. */
+    PartIdentity cancelQueuedPart() {
+        PartIdentity p = waitingIdentity;
+        waitingIdentity = null;
+        return p;
+    }
+
     /**
      * Puts reloaded patterns in place (no part in work, no rundown under way): a program unchanged
      * keeps its monitor, a new or changed one gets a new monitor.

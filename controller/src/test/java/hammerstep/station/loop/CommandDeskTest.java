@@ -183,6 +183,74 @@ class CommandDeskTest {
     }
 
     @Test
+    void aQueuedPartShowsInTheActivityUntilItArrives() {
+        inputs.partSensor = true;
+        inputs.present = false;
+        cycle();
+        assertThat(desk.activity().queuedSerial()).isNull();
+
+        desk.startPart("SN-20", "M");
+        cycle();
+        assertThat(desk.activity()).satisfies(a -> {
+            assertThat(a.mode()).isEqualTo("WAITING");
+            assertThat(a.partSerial()).as("not in work yet").isNull();
+            assertThat(a.queuedSerial()).isEqualTo("SN-20");
+            assertThat(a.queuedModel()).isEqualTo("M");
+        });
+
+        inputs.present = true;
+        cycle();
+        cycle(); // the snapshot is taken as a cycle begins
+        assertThat(desk.activity()).satisfies(a -> {
+            assertThat(a.partSerial()).isEqualTo("SN-20");
+            assertThat(a.queuedSerial()).as("started: no longer waiting").isNull();
+        });
+    }
+
+    @Test
+    void endPartCancelsAQueuedPartWithAnAnswerAndItNeverStarts() {
+        inputs.partSensor = true;
+        inputs.present = false;
+        cycle();
+        desk.startPart("SN-21", "M");
+        cycle();
+
+        CompletionStage<Reply> cancel = desk.endPart("wrong label");
+        cycle();
+        assertThat(now(cancel)).isEqualTo(Reply.accepted(
+                "part SN-21 was waiting for the fixture and is cancelled; it never started"));
+        assertThat(desk.activity().queuedSerial()).isNull();
+
+        inputs.present = true;
+        cycle();
+        cycle();
+        assertThat(agent.sequence().phase()).as("the cancelled part does not start on arrival").isEqualTo(Phase.WAITING);
+        assertThat(agent.sequence().part()).isNull();
+        assertThat(parts).as("it never started: no part message").isEmpty();
+        assertThat(events).isEmpty();
+
+        CompletionStage<Reply> again = desk.endPart(null);
+        cycle();
+        assertThat(now(again)).isEqualTo(Reply.refused("NO_PART", "no part in work and none waiting for the fixture"));
+    }
+
+    @Test
+    void aSecondQueuedPartReplacesTheFirstAndSaysSo() {
+        inputs.partSensor = true;
+        inputs.present = false;
+        cycle();
+        desk.startPart("SN-22", "M");
+        cycle();
+        CompletionStage<Reply> second = desk.startPart("SN-23", "M");
+        cycle();
+
+        assertThat(now(second).ok()).isTrue();
+        assertThat(now(second).message()).contains("starts when it is in the fixture")
+                .contains("replaces part SN-22, which was waiting for it and never started");
+        assertThat(desk.activity().queuedSerial()).isEqualTo("SN-23");
+    }
+
+    @Test
     void endsThePartInWorkAsAbandonedWithTheReasonOnRecord() {
         desk.startPart("SN-7", "M");
         cycle();

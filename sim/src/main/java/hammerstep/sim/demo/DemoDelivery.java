@@ -44,13 +44,16 @@ import java.util.stream.Stream;
  * virtual time by the simulated station, and here while the demo waits for delivery), the MQTT
  * publisher on its own thread (its delivered marks go to the writer), a broker
  * (embedded on loopback, or {@code --broker URL}) and a subscriber playing the quality system,
- * which writes every message it receives to {@code --results-out} as one JSON line.
+ * which writes every message the station published (joint, part, event, status) to {@code --results-out}
+ * as one JSON line: not the commands that others publish under the station's {@code cmd/} topics, nor
+ * their replies, nor an empty payload (a cleared retained message).
  */
 final class DemoDelivery implements AutoCloseable {
 
     private static final long WAIT_NS = 30_000_000_000L;
 
     private final StationId station;
+    private final Topics topics;
     private final Path stateDir;
     private final boolean temporaryState;
     private final FileOutbox outbox;
@@ -68,6 +71,7 @@ final class DemoDelivery implements AutoCloseable {
                          JournalWriter journal, EmbeddedBroker broker, String url, QualityClient subscriber,
                          BufferedWriter resultsOut) {
         this.station = station;
+        this.topics = new Topics(station);
         this.stateDir = stateDir;
         this.temporaryState = temporaryState;
         this.outbox = outbox;
@@ -162,7 +166,23 @@ final class DemoDelivery implements AutoCloseable {
         return journal;
     }
 
+    /** True for the topics the station itself publishes on: its results and its status. */
+    private boolean publishedByTheStation(String topic) {
+        if (topic.equals(topics.status())) {
+            return true;
+        }
+        for (MessageKind k : MessageKind.values()) {
+            if (topic.equals(topics.result(k))) {
+                return true;
+            }
+        }
+        return false;
+    }
+
     private synchronized void received(String topic, byte[] payload) {
+        if (!publishedByTheStation(topic) || payload.length == 0) {
+            return; // a command (even a malformed one) or its reply, or a cleared retained status
+        }
         if (resultsOut != null) {
             try {
                 resultsOut.write(new String(payload, StandardCharsets.UTF_8));
@@ -172,7 +192,7 @@ final class DemoDelivery implements AutoCloseable {
             }
         }
         for (MessageKind k : MessageKind.values()) {
-            if (topic.endsWith("/" + k.topic())) {
+            if (topic.equals(topics.result(k))) {
                 String text = new String(payload, StandardCharsets.UTF_8);
                 String id = field(text, "\"id\":\"", '"');
                 String seq = field(text, "\"seq\":", ',');

@@ -1,5 +1,6 @@
 package hammerstep.sim.broker;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.mqtt.paho.QualityClient;
 import hammerstep.results.MessageSchemas;
 import hammerstep.sim.demo.DemoOptions;
@@ -14,6 +15,8 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
+import java.util.Set;
+import java.util.TreeSet;
 import java.util.concurrent.atomic.AtomicInteger;
 
 import static org.assertj.core.api.Assertions.assertThat;
@@ -25,6 +28,7 @@ import static org.assertj.core.api.Assertions.assertThat;
  */
 class DemoCommandsIT {
 
+    private static final ObjectMapper JSON = new ObjectMapper();
     private static final Duration WAIT = Duration.ofSeconds(30);
     private static final Path STATION = Path.of("../config/demo/station.yaml");
     private static final String PREFIX = "hammerstep/v1/harrow-bend/skid-1/flange-2/";
@@ -66,13 +70,17 @@ class DemoCommandsIT {
         try (QualityClient qs = QualityClient.connect(BROKER.url(), "qs-demo", got::add)) {
             qs.subscribe("qs/demo/#");
             qs.subscribe(PREFIX + "status");
-            Thread demo = demo(3, 5, dir.resolve("r.jsonl"), exit);
+            Path results = dir.resolve("r.jsonl");
+            Thread demo = demo(3, 5, results, exit);
             Received.await("the demo station online", WAIT, () -> got.on("/status").stream()
                     .anyMatch(m -> m.json().get("state").asText().equals("online")));
 
             qs.publish(PREFIX + "cmd/status", new byte[0], null, "qs/demo/status", utf8("corr-status"));
             qs.publish(PREFIX + "cmd/part", utf8("{\"serial\":\"PS99X-1\",\"model\":\"PS-99X\"}"), 30L,
                     "qs/demo/part", utf8("corr-part"));
+            // what a careless client leaves on the station's topics: an empty and a cut command
+            qs.publish(PREFIX + "cmd/part", new byte[0], 30L, "qs/demo/empty", utf8("corr-empty"));
+            qs.publish(PREFIX + "cmd/part", utf8("{\"serial\":"), 30L, "qs/demo/cut", utf8("corr-cut"));
 
             Received.Message status = reply(got, "/demo/status");
             assertThat(new String(status.correlation(), StandardCharsets.UTF_8)).isEqualTo("corr-status");
@@ -84,9 +92,29 @@ class DemoCommandsIT {
                     .isEqualTo("UNKNOWN_MODEL");
             assertThat(part.json().get("message").asText()).contains("PS-40D", "PS-40S");
 
+            assertThat(reply(got, "/demo/empty").json().get("ok").asBoolean()).isFalse();
+            assertThat(reply(got, "/demo/cut").json().get("code").asText()).isEqualTo("MALFORMED");
+
             demo.join(WAIT.toMillis());
             assertThat(exit.get()).isZero();
+            assertHoldsOnlyWhatTheStationPublished(results);
         }
+    }
+
+    /**
+     * {@code --results-out} holds the station's own messages, each valid against its schema, and of every
+     * kind a demo run of three parts produces; none of the commands or replies seen on the broker.
+     */
+    private static void assertHoldsOnlyWhatTheStationPublished(Path results) throws Exception {
+        Set<String> kinds = new TreeSet<>();
+        for (String line : Files.readAllLines(results)) {
+            assertThat(line).as("a line of --results-out").startsWith("{\"schema\":\"hammerstep.");
+            MessageSchemas.assertValid(utf8(line));
+            kinds.add(JSON.readTree(line).get("schema").asText());
+        }
+        assertThat(kinds).containsExactlyInAnyOrder("hammerstep.joint.v1", "hammerstep.part.v1",
+                "hammerstep.event.v1", "hammerstep.status.v1");
+        assertThat(Files.readString(results)).doesNotContain("PS99X-1").doesNotContain("hammerstep.response.v1");
     }
 
     @Test
