@@ -3,11 +3,9 @@ package hammerstep.analysis;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import hammerstep.config.InputFiles;
 
-import java.io.BufferedReader;
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 
 /**
@@ -29,10 +27,10 @@ final class MessageLines {
     }
 
     static void read(Path file, Reader reader) throws InputException {
-        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
+        try (InputFiles.Lines in = InputFiles.lines(file, InputFiles.MAX_MESSAGE_LINE_CHARS)) {
             String text;
             int line = 0;
-            while ((text = in.readLine()) != null) {
+            while ((text = in.next()) != null) {
                 line++;
                 String payload = payload(text);
                 if (payload.isEmpty()) {
@@ -43,7 +41,7 @@ final class MessageLines {
                     node = JSON.readTree(payload);
                 } catch (JsonProcessingException e) {
                     throw new InputException(file + ":" + line + ": not a JSON object: "
-                            + e.getOriginalMessage().lines().findFirst().orElse(""));
+                            + InputFiles.quote(e.getOriginalMessage().lines().findFirst().orElse("")));
                 }
                 if (node == null || !node.isObject()) {
                     throw new InputException(file + ":" + line + ": expected a JSON object, got "

@@ -22,6 +22,8 @@ public final class Conditioner {
     private final double samplePeriodS;
     private final double rateHz;
     private final float overRange;
+    /** Over-range level of the fault check: the range, or {@link #ABSURD_NM} where none is known. */
+    private final float faultLevel;
     private final long flatLineSamples;
     private final boolean filtered;
     private final double b0, b1, b2, a1, a2;
@@ -90,6 +92,7 @@ public final class Conditioner {
         this.samplePeriodS = 1.0 / rateHz;
         this.overRange = Double.isNaN(settings.overRangeNm()) || settings.overRangeNm() <= 0
                 ? Float.POSITIVE_INFINITY : (float) settings.overRangeNm();
+        this.faultLevel = Math.min(overRange, ABSURD_NM);
         this.flatLineSamples = settings.flatLineMs() > 0 ? (long) Math.ceil(settings.flatLineMs() * 1e-3 * rateHz) : 0;
         if (settings.impulseNm() > 0) {
             this.rejector = new ImpulseRejector(settings.impulseNm(), rateHz);
@@ -202,7 +205,7 @@ public final class Conditioner {
             now |= SignalFaults.NOT_FINITE;
             sum = repairNonFinite(out, length);
         }
-        if (max >= overRange || -min >= overRange) {
+        if (max >= faultLevel || -min >= faultLevel) {
             now |= SignalFaults.OVER_RANGE;
         }
         if (clipLevel > 0 && length > 0) {
@@ -353,6 +356,12 @@ public final class Conditioner {
         }
         return worst < 0.5f * HUM_FAULT_NM ? now & ~SignalFaults.HUM : now;
     }
+
+    /**
+     * Beyond any rotary torque transducer's range (the largest are in the MN·m: transducer practice,
+     * memory): a sample this large is a fault even where the range is not known (a bare trace).
+     */
+    public static final float ABSURD_NM = 1e6f;
 
     private static final int OVER_RANGE_OR_NAN = SignalFaults.OVER_RANGE | SignalFaults.NOT_FINITE;
 

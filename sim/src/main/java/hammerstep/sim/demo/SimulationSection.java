@@ -39,6 +39,14 @@ public final class SimulationSection implements StationSection<SimulationSection
                              List<PartStream> parts, Habits habits) {
     }
 
+    /** The controller's station sections with this one in place of the unread {@code simulation}: what the demo reads. */
+    public static List<StationSection<?>> withStationSections() {
+        List<StationSection<?>> sections = new ArrayList<>(hammerstep.app.StationSections.all());
+        sections.removeIf(s -> s.key().equals(INSTANCE.key()));
+        sections.add(INSTANCE);
+        return sections;
+    }
+
     @Override
     public String key() {
         return "simulation";
