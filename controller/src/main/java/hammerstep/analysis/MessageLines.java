@@ -41,7 +41,7 @@ final class MessageLines {
                     node = JSON.readTree(payload);
                 } catch (JsonProcessingException e) {
                     throw new InputException(file + ":" + line + ": not a JSON object: "
-                            + InputFiles.quote(e.getOriginalMessage().lines().findFirst().orElse("")));
+                            + plain(e.getOriginalMessage().lines().findFirst().orElse("")));
                 }
                 if (node == null || !node.isObject()) {
                     throw new InputException(file + ":" + line + ": expected a JSON object, got "
@@ -72,6 +72,18 @@ final class MessageLines {
             return "";
         }
         return rest.startsWith("{") && s.substring(0, space).indexOf('/') > 0 ? rest : s;
+    }
+
+    /**
+     * The JSON parser's message without the Java names it carries (a class or method in backquotes,
+     * a qualified class name), which mean nothing to a line engineer.
+     */
+    static String plain(String message) {
+        String s = message.replaceAll(",? ?(from )?`[^`]*`", "")
+                .replaceAll("\\b([a-z][a-z0-9_]*\\.)+[A-Z][A-Za-z0-9_$]*(\\.[a-zA-Z_]+\\(\\))?", "")
+                .replace("()", "").replaceAll(" {2,}", " ").strip();
+        s = s.isEmpty() ? "invalid JSON" : s;
+        return s.length() <= 120 ? s : s.substring(0, 120) + "...";
     }
 
     /** A message's text field, "" when it is missing or null. */

@@ -28,8 +28,9 @@ import java.util.concurrent.Callable;
 
 /** {@code hammerstep plot}: a picture of a trace as the controller's own chain judged it. */
 @Command(name = "plot", mixinStandardHelpOptions = true,
-        description = {"Draws torque over time of a trace with each blow's peak marked (found by the controller's own",
-                "signal chain, as in replay), the program's window, target and shut-off line. PNG or SVG by the name of --out."})
+        description = {"Draws a trace's torque over time with each blow's peak marked.",
+                "Blows are found by the controller's own signal chain, as in replay; the program's window, target and",
+                "shut-off line are drawn too. PNG or SVG by the name of --out."})
 public final class PlotCommand implements Callable<Integer> {
 
     /** Longest trace drawn: 100 million samples (400 MB of float). */
