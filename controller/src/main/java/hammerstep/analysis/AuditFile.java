@@ -99,10 +99,10 @@ public final class AuditFile {
         try {
             residual = Double.parseDouble(value);
         } catch (NumberFormatException e) {
-            throw new InputException(where + "residual_nm '" + value + "' is not a number");
+            throw new InputException(where + "residual_nm '" + InputFiles.quote(value) + "' is not a number");
         }
-        if (!(residual > 0) || !Double.isFinite(residual)) {
-            throw new InputException(where + "residual_nm " + value + " must be a positive torque in N·m");
+        if (!(residual > 0) || !(residual < 1e6)) {
+            throw new InputException(where + "residual_nm " + InputFiles.quote(value) + " must be a positive torque in N·m, within any transducer's range");
         }
         return new Audit(line, id, serial, position, method, residual);
     }

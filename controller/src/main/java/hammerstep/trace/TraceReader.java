@@ -176,6 +176,9 @@ public final class TraceReader {
                     return new Info(1.0 / (t - first), lines.meta);
                 }
             }
+            if (!lines.header) {
+                throw new TraceException(path + ": no '" + HEADER + "' header: not a torque trace");
+            }
             throw new TraceException(path + ": no sample rate: add '# rate_hz=...' or at least two rows");
         });
     }
