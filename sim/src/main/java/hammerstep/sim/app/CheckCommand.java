@@ -52,7 +52,7 @@ public final class CheckCommand implements Callable<Integer> {
             doc = YamlDocument.read(file);
             if (doc.root().kind() == ConfigNode.Kind.MAP) {
                 kind = ConfigFiles.simulatorPreset(doc.root());
-                if (kind == null && ConfigFiles.isStation(doc.root())) {
+                if (kind == null && ConfigFiles.isStation(doc.root()) && doc.root().entries().containsKey("simulation")) {
                     ConfigFiles.checkStation(doc, dir, SimulationSection.withStationSections());
                     return null;
                 }

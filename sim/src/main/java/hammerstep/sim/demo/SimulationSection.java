@@ -89,7 +89,12 @@ public final class SimulationSection implements StationSection<SimulationSection
         if (items.isEmpty() && r.has("parts")) {
             r.problem("parts", "'" + r.path("parts") + "' is empty: expected at least one part stream");
         }
-        Habits habits = habits(r.map("operator"));
+        Habits habits;
+        try {
+            habits = habits(r.map("operator"));
+        } catch (IllegalArgumentException e) {
+            habits = null; // a value out of its range, already reported by the reader with its line
+        }
         r.finish();
         return new Simulation(rate, block, internal, tool, supply, battery, joint, transducer, serial, due, fixture,
                 parts, habits);
