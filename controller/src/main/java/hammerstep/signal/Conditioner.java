@@ -142,7 +142,10 @@ public final class Conditioner {
     public int process(float[] in, int offset, int length, float[] out, boolean trackZero) {
         float[] src = in;
         int base = offset;
+        int rawFaults = 0;
         if (rejector != null && length > 0) {
+            // the rejector would replace a lone absurd or non-finite sample as an impulse: see it first
+            rawFaults = beyondRange(in, offset, length);
             base = reject(in, offset, length);
             src = work;
         }
@@ -208,6 +211,7 @@ public final class Conditioner {
         if (max >= faultLevel || -min >= faultLevel) {
             now |= SignalFaults.OVER_RANGE;
         }
+        now |= rawFaults;
         if (clipLevel > 0 && length > 0) {
             // without hum subtraction the block's extremes are those of the samples as they came
             now = hum == null ? checkFlatTop(now, raw, rawBase, length, min, max, true)
@@ -362,6 +366,23 @@ public final class Conditioner {
      * memory): a sample this large is a fault even where the range is not known (a bare trace).
      */
     public static final float ABSURD_NM = 1e6f;
+
+    /**
+     * {@code OVER_RANGE} for a sample beyond any transducer ({@link #ABSURD_NM}) and {@code NOT_FINITE},
+     * in the samples of a block as they came, before impulse rejection (a spike beyond the transducer's
+     * own range but not absurd stays the rejector's to judge).
+     */
+    private static int beyondRange(float[] in, int offset, int length) {
+        float level = ABSURD_NM;
+        int faults = 0;
+        for (int i = offset, end = offset + length; i < end; i++) {
+            float v = in[i];
+            if (!(v < level && v > -level)) {
+                faults |= v != v || Float.isInfinite(v) ? SignalFaults.NOT_FINITE : SignalFaults.OVER_RANGE;
+            }
+        }
+        return faults;
+    }
 
     private static final int OVER_RANGE_OR_NAN = SignalFaults.OVER_RANGE | SignalFaults.NOT_FINITE;
 

@@ -211,11 +211,13 @@ class BadInputCatalogueTest {
         String station = "identity: { site: s1, line: l1, station: st1 }\nparts:\n  HX-1: " + Path.of("src/test/resources/broken/support/pattern.yaml").toAbsolutePath() + "\n";
         write("station-long-value.yaml", station.replace("site: s1", "site: " + "s".repeat(5000)));
         write("station-huge.yaml", station + "# " + "z".repeat(3 << 20) + "\n");
+        write("station-fifo-pattern.yaml", station.replace(
+                Path.of("src/test/resources/broken/support/pattern.yaml").toAbsolutePath().toString(), "fifo-pattern.yaml"));
         Files.createDirectories(dir.resolve("with-fifo"));
         Files.createDirectories(dir.resolve("out-is-dir.png"));
         fifos = true;
         for (String f : List.of("fifo.csv", "fifo.f32", "fifo.hst", "fifo.yaml", "fifo.jsonl", "fifo-audit.csv",
-                "station-fifo.yaml", "with-fifo/x.yaml")) {
+                "station-fifo.yaml", "with-fifo/x.yaml", "fifo-pattern.yaml")) {
             fifo(f);
         }
     }
@@ -319,6 +321,8 @@ class BadInputCatalogueTest {
         c.add(bad("station file: a FIFO", d + "station-fifo.yaml:0:0: is not a regular file", "check", d + "station-fifo.yaml"));
         c.add(bad("station file: a 5000-character site", d + "station-long-value.yaml:1:19: a value of 5000 characters at 'identity.site'", "check", d + "station-long-value.yaml"));
         c.add(bad("station file: 3 MB", d + "station-huge.yaml:0:0: is 3.0 MB, more than the 1.0 MB", "check", d + "station-huge.yaml"));
+        c.add(bad("station file: a FIFO as pattern", d + "station-fifo-pattern.yaml:3:9: 'parts.HX-1': cannot use pattern file fifo-pattern.yaml: is not a regular file", "check", d + "station-fifo-pattern.yaml"));
+        c.add(bad("check: a FIFO as pattern", d + "fifo-pattern.yaml:0:0: is not a regular file", "check", d + "fifo-pattern.yaml"));
         c.add(bad("run: a FIFO as station file", d + "station-fifo.yaml:0:0: is not a regular file", "run", "--config", d + "station-fifo.yaml", "--hardware", "mock"));
         return c;
     }
@@ -363,6 +367,17 @@ class BadInputCatalogueTest {
         assertThat(exit).isZero();
         assertThat(streams.out().lines()).singleElement().satisfies(l -> assertThat(l)
                 .contains("\"verdict\":\"NO_GO\"").contains("TRACE_ENDED").contains("\"blows\":8"));
+    }
+
+    @Test
+    void aMinusOneE30SampleInsideAnF32RundownIsSensorFaultNeverGo() throws IOException {
+        // a raw .f32 is not refused sample by sample: the chain's over-range check makes the joint NO-GO
+        Path trace = dir.resolve("absurd-in-rundown.f32");
+        Files.write(trace, f32(rundownWith(peak - header - 1 - 40, -1e30f)));
+        int exit = Main.run("replay", trace.toString(), "--rate", "20000", "--program", PROGRAM);
+        assertThat(exit).isZero();
+        assertThat(streams.out().lines()).isNotEmpty().allSatisfy(l -> assertThat(l).doesNotContain("\"verdict\":\"GO\""))
+                .anySatisfy(l -> assertThat(l).contains("SENSOR_FAULT"));
     }
 
     /**
