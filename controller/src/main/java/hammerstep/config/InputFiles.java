@@ -91,13 +91,6 @@ public final class InputFiles {
         return new Lines(r, maxLineChars);
     }
 
-    /** Lines of a stream as strict UTF-8 (for tests and resources). */
-    public static Lines lines(InputStream in, int maxLineChars) {
-        return new Lines(new InputStreamReader(in, StandardCharsets.UTF_8.newDecoder()
-                .onMalformedInput(CodingErrorAction.REPORT).onUnmappableCharacter(CodingErrorAction.REPORT)),
-                maxLineChars);
-    }
-
     /**
      * Lines of text ending in {@code \n} or {@code \r\n}, read without holding more than one line.
      * A line longer than the bound is {@link Refused} (naming its number), so a 50 MB "number" costs
