@@ -1,9 +1,8 @@
 package hammerstep.analysis;
 
-import java.io.BufferedReader;
+import hammerstep.config.InputFiles;
+
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -29,11 +28,11 @@ public final class AuditFile {
 
     public static List<Audit> read(Path file) throws InputException {
         List<Audit> audits = new ArrayList<>();
-        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
+        try (InputFiles.Lines in = InputFiles.lines(file, InputFiles.MAX_TEXT_LINE_CHARS)) {
             String text;
             int line = 0;
             int[] col = null;
-            while ((text = in.readLine()) != null) {
+            while ((text = in.next()) != null) {
                 line++;
                 String s = text.strip();
                 if (s.isEmpty() || s.startsWith("#")) {
@@ -100,10 +99,10 @@ public final class AuditFile {
         try {
             residual = Double.parseDouble(value);
         } catch (NumberFormatException e) {
-            throw new InputException(where + "residual_nm '" + value + "' is not a number");
+            throw new InputException(where + "residual_nm '" + InputFiles.quote(value) + "' is not a number");
         }
-        if (!(residual > 0) || !Double.isFinite(residual)) {
-            throw new InputException(where + "residual_nm " + value + " must be a positive torque in N·m");
+        if (!(residual > 0) || !(residual < 1e6)) {
+            throw new InputException(where + "residual_nm " + InputFiles.quote(value) + " must be a positive torque in N·m, within any transducer's range");
         }
         return new Audit(line, id, serial, position, method, residual);
     }

@@ -9,12 +9,6 @@ public final class InputException extends Exception {
 
     /** Why a text file could not be read, in one line: missing, not UTF-8 text, or the system's reason. */
     static InputException reading(java.nio.file.Path file, java.io.IOException e) {
-        if (e instanceof java.nio.file.NoSuchFileException) {
-            return new InputException(file + ": no such file");
-        }
-        if (e instanceof java.nio.charset.MalformedInputException) {
-            return new InputException(file + ": not a text file (invalid UTF-8)");
-        }
-        return new InputException(file + ": cannot read: " + e.getMessage());
+        return new InputException(hammerstep.config.InputFiles.describe(file, e));
     }
 }

@@ -3,11 +3,9 @@ package hammerstep.analysis;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import hammerstep.config.InputFiles;
 
-import java.io.BufferedReader;
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.HashMap;
 import java.util.Map;
@@ -65,10 +63,10 @@ final class MessageLines {
         int commands = 0;
         int unreadable = 0;
         int firstUnreadable = 0;
-        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
+        try (InputFiles.Lines in = InputFiles.lines(file, InputFiles.MAX_MESSAGE_LINE_CHARS)) {
             String text;
             int line = 0;
-            while ((text = in.readLine()) != null) {
+            while ((text = in.next()) != null) {
                 line++;
                 Line l = split(text);
                 if (l.payload().isEmpty()) {
@@ -119,7 +117,7 @@ final class MessageLines {
             }
             problem = "expected a JSON object, got " + (node == null ? "nothing" : node.getNodeType());
         } catch (JsonProcessingException e) {
-            problem = "not a JSON object: " + e.getOriginalMessage().lines().findFirst().orElse("");
+            problem = "not a JSON object: " + plain(e.getOriginalMessage().lines().findFirst().orElse(""));
         }
         if (mayBeJoint(l)) {
             throw new InputException(file + ":" + line + ": " + problem + " (a joint result that cannot be read:"
@@ -157,6 +155,18 @@ final class MessageLines {
         }
         String rest = space < 0 ? "" : s.substring(space + 1).strip();
         return new Line(first, rest.equals("(null)") ? "" : rest);
+    }
+
+    /**
+     * The JSON parser's message without the Java names it carries (a class or method in backquotes,
+     * a qualified class name), which mean nothing to a line engineer.
+     */
+    static String plain(String message) {
+        String s = message.replaceAll(",? ?(from )?`[^`]*`", "")
+                .replaceAll("\\b([a-z][a-z0-9_]*\\.)+[A-Z][A-Za-z0-9_$]*(\\.[a-zA-Z_]+\\(\\))?", "")
+                .replace("()", "").replaceAll(" {2,}", " ").strip();
+        s = s.isEmpty() ? "invalid JSON" : s;
+        return s.length() <= 120 ? s : s.substring(0, 120) + "...";
     }
 
     /** A message's text field, "" when it is missing or null. */

@@ -21,6 +21,10 @@ import java.util.List;
 public final class ResultsFile {
 
     public static final String JOINT_SCHEMA = "hammerstep.joint.v1";
+    /** Largest torque a result may carry: beyond any rotary torque transducer (as the trace reader's bound). */
+    static final double MAX_TORQUE_NM = 1e6;
+    /** Largest blow count a result may carry: far beyond any rundown (a program allows at most a few hundred). */
+    static final int MAX_BLOWS = 100_000;
 
     private ResultsFile() {
     }
@@ -77,8 +81,8 @@ public final class ResultsFile {
         if (program.isEmpty()) {
             throw new InputException(where + "joint result without 'program'");
         }
-        double finalNm = number(n, "final_torque_nm", where);
-        int blows = (int) number(n, "blows", where);
+        double finalNm = torque(n, "final_torque_nm", where);
+        int blows = count(n, "blows", where);
         JsonNode limits = n.get("limits");
         if (limits == null || !limits.isObject()) {
             throw new InputException(where + "joint result without 'limits' (the windows it was judged against)");
@@ -88,10 +92,18 @@ public final class ResultsFile {
         if (torque == null || blowLimits == null) {
             throw new InputException(where + "'limits' needs 'torque_nm' and 'blows', each with 'min' and 'max'");
         }
-        JointRecord.Limits l = new JointRecord.Limits(number(torque, "min", where + "limits.torque_nm: "),
-                number(torque, "max", where + "limits.torque_nm: "),
-                (int) number(blowLimits, "min", where + "limits.blows: "),
-                (int) number(blowLimits, "max", where + "limits.blows: "));
+        JointRecord.Limits l = new JointRecord.Limits(torque(torque, "min", where + "limits.torque_nm: "),
+                torque(torque, "max", where + "limits.torque_nm: "),
+                count(blowLimits, "min", where + "limits.blows: "),
+                count(blowLimits, "max", where + "limits.blows: "));
+        if (l.torqueMinNm() > l.torqueMaxNm()) {
+            throw new InputException(where + "limits.torque_nm: min " + torque.get("min") + " is above max "
+                    + torque.get("max") + ": an inverted window judges nothing");
+        }
+        if (l.blowsMin() > l.blowsMax()) {
+            throw new InputException(where + "limits.blows: min " + blowLimits.get("min") + " is above max "
+                    + blowLimits.get("max") + ": an inverted window judges nothing");
+        }
         List<String> reasons = new ArrayList<>();
         JsonNode r = n.get("reasons");
         if (r != null && r.isArray()) {
@@ -103,6 +115,25 @@ public final class ResultsFile {
 
     private static String text(JsonNode n, String key) {
         return MessageLines.text(n, key);
+    }
+
+    /** A torque in N·m: finite and within any transducer's range. */
+    private static double torque(JsonNode n, String key, String where) throws InputException {
+        double d = number(n, key, where);
+        if (Math.abs(d) >= MAX_TORQUE_NM) {
+            throw new InputException(where + "'" + key + "' " + n.get(key) + " N·m is beyond any torque transducer's range");
+        }
+        return d;
+    }
+
+    /** A count of blows: a whole number from 0 to {@link #MAX_BLOWS}. */
+    private static int count(JsonNode n, String key, String where) throws InputException {
+        double d = number(n, key, where);
+        if (d < 0 || d > MAX_BLOWS || d != Math.rint(d)) {
+            throw new InputException(where + "'" + key + "' is " + n.get(key) + ": expected a whole number of blows from 0 to "
+                    + MAX_BLOWS);
+        }
+        return (int) d;
     }
 
     private static double number(JsonNode n, String key, String where) throws InputException {

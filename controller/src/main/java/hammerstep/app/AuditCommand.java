@@ -28,8 +28,9 @@ import java.util.concurrent.Callable;
 
 /** {@code hammerstep audit}: residual-torque audits against the joints' dynamic figures. */
 @Command(name = "audit", mixinStandardHelpOptions = true,
-        description = {"Pairs residual-torque audits (CSV: joint_id or part_serial+position, method, residual_nm) with",
-                "the joints' dynamic final torque from results (JSONL), and reports per program and method the",
+        description = {"Compares residual-torque audits with the joints' dynamic final torque.",
+                "Pairs the audits (CSV: joint_id or part_serial+position, method, residual_nm) with the joints'",
+                "dynamic final torque from results (JSONL), and reports per program and method the",
                 "correlation, the mean offset, the line residual = a + b * dynamic with its standard errors and,",
                 "with --spec, the dynamic window that keeps one joint's residual torque in its specification",
                 "(two-sided prediction interval, t-distribution)."})

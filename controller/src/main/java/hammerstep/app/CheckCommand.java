@@ -2,6 +2,7 @@ package hammerstep.app;
 
 import ch.qos.logback.classic.Level;
 import hammerstep.config.ConfigException;
+import hammerstep.config.InputFiles;
 import hammerstep.config.Problem;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -21,8 +22,9 @@ import java.util.stream.Stream;
  * Exit 0 when all are valid, 2 otherwise, one {@code file:line:column: message} line per problem.
  */
 @Command(name = "check", mixinStandardHelpOptions = true,
-        description = {"Validates configuration files: joint programs (more kinds are recognised by their keys).",
-                "Prints one line per problem as file:line:column: message; exit 0 when all are valid, 2 otherwise."})
+        description = {"Validates configuration files: joint programs, patterns and station files, told apart by their keys.",
+                "Prints one line per problem as file:line:column: message; exit 0 when all are valid, 2 otherwise.",
+                "Simulator presets (tools, joints, transducers) are skipped with a note: hammerstep-sim check validates them."})
 public final class CheckCommand implements Callable<Integer> {
 
     /** What a check command checks and how much it says; the simulator's {@code check} takes the same. */
@@ -45,10 +47,10 @@ public final class CheckCommand implements Callable<Integer> {
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
-    /** Validates one file, throwing what is wrong with it. */
+    /** Validates one file, throwing what is wrong with it; returns null, or a note why it was skipped. */
     @FunctionalInterface
     public interface FileCheck {
-        void check(Path file) throws ConfigException;
+        String check(Path file) throws ConfigException;
     }
 
     @Override
@@ -75,16 +77,25 @@ public final class CheckCommand implements Callable<Integer> {
                 files.add(p);
             }
         }
+        List<String> notes = new ArrayList<>();
         for (Path f : files) {
             try {
-                check.check(f);
+                String note = check.check(f);
+                if (note != null) {
+                    notes.add(note);
+                }
             } catch (ConfigException e) {
                 problems.addAll(e.problems());
             }
         }
-        problems.forEach(System.err::println);
+        problems.forEach(p -> System.err.println(InputFiles.errorLine(p.toString())));
+        if (!quiet) {
+            notes.forEach(n -> System.out.println(InputFiles.errorLine(n)));
+        }
         if (!quiet && problems.isEmpty()) {
-            System.out.println(files.size() + (files.size() == 1 ? " file" : " files") + " valid");
+            int valid = files.size() - notes.size();
+            System.out.println(valid + (valid == 1 ? " file" : " files") + " valid"
+                    + (notes.isEmpty() ? "" : ", " + notes.size() + " skipped"));
         }
         return problems.isEmpty() ? 0 : 2;
     }

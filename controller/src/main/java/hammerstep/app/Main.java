@@ -33,7 +33,7 @@ public final class Main {
 
     /** Runs a command line and returns its exit code: 0 done, 1 failed, 2 bad input or configuration. */
     public static int run(String... args) {
-        return commandLine(args).execute(args);
+        return Cli.execute(commandLine(args), args);
     }
 
     /** The command line to execute {@code args} with. */

@@ -9,6 +9,7 @@ import hammerstep.joint.JointResult;
 import hammerstep.joint.ProgramFile;
 import hammerstep.plot.Picture;
 import hammerstep.plot.TraceChart;
+import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
 import hammerstep.trace.TraceException;
 import hammerstep.trace.StationReplay;
@@ -24,12 +25,14 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
+import java.util.Locale;
 import java.util.concurrent.Callable;
 
 /** {@code hammerstep plot}: a picture of a trace as the controller's own chain judged it. */
 @Command(name = "plot", mixinStandardHelpOptions = true,
-        description = {"Draws torque over time of a trace with each blow's peak marked (found by the controller's own",
-                "signal chain, as in replay), the program's window, target and shut-off line. PNG or SVG by the name of --out."})
+        description = {"Draws a trace's torque over time with each blow's peak marked.",
+                "Blows are found by the controller's own signal chain, as in replay; the program's window, target and",
+                "shut-off line are drawn too. PNG or SVG by the name of --out."})
 public final class PlotCommand implements Callable<Integer> {
 
     /** Longest trace drawn: 100 million samples (400 MB of float). */
@@ -96,6 +99,7 @@ public final class PlotCommand implements Callable<Integer> {
         if (rec.length == 0) {
             throw new UserError(trace + ": no samples to draw");
         }
+        refuseUndrawable(rec, rate);
         long first = rec.firstNs;
         long last = first + Math.round((rec.length - 1) * 1e9 / rate);
         long from = first;
@@ -121,9 +125,27 @@ public final class PlotCommand implements Callable<Integer> {
         if (!(to > from)) {
             throw new UserError("nothing to draw between " + (from - first) * 1e-6 + " ms and " + (to - first) * 1e-6 + " ms");
         }
-        TraceChart.write(new TraceChart.Data(title, rec.samples, rec.length, rate, first, program, results, from, to), out);
+        try {
+            TraceChart.write(new TraceChart.Data(title, rec.samples, rec.length, rate, first, program, results, from, to), out);
+        } catch (IOException e) {
+            throw new UserError(e.getMessage());
+        }
         System.out.println(out + ": " + TraceChart.summary(results));
         return 0;
+    }
+
+    /**
+     * A sample that is not a finite number, or beyond any transducer's range, cannot be drawn on a
+     * torque axis (replay judges the rundown holding it SENSOR_FAULT): refused, naming the first one.
+     */
+    private void refuseUndrawable(Recording rec, double rate) {
+        for (int i = 0; i < rec.length; i++) {
+            float v = rec.samples[i];
+            if (!Float.isFinite(v) || Math.abs(v) >= Conditioner.ABSURD_NM) {
+                throw new UserError(String.format(Locale.ROOT, "%s: sample %d (at %.4f s) is %s N·m: cannot draw it"
+                        + " (not a finite torque within any transducer's range)", trace, i, i / rate, v));
+            }
+        }
     }
 
     /** The whole trace in memory for drawing (plotting is offline, not the station's path). */

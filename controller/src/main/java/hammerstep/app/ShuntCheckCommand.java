@@ -19,8 +19,8 @@ import java.util.concurrent.Callable;
  * the change in output with the bridge formula Vo/E = R / (2R + 4Rs).
  */
 @Command(name = "shunt-check", mixinStandardHelpOptions = true,
-        description = {"Checks the transducer and its measuring chain with the shunt resistor:",
-                "expected output by Vo/E = R / (2R + 4Rs), measured with the shunt switched in (hardware.outputs.shunt_cal).",
+        description = {"Checks the transducer and its measuring chain with the shunt resistor.",
+                "Expected output by Vo/E = R / (2R + 4Rs), measured with the shunt switched in (hardware.outputs.shunt_cal).",
                 "Exit 0 when the two agree within --tolerance-pct, 1 otherwise."})
 public final class ShuntCheckCommand implements Callable<Integer> {
 
@@ -28,7 +28,7 @@ public final class ShuntCheckCommand implements Callable<Integer> {
     MeasureOptions measure;
 
     @Option(names = "--tolerance-pct", defaultValue = "0.5", paramLabel = "PCT",
-            description = "accepted difference from the expected output, % (default 0.5, common practice)")
+            description = "accepted difference from the expected output, %% (default 0.5, common practice)")
     double tolerancePct;
 
     @Override

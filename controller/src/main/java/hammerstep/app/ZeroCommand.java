@@ -27,7 +27,7 @@ public final class ZeroCommand implements Callable<Integer> {
     MeasureOptions measure;
 
     @Option(names = "--limit-pct", defaultValue = "2.0", paramLabel = "PCT",
-            description = "largest acceptable offset, % of full scale (default 2, common practice)")
+            description = "largest acceptable offset, %% of full scale (default 2, common practice)")
     double limitPct;
 
     @Override

@@ -8,8 +8,6 @@ import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
@@ -28,6 +26,8 @@ public final class YamlDocument {
 
     private static final YAMLFactory FACTORY = YAMLFactory.builder().build();
     private static final int MAX_DEPTH = 32;
+    /** Longest key or scalar value: ids, names, paths and numbers are far shorter. */
+    static final int MAX_SCALAR_CHARS = 4096;
 
     private final String file;
     private final ConfigNode root;
@@ -43,11 +43,10 @@ public final class YamlDocument {
         String name = path.toString();
         byte[] bytes;
         try {
-            bytes = Files.readAllBytes(path);
-        } catch (NoSuchFileException e) {
-            throw new ConfigException(new Problem(name, 0, 0, "no such file"));
+            bytes = InputFiles.readAll(path, InputFiles.MAX_CONFIG_BYTES);
         } catch (IOException e) {
-            throw new ConfigException(new Problem(name, 0, 0, "cannot read: " + e.getMessage()));
+            String line = InputFiles.describe(path, e);
+            throw new ConfigException(new Problem(name, 0, 0, line.substring(name.length() + 2)));
         }
         return parse(name, bytes);
     }
@@ -93,12 +92,20 @@ public final class YamlDocument {
             throw new ConfigException(new Problem(file, line, column, "nesting deeper than " + MAX_DEPTH + " levels"));
         }
         JsonToken t = p.currentToken();
+        if (t.isScalarValue() && p.getTextLength() > MAX_SCALAR_CHARS) {
+            throw new ConfigException(new Problem(file, line, column, "a value of " + p.getTextLength()
+                    + " characters at '" + path + "'; at most " + MAX_SCALAR_CHARS + " are allowed"));
+        }
         switch (t) {
             case START_OBJECT: {
                 Map<String, ConfigNode> entries = new LinkedHashMap<>();
                 while (p.nextToken() == JsonToken.FIELD_NAME) {
                     JsonLocation keyAt = p.currentTokenLocation();
                     String key = p.currentName();
+                    if (key.length() > MAX_SCALAR_CHARS) {
+                        throw new ConfigException(new Problem(file, keyAt.getLineNr(), keyAt.getColumnNr(),
+                                "a key of " + key.length() + " characters; at most " + MAX_SCALAR_CHARS + " are allowed"));
+                    }
                     if (entries.containsKey(key)) {
                         throw new ConfigException(new Problem(file, keyAt.getLineNr(), keyAt.getColumnNr(),
                                 "duplicate key '" + join(path, key) + "'"));

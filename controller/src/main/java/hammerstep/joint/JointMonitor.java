@@ -381,15 +381,24 @@ public final class JointMonitor implements PulseSink {
     }
 
     private void finishRundown(boolean cut) {
+        finishRundown(cut, false);
+    }
+
+    private void finishRundown(boolean cut, boolean traceEnded) {
         detector.flush();
         if (reverseStrikes > 0 && reverseImpulse > tightenImpulse
                 && (blows == 0 || reverseStrikes >= MIN_REVERSE_STRIKES_AFTER_BLOWS)) {
-            finishLoosening(cut);
+            finishLoosening(cut, traceEnded);
             return;
         }
         double finalNm = Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
         double durationMs = (lastAboveNs - startNs) * 1e-6;
         List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults);
+        if (traceEnded) {
+            reasons = new java.util.ArrayList<>(reasons);
+            reasons.add(Reason.TRACE_ENDED);
+            reasons = List.copyOf(reasons);
+        }
         int stored = Math.min(blows, MAX_STORED_BLOWS);
         JointResult result = new JointResult(program, startNs, lastAboveNs, blows,
                 Arrays.copyOf(peaks, stored), Arrays.copyOf(peakTimes, stored),
@@ -404,7 +413,7 @@ public final class JointMonitor implements PulseSink {
      * them (negative); NO-GO {@code LOOSENED}, with {@code TIME_LONG} and {@code SENSOR_FAULT} as for a
      * tightening. The program's windows do not apply.
      */
-    private void finishLoosening(boolean cut) {
+    private void finishLoosening(boolean cut, boolean traceEnded) {
         double durationMs = (lastAboveNs - startNs) * 1e-6;
         List<Reason> reasons = new java.util.ArrayList<>(3);
         reasons.add(Reason.LOOSENED);
@@ -413,6 +422,9 @@ public final class JointMonitor implements PulseSink {
         }
         if (rundownFaults != 0) {
             reasons.add(Reason.SENSOR_FAULT);
+        }
+        if (traceEnded) {
+            reasons.add(Reason.TRACE_ENDED);
         }
         int stored = Math.min(reverseStrikes, MAX_STORED_BLOWS);
         JointResult result = new JointResult(program, startNs, lastAboveNs, reverseStrikes,
@@ -428,10 +440,14 @@ public final class JointMonitor implements PulseSink {
         return (int) Math.min(Integer.MAX_VALUE, stage.conditioner().rejectedImpulses() - rejectedAtStart);
     }
 
-    /** Ends and judges a rundown still under way (end of a trace, or the station abandoning a joint). */
+    /**
+     * The end of a trace: a rundown still under way is judged NO-GO with {@link Reason#TRACE_ENDED}
+     * (added to whatever else its figures give), since its end and perhaps its last blows are not in
+     * the trace.
+     */
     public void finish() {
         if (state == State.ACTIVE) {
-            finishRundown(false);
+            finishRundown(false, true);
         }
         state = State.IDLE;
     }

@@ -12,5 +12,10 @@ public enum Reason {
     /** Set by the station: a rundown on a position other than the prompted one (position confirm sensors). */
     OUT_OF_SEQUENCE,
     /** The rundown's strikes went against the tightening sense: the tool ran in reverse (a loosening). */
-    LOOSENED
+    LOOSENED,
+    /**
+     * Set in replay: the trace ended during the rundown, before it had stayed below its start level for
+     * {@code end_after_ms}; its end, and perhaps its last blows, are not in the file. Never GO.
+     */
+    TRACE_ENDED
 }

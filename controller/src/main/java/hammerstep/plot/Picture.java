@@ -51,8 +51,29 @@ public final class Picture {
         return null;
     }
 
-    /** Paints {@code charts} one below the other, each {@code width} × {@code height} pixels, into {@code file}. */
+    /**
+     * Paints {@code charts} one below the other, each {@code width} × {@code height} pixels, into
+     * {@code file}. Failures are IOExceptions with a message of ours, never the chart library's: a
+     * file that cannot be written says why, values the library cannot draw say so.
+     */
     public static void write(List<? extends Chart<?, ?>> charts, int width, int height, Path file) throws IOException {
+        try {
+            render(charts, width, height, file);
+        } catch (java.nio.file.NoSuchFileException e) {
+            throw new IOException(file + ": cannot write it: no such directory, or new files cannot be made there");
+        } catch (java.nio.file.AccessDeniedException e) {
+            throw new IOException(file + ": cannot write it: permission denied");
+        } catch (java.nio.file.FileSystemException e) {
+            throw new IOException(file + ": cannot write it" + (e.getReason() == null ? "" : ": " + e.getReason()));
+        } catch (IOException e) {
+            throw new IOException(file + ": cannot write it" + (e.getMessage() == null ? "" : ": " + e.getMessage()));
+        } catch (RuntimeException e) {
+            // the chart library refuses values it cannot scale (infinite, out of its number range)
+            throw new IOException(file + ": cannot draw these values (infinite or out of the chart's range)");
+        }
+    }
+
+    private static void render(List<? extends Chart<?, ?>> charts, int width, int height, Path file) throws IOException {
         Format format = formatOf(file);
         if (format == null) {
             throw new IllegalArgumentException(file + ": the picture's name must end in .png or .svg");

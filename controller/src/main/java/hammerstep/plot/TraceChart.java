@@ -37,7 +37,14 @@ public final class TraceChart {
                        JointProgram program, List<JointResult> results, long fromNs, long toNs) { }
 
     public static void write(Data d, Path file) throws IOException {
-        Picture.write(List.of(chart(d)), WIDTH, HEIGHT, file);
+        XYChart chart;
+        try {
+            chart = chart(d);
+        } catch (RuntimeException e) {
+            // the chart library refuses series it cannot scale
+            throw new IOException(file + ": cannot draw these values (infinite or out of the chart's range)");
+        }
+        Picture.write(List.of(chart), WIDTH, HEIGHT, file);
     }
 
     static XYChart chart(Data d) {

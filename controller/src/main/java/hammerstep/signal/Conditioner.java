@@ -22,6 +22,8 @@ public final class Conditioner {
     private final double samplePeriodS;
     private final double rateHz;
     private final float overRange;
+    /** Over-range level of the fault check: the range, or {@link #ABSURD_NM} where none is known. */
+    private final float faultLevel;
     private final long flatLineSamples;
     private final boolean filtered;
     private final double b0, b1, b2, a1, a2;
@@ -90,6 +92,7 @@ public final class Conditioner {
         this.samplePeriodS = 1.0 / rateHz;
         this.overRange = Double.isNaN(settings.overRangeNm()) || settings.overRangeNm() <= 0
                 ? Float.POSITIVE_INFINITY : (float) settings.overRangeNm();
+        this.faultLevel = Math.min(overRange, ABSURD_NM);
         this.flatLineSamples = settings.flatLineMs() > 0 ? (long) Math.ceil(settings.flatLineMs() * 1e-3 * rateHz) : 0;
         if (settings.impulseNm() > 0) {
             this.rejector = new ImpulseRejector(settings.impulseNm(), rateHz);
@@ -139,6 +142,7 @@ public final class Conditioner {
     public int process(float[] in, int offset, int length, float[] out, boolean trackZero) {
         float[] src = in;
         int base = offset;
+        int rawFaults = 0;
         if (rejector != null && length > 0) {
             base = carryIn(in, offset, length);
             src = work;
@@ -161,6 +165,9 @@ public final class Conditioner {
         if (rejector != null && length > 0) {
             conditionWithBends(src, base, length, out, zero, humPhase);
             if (largestBend >= rejector.level()) {
+                // the rejector would replace a lone absurd or non-finite sample as an impulse: see it
+                // first, wherever in the samples at hand a replacement could reach
+                rawFaults = beyondRange(work, 0, tail.length + length);
                 rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, base + length + 1);
                 condition(src, base, length, out, zero, humPhase);
             }
@@ -182,9 +189,10 @@ public final class Conditioner {
         // rounding is monotone: the largest x − zero is the largest x less zero
         outHigh = filtered || (now & SignalFaults.NOT_FINITE) != 0 ? Float.NaN : max - zero;
         outLow = filtered || (now & SignalFaults.NOT_FINITE) != 0 ? Float.NaN : min - zero;
-        if (max >= overRange || -min >= overRange) {
+        if (max >= faultLevel || -min >= faultLevel) {
             now |= SignalFaults.OVER_RANGE;
         }
+        now |= rawFaults;
         if (clipLevel > 0 && length > 0) {
             // the flat-top check looks at the samples as they came: a rail is flat, the rail less hum
             // is not; without hum subtraction the block's extremes are those of the samples as they came
@@ -528,6 +536,29 @@ public final class Conditioner {
             return now | SignalFaults.HUM;
         }
         return worst < 0.5f * HUM_FAULT_NM ? now & ~SignalFaults.HUM : now;
+    }
+
+    /**
+     * Beyond any rotary torque transducer's range (the largest are in the MN·m: transducer practice,
+     * memory): a sample this large is a fault even where the range is not known (a bare trace).
+     */
+    public static final float ABSURD_NM = 1e6f;
+
+    /**
+     * {@code OVER_RANGE} for a sample beyond any transducer ({@link #ABSURD_NM}) and {@code NOT_FINITE},
+     * in samples as they came, before impulse rejection replaces any (a spike beyond the transducer's
+     * own range but not absurd stays the rejector's to judge).
+     */
+    private static int beyondRange(float[] in, int offset, int length) {
+        float level = ABSURD_NM;
+        int faults = 0;
+        for (int i = offset, end = offset + length; i < end; i++) {
+            float v = in[i];
+            if (!(v < level && v > -level)) {
+                faults |= v != v || Float.isInfinite(v) ? SignalFaults.NOT_FINITE : SignalFaults.OVER_RANGE;
+            }
+        }
+        return faults;
     }
 
     private static final int OVER_RANGE_OR_NAN = SignalFaults.OVER_RANGE | SignalFaults.NOT_FINITE;

@@ -1,14 +1,14 @@
 package hammerstep.trace;
 
+import hammerstep.config.InputFiles;
+
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.FloatBuffer;
 import java.nio.channels.FileChannel;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
 
 /**
  * A raw float32 trace (little-endian N·m), read from any position by any number of threads at
@@ -52,7 +52,7 @@ public final class F32Trace implements AutoCloseable {
     static F32Trace open(Path path, int windowSamples) throws TraceException {
         FileChannel ch = null;
         try {
-            ch = FileChannel.open(path, StandardOpenOption.READ);
+            ch = InputFiles.open(path, 0);
             long size = ch.size();
             if (size % 4 != 0) {
                 throw new TraceException(path + ": size " + size + " bytes is not a whole number of float32 samples");
@@ -60,10 +60,8 @@ public final class F32Trace implements AutoCloseable {
             F32Trace trace = new F32Trace(path.toString(), ch, null, size / 4, windowSamples);
             ch = null;
             return trace;
-        } catch (NoSuchFileException e) {
-            throw new TraceException(path + ": no such file");
         } catch (IOException e) {
-            throw new TraceException(path + ": cannot read: " + e.getMessage());
+            throw new TraceException(InputFiles.describe(path, e));
         } finally {
             closeQuietly(ch);
         }

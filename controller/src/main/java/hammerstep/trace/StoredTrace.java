@@ -1,14 +1,14 @@
 package hammerstep.trace;
 
+import hammerstep.config.InputFiles;
+
 import java.io.IOException;
 import java.io.OutputStream;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
@@ -231,7 +231,7 @@ public final class StoredTrace {
     }
 
     private static ByteBuffer bytes(Path path) throws TraceException {
-        try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
+        try (FileChannel ch = InputFiles.open(path, 0)) {
             long size = ch.size();
             if (size > Integer.MAX_VALUE - 8) {
                 throw new TraceException(path + ": " + size + " bytes is too long for a stored trace");
@@ -242,10 +242,8 @@ public final class StoredTrace {
             }
             b.flip();
             return b;
-        } catch (NoSuchFileException e) {
-            throw new TraceException(path + ": no such file");
         } catch (IOException e) {
-            throw new TraceException(path + ": cannot read: " + e.getMessage());
+            throw new TraceException(InputFiles.describe(path, e));
         }
     }
 

@@ -1,11 +1,10 @@
 package hammerstep.trace;
 
-import java.io.BufferedReader;
+import hammerstep.config.InputFiles;
+import hammerstep.signal.Conditioner;
+
 import java.io.IOException;
 import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.LinkedHashMap;
 import java.util.Locale;
@@ -60,6 +59,12 @@ public final class TraceReader {
      * Reads a CSV trace. {@code sink} receives blocks of up to {@code block.length} samples; a
      * block's first sample time is taken from its row. When {@code rateHz} is not positive, the
      * rate comes from the {@code rate_hz} metadata, else from the first two rows.
+     *
+     * <p>Refused, naming file and line: a value that is not a finite number or a torque beyond any
+     * transducer's range ({@link Conditioner#ABSURD_NM}); a time that does not advance by one sample
+     * period (within half a period either way): a gap, a step or a time base that disagrees with
+     * {@code rate_hz}; a last row without its line break (the file was cut, perhaps inside the
+     * value); a line longer than {@link InputFiles#MAX_TEXT_LINE_CHARS}.
      */
     public static Info readCsv(Path path, double rateHz, float[] block, SampleSink sink) throws TraceException {
         return withCsv(path, lines -> {
@@ -84,6 +89,10 @@ public final class TraceReader {
                 }
                 double t = parseNumber(path, lineNo, line.substring(0, comma), "time_s");
                 double v = parseNumber(path, lineNo, line.substring(comma + 1), "torque_nm");
+                if (Math.abs(v) >= Conditioner.ABSURD_NM) {
+                    throw new TraceException(path + ":" + lineNo + ": torque_nm " + abbreviate(line.substring(comma + 1).strip())
+                            + " is beyond any torque transducer's range (" + (long) Conditioner.ABSURD_NM + " N·m)");
+                }
                 if (!(t > lastTime)) {
                     throw new TraceException(path + ":" + lineNo + ": time " + t + " s does not increase (previous "
                             + lastTime + " s)");
@@ -92,6 +101,8 @@ public final class TraceReader {
                     firstTime = t;
                 } else if (!(rate > 0)) {
                     rate = 1.0 / (t - lastTime);
+                } else {
+                    checkStep(path, lineNo, t - lastTime, rate);
                 }
                 lastTime = t;
                 if (n == 0) {
@@ -109,11 +120,34 @@ public final class TraceReader {
             if (!lines.header) {
                 throw new TraceException(path + ": no '" + HEADER + "' header: not a torque trace");
             }
+            lines.checkEnded();
             if (n > 0) {
                 sink.onSamples(block, 0, n, blockNs);
             }
             return new Info(rate, lines.meta);
         });
+    }
+
+    /**
+     * A time step must be one sample period within half a period either way: samples missing (a
+     * gap), a jump of the time base (a step) or rows at another rate than {@code rate_hz} would put
+     * the samples at the wrong times and could hide the peak blow.
+     */
+    private static void checkStep(Path path, int lineNo, double stepS, double rateHz) throws TraceException {
+        double periods = stepS * rateHz;
+        if (periods > 1.5 || periods < 0.5) {
+            throw new TraceException(path + ":" + lineNo + ": time steps by " + ms(stepS) + " ms, expected one sample period ("
+                    + ms(1.0 / rateHz) + " ms at " + format(rateHz) + " Hz): "
+                    + (periods > 1.5 ? "a gap in the time column" : "a step in the time column"));
+        }
+    }
+
+    private static String ms(double s) {
+        return String.format(Locale.ROOT, "%.4g", s * 1e3);
+    }
+
+    private static String format(double v) {
+        return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
     }
 
     /** Reads only the metadata and rate of a CSV trace (up to its header and first two rows). */
@@ -142,6 +176,9 @@ public final class TraceReader {
                     return new Info(1.0 / (t - first), lines.meta);
                 }
             }
+            if (!lines.header) {
+                throw new TraceException(path + ": no '" + HEADER + "' header: not a torque trace");
+            }
             throw new TraceException(path + ": no sample rate: add '# rate_hz=...' or at least two rows");
         });
     }
@@ -150,23 +187,19 @@ public final class TraceReader {
         Info read(CsvLines lines) throws IOException, TraceException;
     }
 
-    /** Opens a CSV trace for {@code read}; a missing, binary or unreadable file is one TraceException naming it. */
+    /** Opens a CSV trace for {@code read}; a missing, binary, non-regular or unreadable file is one TraceException naming it. */
     private static Info withCsv(Path path, CsvRead read) throws TraceException {
-        try (BufferedReader in = Files.newBufferedReader(path, StandardCharsets.UTF_8)) {
+        try (InputFiles.Lines in = InputFiles.lines(path, InputFiles.MAX_TEXT_LINE_CHARS)) {
             return read.read(new CsvLines(path, in));
-        } catch (NoSuchFileException e) {
-            throw new TraceException(path + ": no such file");
-        } catch (java.nio.charset.MalformedInputException e) {
-            throw new TraceException(path + ": not a text file (invalid UTF-8)");
         } catch (IOException e) {
-            throw new TraceException(path + ": cannot read: " + e.getMessage());
+            throw new TraceException(InputFiles.describe(path, e));
         }
     }
 
     /** The lines of a CSV trace: blank lines skipped, {@code #} lines (anywhere) into {@link #meta}, the header checked. */
     private static final class CsvLines {
         private final Path path;
-        private final BufferedReader in;
+        private final InputFiles.Lines in;
         final Map<String, String> meta = new LinkedHashMap<>();
         int lineNo;
         /** The header has been read. */
@@ -174,7 +207,7 @@ public final class TraceReader {
         /** The line {@link #next()} returned last is the header. */
         boolean atHeader;
 
-        CsvLines(Path path, BufferedReader in) {
+        CsvLines(Path path, InputFiles.Lines in) {
             this.path = path;
             this.in = in;
         }
@@ -183,8 +216,8 @@ public final class TraceReader {
         String next() throws IOException, TraceException {
             atHeader = false;
             String line;
-            while ((line = in.readLine()) != null) {
-                lineNo++;
+            while ((line = in.next()) != null) {
+                lineNo = in.lineNo();
                 if (line.isEmpty()) {
                     continue;
                 }
@@ -203,6 +236,14 @@ public final class TraceReader {
                 return line;
             }
             return null;
+        }
+
+        /** Refuses a file that ends inside its last line: it was cut short, perhaps inside a value. */
+        void checkEnded() throws TraceException {
+            if (!in.lastLineEnded()) {
+                throw new TraceException(path + ":" + in.lineNo() + ": the file ends inside this line (no line break"
+                        + " after it): cut short, perhaps inside its last value");
+            }
         }
     }
 
@@ -240,6 +281,6 @@ public final class TraceReader {
     }
 
     private static String abbreviate(String s) {
-        return s.length() <= 40 ? s : s.substring(0, 40) + "...";
+        return InputFiles.quote(s);
     }
 }

@@ -45,7 +45,7 @@ class AuditFileTest {
     void namesABadTorque() throws Exception {
         Path f = write("joint_id,method,residual_nm", "j-1,breakaway,-3");
 
-        assertThatThrownBy(() -> AuditFile.read(f)).hasMessage(f + ":2: residual_nm -3 must be a positive torque in N·m");
+        assertThatThrownBy(() -> AuditFile.read(f)).hasMessage(f + ":2: residual_nm -3 must be a positive torque in N·m, within any transducer's range");
     }
 
     @Test

@@ -82,6 +82,15 @@ class BrokenConfigurationTest {
     }
 
     @Test
+    void theRepositorysOwnConfigurationPassesWithSimulatorPresetsSkippedWithANote() {
+        assertThat(Main.run("check", "../config")).isZero();
+        assertThat(streams.err()).isEmpty();
+        assertThat(streams.out().lines()).contains("../config/sim/joints/iso-hard.yaml: skipped: a simulator joint preset"
+                + " ('hammerstep-sim check' validates it)");
+        assertThat(streams.out().lines().reduce((a, b) -> b).orElse("")).matches("\\d+ files valid, \\d+ skipped");
+    }
+
+    @Test
     void theValidSupportFilesPass() {
         assertThat(Main.run("check", "src/test/resources/broken/support")).isZero();
     }

@@ -56,4 +56,10 @@ public final class StandardStreams implements BeforeEachCallback, AfterEachCallb
     public void clearErr() {
         err.reset();
     }
+
+    /** Forgets what was printed to both streams, for a test that runs several commands in turn. */
+    public void clear() {
+        out.reset();
+        err.reset();
+    }
 }

@@ -61,9 +61,9 @@ class TraceReaderTest {
 
     @Test
     void timeMustIncrease() throws IOException {
-        Path p = csv("# rate_hz=1000\ntime_s,torque_nm\n0.000,1.5\n0.002,2.5\n0.001,2.5\n");
+        Path p = csv("# rate_hz=1000\ntime_s,torque_nm\n0.000,1.5\n0.001,2.5\n0.001,2.5\n");
         assertThatThrownBy(() -> TraceReader.readCsv(p, 0, new float[8], this::collect))
-                .isInstanceOf(TraceException.class).hasMessage(p + ":5: time 0.001 s does not increase (previous 0.002 s)");
+                .isInstanceOf(TraceException.class).hasMessage(p + ":5: time 0.001 s does not increase (previous 0.001 s)");
     }
 
     @Test

@@ -13,8 +13,8 @@ import java.util.concurrent.Callable;
 
 /** {@code hammerstep-sim demo}: the whole station in simulation, from config/demo/. */
 @Command(name = "demo", mixinStandardHelpOptions = true,
-        description = {"Runs a whole station in simulation: modelled tool and fasteners, the controller's",
-                "station loop and sequence, and a scripted operator who follows the lamps.",
+        description = {"Runs a whole station in simulation, with a scripted operator who follows the lamps.",
+                "Modelled tool and fasteners, the controller's station loop and sequence, an embedded broker.",
                 "Ends with a summary; exit 0 when every part was worked through."})
 public final class DemoCommand implements Callable<Integer> {
 

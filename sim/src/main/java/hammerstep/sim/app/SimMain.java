@@ -19,6 +19,6 @@ public final class SimMain {
 
     /** Runs a command line and returns its exit code: 0 done, 1 failed, 2 bad input or configuration. */
     public static int run(String... args) {
-        return Cli.commandLine(new SimMain()).execute(args);
+        return Cli.execute(Cli.commandLine(new SimMain()), args);
     }
 }

@@ -39,6 +39,14 @@ public final class SimulationSection implements StationSection<SimulationSection
                              List<PartStream> parts, Habits habits) {
     }
 
+    /** The controller's station sections with this one in place of the unread {@code simulation}: what the demo reads. */
+    public static List<StationSection<?>> withStationSections() {
+        List<StationSection<?>> sections = new ArrayList<>(hammerstep.app.StationSections.all());
+        sections.removeIf(s -> s.key().equals(INSTANCE.key()));
+        sections.add(INSTANCE);
+        return sections;
+    }
+
     @Override
     public String key() {
         return "simulation";
@@ -81,7 +89,12 @@ public final class SimulationSection implements StationSection<SimulationSection
         if (items.isEmpty() && r.has("parts")) {
             r.problem("parts", "'" + r.path("parts") + "' is empty: expected at least one part stream");
         }
-        Habits habits = habits(r.map("operator"));
+        Habits habits;
+        try {
+            habits = habits(r.map("operator"));
+        } catch (IllegalArgumentException e) {
+            habits = null; // a value out of its range, already reported by the reader with its line
+        }
         r.finish();
         return new Simulation(rate, block, internal, tool, supply, battery, joint, transducer, serial, due, fixture,
                 parts, habits);
