@@ -53,7 +53,8 @@ public record JointFilter(Instant from, Instant to, String serial, String progra
         }
         int page;
         try {
-            page = Integer.parseInt(q.getOrDefault("page", "0").strip().isEmpty() ? "0" : q.get("page").strip());
+            String p = q.getOrDefault("page", "").strip();
+            page = p.isEmpty() ? 0 : Integer.parseInt(p);
         } catch (NumberFormatException e) {
             throw new BadQuery("page must be a whole number, got " + q.get("page"));
         }

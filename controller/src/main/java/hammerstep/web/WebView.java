@@ -195,6 +195,9 @@ public final class WebView implements AutoCloseable {
             }
         } catch (RuntimeException e) {
             LOG.warn("web view: {} {} failed: {}", ex.getRequestMethod(), ex.getRequestURI().getPath(), e.toString());
+            if (ex.getResponseCode() < 0) {
+                send(ex, 500, "text/plain", "the view failed on this page; the station goes on\n");
+            }
         } finally {
             if (!stream) {
                 ex.close();
