@@ -82,4 +82,55 @@ class LiveBoardStationTest {
         assertThat(board.log().joints()).hasSize(2);
         assertThat(board.log().parts()).hasSize(1);
     }
+
+    @Test
+    void watchingAStationThatStandsStillAllocatesNothing() {
+        com.sun.management.ThreadMXBean threads =
+                (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
+        start();
+        f.scanPart("S-1");
+        f.cycles(400); // warm up: a prompt that stays, lamps blinking, idle torque blocks
+        long tid = Thread.currentThread().getId();
+        LiveSnapshot before = board.snapshot();
+        long bytes = threads.getThreadAllocatedBytes(tid);
+        for (int k = 0; k < 1000; k++) {
+            board.onCycle(f.agent, f.clock.nanoTime());
+        }
+        long allocated = threads.getThreadAllocatedBytes(tid) - bytes;
+        assertThat(board.snapshot()).isSameAs(before);
+        assertThat(allocated).as("bytes allocated by 1000 unchanged cycles").isLessThan(1024);
+    }
+
+    @Test
+    void aRundownsSamplesAndBlowsAllocateNothing() {
+        com.sun.management.ThreadMXBean threads =
+                (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
+        LiveBoard b = new LiveBoard(50_000, new ResultLog(10));
+        float[] block = new float[512];
+        for (int i = 0; i < block.length; i++) {
+            block[i] = (float) (100 * Math.sin(i * 0.05));
+        }
+        long tid = Thread.currentThread().getId();
+        b.onRundownStart(0);
+        for (int k = 0; k < 100; k++) { // warm up
+            b.onTorque(block, 0, 512, k * 10_240_000L);
+            b.onBlow(k, 100, k * 10_240_000L + 5_000_000L);
+        }
+        long bytes = threads.getThreadAllocatedBytes(tid);
+        b.onRundownStart(2_000_000_000L);
+        for (int k = 0; k < 1000; k++) {
+            long t = 2_000_000_000L + k * 10_240_000L;
+            b.onTorque(block, 0, 512, t);
+            b.onBlow(k, 100, t + 5_000_000L);
+        }
+        long allocated = threads.getThreadAllocatedBytes(tid) - bytes;
+        assertThat(allocated).as("bytes allocated over 1000 blocks of a rundown").isLessThan(1024);
+        Trail t = b.trail();
+        assertThat(t.torqueNm()).hasSize(LiveBoardStationTest.maxPoints());
+        assertThat(t.blowNm()).hasSize(1000);
+    }
+
+    private static int maxPoints() {
+        return Math.min(8192, 1000 * 512 / 100); // 100 samples a point at 50 kHz
+    }
 }
