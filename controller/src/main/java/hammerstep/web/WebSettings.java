@@ -74,18 +74,21 @@ public record WebSettings(String bind, int port, Path usersFile) {
         String users = r.has("users_file") ? r.string("users_file") : null;
         r.finish();
         boolean literal = bind.matches("[0-9.]+|[0-9A-Fa-f:]+") && !bind.isEmpty();
+        boolean bindOk = true;
         if (!literal && !bind.equals("localhost")) {
+            bindOk = false;
             r.problem("bind", "'" + r.path("bind") + "' is \"" + bind
                     + "\": expected an address of this station (127.0.0.1, 0.0.0.0, 192.168.10.5, ::1)");
         } else if (literal) {
             try {
                 InetAddress.getByName(bind);
             } catch (UnknownHostException e) {
+                bindOk = false;
                 r.problem("bind", "'" + r.path("bind") + "' is \"" + bind + "\": not an IP address");
             }
         }
         Path usersFile = users == null ? null : base.resolve(users).normalize();
-        if (usersFile == null && !isLoopback(bind)) {
+        if (bindOk && usersFile == null && !isLoopback(bind)) {
             r.problem("bind", "'" + r.path("bind") + "' is " + bind
                     + ": a view reachable from the network needs 'users_file' (accounts with hashed passwords)");
         }
