@@ -86,7 +86,8 @@ public final class Accounts {
                 throw new AccountsException(where + "iterations must be from " + MIN_ITERATIONS + " to " + MAX_ITERATIONS);
             }
             if (salt.length < 8 || hash.length != HASH_BYTES) {
-                throw new AccountsException(where + "salt of at least 8 bytes and a hash of " + HASH_BYTES + " bytes expected");
+                throw new AccountsException(where + "salt of at least 8 bytes and a hash of " + HASH_BYTES
+                        + " bytes expected");
             }
             if (accounts.put(f[0], new Account(role, iterations, salt, hash)) != null) {
                 throw new AccountsException(where + "account '" + f[0] + "' is listed twice");

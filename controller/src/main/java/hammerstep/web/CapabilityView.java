@@ -16,8 +16,9 @@ import java.util.Set;
 /**
  * Capability for the web view, by the same code as {@code hammerstep stats} ({@link CapabilityStudy}):
  * the joints are turned into the records {@code stats} reads from a results file, so the figures are
- * the same (final torque rounded to 0.01 N·m, as the joint message carries it). A joint whose message id was already taken is a duplicate and is not counted; a
- * loosening is no tightening and is left out, as {@code stats} leaves it out.
+ * the same (final torque rounded to 0.01 N·m, as the joint message carries it). A joint whose
+ * message id was already taken is a duplicate and is not counted; a loosening is no tightening
+ * and is left out, as {@code stats} leaves it out.
  */
 public final class CapabilityView {
 
@@ -43,7 +44,8 @@ public final class CapabilityView {
             }
             JointProgram p = r.program();
             out.add(new JointRecord(line, row.id(), p.id(), j.position() == null ? "" : j.position(),
-                    j.partSerial() == null ? "" : j.partSerial(), JointFields.round(r.finalTorqueNm(), 100), r.blows(), r.verdict().name(),
+                    j.partSerial() == null ? "" : j.partSerial(), JointFields.round(r.finalTorqueNm(), 100),
+                    r.blows(), r.verdict().name(),
                     r.reasons().stream().map(Enum::name).toList(),
                     new JointRecord.Limits(p.torque().minNm(), p.torque().maxNm(), p.blows().min(), p.blows().max())));
         }

@@ -38,7 +38,7 @@ public record LiveSnapshot(long version, String phase, String partSerial, String
     /** Before the station's first cycle. */
     static LiveSnapshot idle() {
         return new LiveSnapshot(0, "WAITING", "", "", "", List.of(), List.of(),
-                List.of("OFF", "OFF", "OFF", "OFF", "OFF"), "", 0, 0, "", "", false, "OK", List.of(), 0, false, 0, "", Double.NaN,
-                Double.NaN, Double.NaN, Double.NaN);
+                List.of("OFF", "OFF", "OFF", "OFF", "OFF"), "", 0, 0, "", "", false, "OK", List.of(), 0, false, 0, "",
+                Double.NaN, Double.NaN, Double.NaN, Double.NaN);
     }
 }

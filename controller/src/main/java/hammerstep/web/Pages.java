@@ -190,7 +190,8 @@ final class Pages {
         field(b, "pass", j.pass());
         field(b, "attempt", Integer.toString(j.attempt()));
         field(b, "program", p.id() + (p.revision() == null ? "" : " rev " + p.revision()));
-        field(b, "final torque", Html.num(r.finalTorqueNm(), 2) + " N·m (" + p.finalTorque().name().toLowerCase() + ")");
+        field(b, "final torque", Html.num(r.finalTorqueNm(), 2) + " N·m ("
+                + p.finalTorque().name().toLowerCase(java.util.Locale.ROOT) + ")");
         field(b, "window", Html.num(p.torque().minNm(), 1) + " to " + Html.num(p.torque().maxNm(), 1) + " N·m, target "
                 + Html.num(p.torque().targetNm(), 1) + (p.hasShutoff() ? ", shut-off " + Html.num(p.shutoffAtNm(), 1) : ""));
         field(b, "blows", r.blows() + " (window " + p.blows().min() + " to " + p.blows().max() + ", counted above "
@@ -198,7 +199,7 @@ final class Pages {
         field(b, "blow rate", Html.num(r.blowRatePerMin(), 0) + " per minute");
         field(b, "duration", Html.num(r.durationMs(), 1) + " ms");
         field(b, "blows after shut-off", Integer.toString(r.blowsAfterShutoff()));
-        field(b, "direction", r.direction().name().toLowerCase());
+        field(b, "direction", r.direction().name().toLowerCase(java.util.Locale.ROOT));
         field(b, "transducer", j.transducerSerial() + (j.calibrationDue() == null ? "" : ", calibration due "
                 + j.calibrationDue()));
         field(b, "trace", j.tracePath() == null ? "-" : j.tracePath());
@@ -307,7 +308,8 @@ final class Pages {
             Capability t = e.torque();
             Capability bl = e.blows();
             b.append("<tr").append(e.flags().isEmpty() ? "" : " class=\"flagged\"").append("><td>")
-                    .append(Html.esc(e.program())).append("</td><td>").append(e.perPosition() ? Html.esc(e.position()) : "all")
+                    .append(Html.esc(e.program())).append("</td><td>")
+                    .append(e.perPosition() ? Html.esc(e.position()) : "all")
                     .append("</td><td class=\"num\">").append(t.n()).append("</td>");
             cell(b, t.mean(), 2, false);
             cell(b, t.sd(), 3, false);
