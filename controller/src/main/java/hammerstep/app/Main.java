@@ -22,7 +22,7 @@ public final class Main {
 
     /** Subcommand names in the order help lists them. */
     static final List<String> COMMANDS =
-            List.of("replay", "check", "stats", "plot", "audit", "run", "zero", "shunt-check", "help");
+            List.of("replay", "check", "stats", "plot", "audit", "run", "zero", "shunt-check", "web-user", "help");
 
     public static void main(String[] args) {
         if (args.length > 0 && args[0].equals("replay")) {
@@ -60,6 +60,7 @@ public final class Main {
             case "run": return new RunCommand();
             case "zero": return new ZeroCommand();
             case "shunt-check": return new ShuntCheckCommand();
+            case "web-user": return new WebUserCommand();
             case "help": return new CommandLine.HelpCommand();
             default: throw new IllegalArgumentException(name);
         }

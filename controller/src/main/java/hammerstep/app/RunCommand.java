@@ -21,6 +21,11 @@ import hammerstep.station.SystemStationClock;
 import hammerstep.station.loop.CommandDesk;
 import hammerstep.station.loop.StationAgent;
 import hammerstep.station.loop.StationListener;
+import hammerstep.web.Accounts;
+import hammerstep.web.LiveBoard;
+import hammerstep.web.ResultLog;
+import hammerstep.web.WebSettings;
+import hammerstep.web.WebView;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
 import hammerstep.station.setup.IdentitySection;
@@ -110,9 +115,12 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);
         AtomicLong errors = new AtomicLong();
+        WebSettings webSettings = station.get(WebSettings.SECTION);
+        LiveBoard board = webSettings == null ? null
+                : new LiveBoard(hw.adc().rateHz(), new ResultLog(ResultLog.DEFAULT_JOINTS));
         StationAgent agent = new StationAgent(clock, ports, delivery.journal(), sequence, parts.byModel(),
                 conditioning(td).withMains(station.get(MainsSection.INSTANCE).frequencyHz()),
-                (long) (timing.blinkPeriodMs() * 1e6), StationListener.NONE, t -> {
+                (long) (timing.blinkPeriodMs() * 1e6), board == null ? StationListener.NONE : board, t -> {
                     errors.incrementAndGet();
                     LOG.error("station cycle failed", t);
                 });
@@ -140,6 +148,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         if (td.calibrationDue(java.time.LocalDate.now())) {
             LOG.warn("transducer {} calibration was due on {}", td.serial(), td.calibrationDue());
         }
+        WebView web = board == null ? null : startWeb(webSettings, board, id);
         try (StationRunner stationRunner = new StationRunner(agent)) {
             AgentRunner.startOnThread(acquisitionRunner);
             stationRunner.start();
@@ -156,6 +165,9 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
                 logStatus(acquisition, desk, delivery, errors.get());
             }
         } finally {
+            if (web != null) {
+                web.close();
+            }
             acquisitionRunner.close();
             logStatus(acquisition, desk, delivery, errors.get());
             delivery.close(); // after the station loop: offline status, clean disconnect, journal closed
@@ -234,4 +246,16 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         }
     }
 
+
+    /** Serves the web view as the station file's {@code web} section says; a port it cannot bind stops the start. */
+    private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id) {
+        try {
+            WebView web = WebView.start(settings, board, id.site() + "/" + id.line() + "/" + id.station());
+            LOG.info("web view on http://{}:{}/ ({})", settings.bind(), web.port(),
+                    web.open() ? "loopback, no login" : "accounts of " + settings.usersFile());
+            return web;
+        } catch (java.io.IOException | Accounts.AccountsException e) {
+            throw new UserError("web: cannot serve on " + settings.bind() + ":" + settings.port() + ": " + e.getMessage());
+        }
+    }
 }

@@ -12,6 +12,7 @@ import hammerstep.station.setup.PartsSection;
 import hammerstep.config.StationSection;
 import hammerstep.station.setup.TimingSection;
 import hammerstep.trace.TracesSection;
+import hammerstep.web.WebSettings;
 
 import java.nio.file.Path;
 import java.util.List;
@@ -78,6 +79,7 @@ public final class StationSections {
                 MainsSection.INSTANCE,
                 HardwareSections.HARDWARE,
                 HardwareSections.TRANSDUCER,
+                WebSettings.SECTION,
                 StationSection.readElsewhere("simulation"));
     }
 }

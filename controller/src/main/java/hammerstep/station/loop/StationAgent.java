@@ -209,6 +209,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         work += drainStores();
         applyTool();
         work += lampDriver.apply(sequence, nowNs);
+        listener.onCycle(this, nowNs);
         return work;
     }
 
@@ -269,6 +270,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         }
         long rejectedBefore = current.conditioner().rejectedImpulses();
         current.onSamples(samples, offset, length, firstSampleNs);
+        listener.onTorque(samples, offset, length, firstSampleNs);
         if (interference != null) {
             interference.add(current.conditioner().rejectedImpulses() - rejectedBefore);
         }
@@ -537,7 +539,8 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         return patternsByModel;
     }
 
-    ResultSink.Storage storage() {
+    /** The store's room as the journal last reported it. */
+    public ResultSink.Storage storage() {
         return journal.storage();
     }
 
@@ -551,7 +554,8 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         return awaiting != null || !eventsToOffer.isEmpty();
     }
 
-    boolean inRundown() {
+    /** True while the current monitor is inside a rundown. */
+    public boolean inRundown() {
         return current.inRundown();
     }
 

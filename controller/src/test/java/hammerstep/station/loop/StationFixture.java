@@ -65,6 +65,8 @@ final class StationFixture {
     final List<StationEvent> events = reports.events;
     final List<String> storeFailures = reports.storeFailures;
     final List<Throwable> errors = new ArrayList<>();
+    /** A listener told of everything after {@link #reports} (set before {@code start}). */
+    StationListener extra = StationListener.NONE;
     private final AtomicLong ids = new AtomicLong();
     StationAgent agent;
     /** The journal's writer when it runs apart from the station ({@link #startOnWriter}), else null. */
@@ -103,7 +105,7 @@ final class StationFixture {
                 Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
                 new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), patterns,
-                conditioning, 1_000_000_000L, reports, errorHandler);
+                conditioning, 1_000_000_000L, StationListener.both(reports, extra), errorHandler);
         return agent;
     }
 

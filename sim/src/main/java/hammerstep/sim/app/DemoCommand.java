@@ -61,6 +61,11 @@ public final class DemoCommand implements Callable<Integer> {
             description = "keep the result outbox in DIR, so a restart resumes (default: a temporary folder)")
     Path state;
 
+    @Option(names = "--web", paramLabel = "PORT", defaultValue = "0",
+            description = {"serve the engineer's web view on http://127.0.0.1:PORT/ (loopback only, no login);"
+                    + " after the parts it keeps serving until Ctrl-C"})
+    int webPort;
+
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
@@ -76,9 +81,12 @@ public final class DemoCommand implements Callable<Integer> {
         if (broker != null && !broker.matches("tcp://[^/:]+:[0-9]{1,5}")) {
             throw new hammerstep.app.UserError("demo: --broker must be tcp://HOST:PORT, got " + broker, 2);
         }
+        if (webPort < 0 || webPort > 65535) {
+            throw new hammerstep.app.UserError("demo: --web must be a port from 1 to 65535, got " + webPort, 2);
+        }
         // the live view redraws a terminal in place; into a pipe or a file it would write escape codes
         boolean terminal = System.console() != null;
         return new DemoRunner(new DemoOptions(config, parts, seed, fast, plain || !terminal, supplyDropPercent, traces,
-                true, broker, resultsOut, summaryOut, state), DemoOutput.stdout()).run();
+                true, broker, resultsOut, summaryOut, state), DemoOutput.stdout(), webPort).run();
     }
 }

@@ -31,8 +31,13 @@ import hammerstep.station.setup.PartsSection;
 import hammerstep.station.setup.MainsSection;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
-import hammerstep.config.StationSection;
 import hammerstep.station.setup.TimingSection;
+
+import hammerstep.web.Accounts;
+import hammerstep.web.LiveBoard;
+import hammerstep.web.ResultLog;
+import hammerstep.web.WebSettings;
+import hammerstep.web.WebView;
 
 import java.io.PrintStream;
 import java.nio.file.Files;
@@ -44,6 +49,7 @@ import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import java.util.concurrent.CountDownLatch;
 
 /**
  * Runs the demo: a station from a station file with its {@code simulation:} section, the scripted
@@ -58,26 +64,51 @@ public final class DemoRunner {
     private final DemoOptions options;
     private final PrintStream out;
     private final DemoView view;
+    private final int webPort;
+    private final CountDownLatch stopServing = new CountDownLatch(1);
+    private volatile WebView web;
 
     public DemoRunner(DemoOptions options, PrintStream out) {
-        this(options, out, null);
+        this(options, out, null, 0);
+    }
+
+    /**
+     * A demo that also serves the engineer's web view on 127.0.0.1:{@code webPort} (0: none; no
+     * login, loopback only), and after its parts keeps serving until {@link #stopServing()} or the
+     * process is interrupted.
+     */
+    public DemoRunner(DemoOptions options, PrintStream out, int webPort) {
+        this(options, out, null, webPort);
     }
 
     /** With a view of the caller's (tests: a live view of a fixed size); null: as the options say. */
     DemoRunner(DemoOptions options, PrintStream out, DemoView view) {
+        this(options, out, view, 0);
+    }
+
+    private DemoRunner(DemoOptions options, PrintStream out, DemoView view, int webPort) {
         this.options = options;
         this.out = out;
         this.view = view;
+        this.webPort = webPort;
+    }
+
+    /** Ends the serving after the parts (the demo's Ctrl-C does it by ending the process). */
+    public void stopServing() {
+        stopServing.countDown();
+    }
+
+    /** The web view while the demo serves it, else null. */
+    public WebView web() {
+        return web;
     }
 
     public int run() throws ConfigException, InterruptedException {
         if (!Files.exists(options.station())) {
             throw new UserError(options.station() + ": no such file (run from the repository root, or give --config)", 2);
         }
-        List<StationSection<?>> sections = new ArrayList<>(StationSections.all());
-        sections.removeIf(s -> s.key().equals(SimulationSection.INSTANCE.key()));
-        sections.add(SimulationSection.INSTANCE);
-        StationConfig config = StationFile.load(options.station(), sections);
+        // the same sections 'hammerstep-sim check' reads the file with
+        StationConfig config = StationFile.load(options.station(), SimulationSection.withStationSections());
         SimulationSection.Simulation sim = config.get(SimulationSection.INSTANCE);
         if (sim == null) {
             throw new UserError(options.station() + ": no 'simulation' section: the demo needs one", 2);
@@ -113,7 +144,7 @@ public final class DemoRunner {
         VirtualStation hardware = new VirtualStation(tool, sim.fixture(), sim.rateHz(), sim.blockSamples(), 64,
                 timing.blinkPeriodNs() + timing.blinkPeriodNs() / 5);
         // the plant's commands over MQTT: the same desk as on a board; reload reads the station file again
-        CommandDesk desk = new CommandDesk(() -> StationFile.load(options.station(), sections)
+        CommandDesk desk = new CommandDesk(() -> StationFile.load(options.station(), SimulationSection.withStationSections())
                 .get(PartsSection.INSTANCE).byModel());
         DemoDelivery delivery = options.delivery()
                 ? DemoDelivery.open(options, id, config.get(StationSections.STORAGE), config.get(StationSections.BROKER),
@@ -146,10 +177,19 @@ public final class DemoRunner {
                 .withOverRange(sim.transducer().ratedTorqueNm())
                 .withMains(config.get(MainsSection.INSTANCE).frequencyHz());
         List<Throwable> errors = new ArrayList<>();
+        StationListener listener = listener(tally, view, clock);
+        LiveBoard board = null;
+        if (webPort > 0) {
+            board = new LiveBoard(sim.rateHz(), new ResultLog(ResultLog.DEFAULT_JOINTS));
+            listener = StationListener.both(listener, board);
+        }
         SimulatedStation station = new SimulatedStation(clock, hardware, journal, patterns,
                 new Sequence.Settings(sim.transducerSerial(), sim.calibrationDue(), timing.completeHoldMs()),
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
-                listener(tally, view, clock), errors::add);
+                listener, errors::add);
+        if (board != null) {
+            web = startWeb(board, id);
+        }
         StationExtras.attach(station.agent(), config, sim.rateHz());
         station.agent().takeCommands(desk);
         if (options.tracesDir() != null) {
@@ -188,14 +228,35 @@ public final class DemoRunner {
         for (Throwable t : errors) {
             out.println("station error: " + t);
         }
+        int exit = errors.isEmpty() ? 0 : 1;
         if (delivery != null && !delivery.finish(out, options.summaryOut())) {
-            return 1;
-        }
-        if (!finished) {
+            exit = 1;
+        } else if (!finished) {
             out.println("the run did not finish: the simulated operator got stuck (see the events above)");
-            return 1;
+            exit = 1;
         }
-        return errors.isEmpty() ? 0 : 1;
+        if (web != null) {
+            try {
+                out.println("parts done; the web view stays at http://127.0.0.1:" + web.port() + "/ until Ctrl-C");
+                stopServing.await();
+            } finally {
+                web.close();
+                web = null;
+            }
+        }
+        return exit;
+    }
+
+    private WebView startWeb(LiveBoard board, StationId id) {
+        try {
+            WebView v = WebView.start(WebSettings.loopback(webPort), board,
+                    id.site() + "/" + id.line() + "/" + id.station() + " (simulated)");
+            out.println("web view: http://127.0.0.1:" + v.port() + "/ (bound to loopback: open on this computer,"
+                    + " no login asked)");
+            return v;
+        } catch (java.io.IOException | Accounts.AccountsException e) {
+            throw new UserError("--web " + webPort + ": cannot serve on 127.0.0.1:" + webPort + ": " + e.getMessage(), 2);
+        }
     }
 
     /** The ground truth counts blows as the most sensitive program of the station does. */

@@ -1,7 +1,5 @@
 package hammerstep.sim.demo;
 
-import hammerstep.app.StationSections;
-import hammerstep.config.StationSection;
 import hammerstep.sim.physics.SampleRates;
 import hammerstep.station.setup.StationConfig;
 import hammerstep.station.setup.StationFile;
@@ -10,7 +8,6 @@ import org.junit.jupiter.api.Test;
 import java.nio.file.Files;
 
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 
 import static org.assertj.core.api.Assertions.assertThat;
@@ -21,10 +18,7 @@ class DemoRateTest {
     private static final Path STATION = Path.of("../config/demo/station.yaml");
 
     private static SimulationSection.Simulation simulation(Path station) throws Exception {
-        List<StationSection<?>> sections = new ArrayList<>(StationSections.all());
-        sections.removeIf(s -> s.key().equals(SimulationSection.INSTANCE.key()));
-        sections.add(SimulationSection.INSTANCE);
-        StationConfig config = StationFile.load(station, sections);
+        StationConfig config = StationFile.load(station, SimulationSection.withStationSections());
         return config.get(SimulationSection.INSTANCE);
     }
 

@@ -1,0 +1,314 @@
+package hammerstep.web;
+
+import com.sun.net.httpserver.Authenticator;
+import com.sun.net.httpserver.HttpExchange;
+import com.sun.net.httpserver.HttpPrincipal;
+import com.sun.net.httpserver.HttpServer;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.OutputStream;
+import java.io.OutputStreamWriter;
+import java.io.Writer;
+import java.net.InetSocketAddress;
+import java.net.URI;
+import java.net.URLDecoder;
+import java.nio.charset.StandardCharsets;
+import java.util.Base64;
+import java.util.HashMap;
+import java.util.Map;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.atomic.AtomicInteger;
+
+/**
+ * The line engineer's web view: the JDK's own HTTP server ({@code com.sun.net.httpserver}: no
+ * dependency, a few hundred kilobytes of heap) on its own threads, reading what the station hands
+ * over through the {@link LiveBoard}; the station never waits on it. Every page, script and style
+ * comes from the jar. Read-only: GET and HEAD only.
+ *
+ * <p>Access: with a users file, every request needs an account (HTTP Basic, checked against the
+ * PBKDF2 hashes; send it over TLS or a trusted network only); without one (allowed on loopback
+ * only) every request is a viewer and the Host header must name the loopback, so a web page
+ * elsewhere cannot reach the view through a rebound DNS name.
+ */
+public final class WebView implements AutoCloseable {
+
+    private static final Logger LOG = LoggerFactory.getLogger(WebView.class);
+    static final String ROLE = "hammerstep.role";
+    private static final String REALM = "hammerstep station";
+
+    private final HttpServer server;
+    private final ExecutorService pool;
+    private final LiveFeed feed;
+    private final Thread feedThread;
+    private final Pages pages;
+    private final Accounts accounts;
+    private final boolean open;
+
+    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station) {
+        this.server = server;
+        this.pool = pool;
+        this.accounts = accounts;
+        this.open = accounts == null;
+        this.feed = new LiveFeed(board);
+        this.pages = new Pages(board, station, open);
+        this.feedThread = new Thread(feed, "web-live");
+        this.feedThread.setDaemon(true);
+    }
+
+    /**
+     * Starts serving; returns once the port is bound.
+     *
+     * @param station the station's name for page titles (site/line/station)
+     * @throws IOException when the address cannot be bound (in use, not this host's)
+     */
+    public static WebView start(WebSettings settings, LiveBoard board, String station)
+            throws IOException, Accounts.AccountsException {
+        Accounts accounts = settings.usersFile() == null ? null : Accounts.read(settings.usersFile());
+        if (accounts == null && !settings.loopbackOnly()) {
+            throw new IllegalArgumentException("an open web view is for loopback only, not " + settings.bind());
+        }
+        HttpServer server = HttpServer.create(new InetSocketAddress(settings.bind(), settings.port()), 32);
+        AtomicInteger n = new AtomicInteger();
+        ExecutorService pool = Executors.newFixedThreadPool(4, r -> {
+            Thread t = new Thread(r, "web-" + n.incrementAndGet());
+            t.setDaemon(true);
+            return t;
+        });
+        WebView view = new WebView(server, pool, board, accounts, station);
+        var context = server.createContext("/", view::handle);
+        context.setAuthenticator(view.new Login());
+        server.setExecutor(pool);
+        server.start();
+        view.feedThread.start();
+        return view;
+    }
+
+    /** The port served (the one asked for, or the one the system chose for port 0). */
+    public int port() {
+        return server.getAddress().getPort();
+    }
+
+    /** True when the view asks no login (loopback without a users file). */
+    public boolean open() {
+        return open;
+    }
+
+    /** Pages with a live event stream open now. */
+    public int livePages() {
+        return feed.pages();
+    }
+
+    @Override
+    public void close() {
+        feed.stop();
+        feedThread.interrupt();
+        server.stop(0);
+        pool.shutdownNow();
+    }
+
+    /** Checks the account of every request, or the Host header of an open view. */
+    private final class Login extends Authenticator {
+        private final Map<String, Role> recent = new java.util.concurrent.ConcurrentHashMap<>();
+
+        @Override
+        public Result authenticate(HttpExchange ex) {
+            if (open) {
+                String host = ex.getRequestHeaders().getFirst("Host");
+                if (host == null || !loopbackHost(host)) {
+                    return new Failure(421);
+                }
+                ex.setAttribute(ROLE, Role.VIEWER);
+                return new Success(new HttpPrincipal("open", REALM));
+            }
+            String header = ex.getRequestHeaders().getFirst("Authorization");
+            if (header != null && header.regionMatches(true, 0, "Basic ", 0, 6) && header.length() < 1024) {
+                Role role = recent.get(header);
+                String user = null;
+                if (role == null) {
+                    String decoded;
+                    try {
+                        decoded = new String(Base64.getDecoder().decode(header.substring(6).strip()),
+                                StandardCharsets.UTF_8);
+                    } catch (IllegalArgumentException e) {
+                        decoded = "";
+                    }
+                    int colon = decoded.indexOf(':');
+                    if (colon > 0) {
+                        user = decoded.substring(0, colon);
+                        role = accounts.check(user, decoded.substring(colon + 1).toCharArray());
+                        if (role != null) {
+                            if (recent.size() > 64) {
+                                recent.clear();
+                            }
+                            recent.put(header, role);
+                        }
+                    }
+                }
+                if (role != null) {
+                    ex.setAttribute(ROLE, role);
+                    return new Success(new HttpPrincipal(user == null ? "account" : user, REALM));
+                }
+            }
+            ex.getResponseHeaders().set("WWW-Authenticate", "Basic realm=\"" + REALM + "\", charset=\"UTF-8\"");
+            return new Retry(401);
+        }
+    }
+
+    static boolean loopbackHost(String host) {
+        String h = host.strip();
+        if (h.startsWith("[")) {
+            int end = h.indexOf(']');
+            return end > 0 && h.substring(1, end).equals("::1");
+        }
+        int colon = h.lastIndexOf(':');
+        String name = colon >= 0 ? h.substring(0, colon) : h;
+        return name.equals("localhost") || name.matches("127\\.[0-9]{1,3}\\.[0-9]{1,3}\\.[0-9]{1,3}");
+    }
+
+    private void handle(HttpExchange ex) throws IOException {
+        boolean stream = false;
+        try {
+            String method = ex.getRequestMethod();
+            if (!method.equals("GET") && !method.equals("HEAD")) {
+                ex.getResponseHeaders().set("Allow", "GET, HEAD");
+                send(ex, 405, "text/plain", "this view is read-only: GET and HEAD only\n");
+                return;
+            }
+            URI uri = ex.getRequestURI();
+            Map<String, String> q = query(uri.getRawQuery());
+            String path = uri.getPath();
+            switch (path) {
+                case "/" -> asset(ex, "live.html", "text/html");
+                case "/live.js" -> asset(ex, "live.js", "text/javascript");
+                case "/style.css" -> asset(ex, "style.css", "text/css");
+                case "/events" -> stream = events(ex);
+                case "/results" -> page(ex, pages.results(q));
+                case "/results.csv" -> csv(ex, q);
+                case "/joint" -> page(ex, pages.joint(q.getOrDefault("id", "")));
+                case "/part" -> page(ex, pages.part(q.getOrDefault("serial", "")));
+                case "/capability" -> page(ex, pages.capability(q));
+                default -> send(ex, 404, "text/plain", "no such page: " + path + "\n");
+            }
+        } catch (RuntimeException e) {
+            LOG.warn("web view: {} {} failed: {}", ex.getRequestMethod(), ex.getRequestURI().getPath(), e.toString());
+            if (ex.getResponseCode() < 0) {
+                send(ex, 500, "text/plain", "the view failed on this page; the station goes on\n");
+            }
+        } finally {
+            if (!stream) {
+                ex.close();
+            }
+        }
+    }
+
+    /** Opens a page's event stream; true when the feed took it (the exchange then stays open). */
+    private boolean events(HttpExchange ex) throws IOException {
+        headers(ex, "text/event-stream");
+        ex.getResponseHeaders().set("Cache-Control", "no-store");
+        if (ex.getRequestMethod().equals("HEAD")) {
+            ex.sendResponseHeaders(200, -1);
+            return false;
+        }
+        ex.sendResponseHeaders(200, 0);
+        OutputStream out = ex.getResponseBody();
+        out.write("retry: 2000\n\n".getBytes(StandardCharsets.UTF_8));
+        out.flush();
+        if (!feed.add(out)) {
+            out.write("event: full\ndata: {}\n\n".getBytes(StandardCharsets.UTF_8));
+            return false;
+        }
+        return true; // the exchange stays open: the feed's thread writes to it until the page goes
+    }
+
+    private void csv(HttpExchange ex, Map<String, String> q) throws IOException {
+        JointFilter filter;
+        try {
+            filter = JointFilter.of(q);
+        } catch (JointFilter.BadQuery e) {
+            send(ex, 400, "text/plain", e.getMessage() + "\n");
+            return;
+        }
+        headers(ex, "text/csv");
+        ex.getResponseHeaders().set("Content-Disposition", "attachment; filename=\"joints.csv\"");
+        if (ex.getRequestMethod().equals("HEAD")) {
+            ex.sendResponseHeaders(200, -1);
+            return;
+        }
+        ex.sendResponseHeaders(200, 0);
+        try (Writer w = new OutputStreamWriter(ex.getResponseBody(), StandardCharsets.UTF_8)) {
+            JointCsv.write(filter.apply(pages.board().log().joints()), w);
+        }
+    }
+
+    private static void page(HttpExchange ex, Pages.Reply reply) throws IOException {
+        send(ex, reply.status(), "text/html", reply.html());
+    }
+
+    private void asset(HttpExchange ex, String name, String type) throws IOException {
+        try (InputStream in = WebView.class.getResourceAsStream("/hammerstep/web/" + name)) {
+            if (in == null) {
+                send(ex, 404, "text/plain", "missing from the jar: " + name + "\n");
+                return;
+            }
+            byte[] body = in.readAllBytes();
+            if (name.equals("live.html")) {
+                body = new String(body, StandardCharsets.UTF_8).replace("{{station}}", Html.esc(pages.station()))
+                        .replace("{{access}}", open ? Pages.OPEN_NOTE : "").getBytes(StandardCharsets.UTF_8);
+            }
+            headers(ex, type);
+            write(ex, 200, body);
+        }
+    }
+
+    private static void send(HttpExchange ex, int status, String type, String text) throws IOException {
+        headers(ex, type);
+        write(ex, status, text.getBytes(StandardCharsets.UTF_8));
+    }
+
+    private static void write(HttpExchange ex, int status, byte[] body) throws IOException {
+        if (ex.getRequestMethod().equals("HEAD")) {
+            ex.sendResponseHeaders(status, -1);
+            return;
+        }
+        ex.sendResponseHeaders(status, body.length == 0 ? -1 : body.length);
+        ex.getResponseBody().write(body);
+    }
+
+    private static void headers(HttpExchange ex, String type) {
+        var h = ex.getResponseHeaders();
+        h.set("Content-Type", type + "; charset=utf-8");
+        h.set("X-Content-Type-Options", "nosniff");
+        h.set("X-Frame-Options", "DENY");
+        h.set("Referrer-Policy", "no-referrer");
+        h.set("Content-Security-Policy", "default-src 'self'; img-src 'self' data:; style-src 'self'; "
+                + "script-src 'self'; connect-src 'self'; form-action 'self'; frame-ancestors 'none'");
+        if (!type.equals("text/event-stream")) {
+            h.set("Cache-Control", "no-cache");
+        }
+    }
+
+    /** A query string's fields (the first of each name), decoded; at most 32 fields. */
+    static Map<String, String> query(String raw) {
+        Map<String, String> q = new HashMap<>();
+        if (raw == null || raw.isEmpty()) {
+            return q;
+        }
+        String[] parts = raw.split("&", 33);
+        for (int i = 0; i < Math.min(parts.length, 32); i++) {
+            String p = parts[i];
+            int eq = p.indexOf('=');
+            String k = eq < 0 ? p : p.substring(0, eq);
+            String v = eq < 0 ? "" : p.substring(eq + 1);
+            try {
+                q.putIfAbsent(URLDecoder.decode(k, StandardCharsets.UTF_8), URLDecoder.decode(v, StandardCharsets.UTF_8));
+            } catch (IllegalArgumentException e) {
+                // a malformed escape: the field is left out
+            }
+        }
+        return q;
+    }
+}
