@@ -13,6 +13,8 @@ import java.util.Map;
 import java.util.UUID;
 import java.util.concurrent.CompletionStage;
 import java.util.concurrent.ConcurrentLinkedQueue;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.concurrent.atomic.AtomicLong;
 
 /**
  * The plant's commands: validates each ({@link CommandParser}), answers a status request at once,
@@ -21,12 +23,13 @@ import java.util.concurrent.ConcurrentLinkedQueue;
  * answers arrive on its own thread and are queued; {@link #answerWaiting} sends them from the
  * delivery thread.
  *
- * <p>Every answer waits in one queue until the client has room to publish it (the broker takes
- * only so many unacknowledged publishes), also across a reconnect; none is dropped for want of room.
- * The queue is bounded: with {@value #BUSY_AT} answers waiting, a new command is not acted on and is
- * answered {@code BUSY}; with {@value #CAPACITY} waiting, a new command is neither acted on nor
- * answered, and is counted ({@code commands.dropped} in the status) and logged. Answers of commands
- * already accepted by the station always join the queue (at most the station's own command queue).
+ * <p>Commands arrive on the client's thread into an inbox ({@link #offer}) and are taken up on the
+ * delivery thread at the pace their answers go out: only while fewer than {@value #AHEAD} answers
+ * wait for room to be published (the broker takes only so many unacknowledged publishes). An answer
+ * waits, also across a reconnect, and is never dropped for want of room. The inbox is bounded: a
+ * command that arrives with {@value #BUSY_AT} commands already in it is not acted on and is answered
+ * {@code BUSY} in its turn; one that would take the inbox past {@value #INBOX_BYTES} bytes is
+ * neither acted on nor answered, and is counted ({@code commands.dropped} in the status) and logged.
  * A client can send commands at will: refusals and dropped commands are logged at most ten times a
  * minute each, then counted.
  */
@@ -36,10 +39,16 @@ final class RemoteCommands {
     private static final int MAX_COMMAND_BYTES = 4096;
     private static final long RESPONSE_EXPIRY_S = 60;
 
-    /** Answers waiting to be published, beyond which a new command is answered {@code BUSY}. */
+    /** Commands in the inbox at which a new one is answered {@code BUSY} and not acted on. */
     static final int BUSY_AT = 1000;
-    /** Answers waiting, beyond which a new command is dropped unanswered and counted. */
-    static final int CAPACITY = 2000;
+    /** The inbox's bound in bytes (payload, topics, correlation data, 64 bytes per command). */
+    static final long INBOX_BYTES = 4L << 20;
+    /** Answers queued for room, at which the delivery thread takes up no further command for now. */
+    static final int AHEAD = 64;
+    private static final int TAKE_PER_CYCLE = 256;
+
+    private record Incoming(String topic, byte[] payload, Long expiryS, String responseTopic, byte[] correlation,
+                            long bytes, boolean busy) { }
 
     private record Answer(String responseTopic, byte[] correlation, String command, StationCommands.Reply reply) { }
 
@@ -61,14 +70,18 @@ final class RemoteCommands {
             60_000_000_000L);
     private final ConcurrentLinkedQueue<Answer> answers = new ConcurrentLinkedQueue<>();
     private final ArrayDeque<Outgoing> waiting = new ArrayDeque<>();
+    private final ConcurrentLinkedQueue<Incoming> inbox = new ConcurrentLinkedQueue<>();
+    private final AtomicLong inboxBytes = new AtomicLong();
+    private final AtomicInteger inboxCount = new AtomicInteger();
+    private final AtomicLong receivedCount = new AtomicLong();
+    private final AtomicLong droppedCount = new AtomicLong();
+    private long droppedLogged;
     private long responseSeq;
     /** Answers the station owes for commands handed to it: they join the queue when they come. */
     private int owed;
-    private volatile long received;
     private volatile long answered;
     private volatile long refused;
     private volatile long busy;
-    private volatile long dropped;
     private volatile int waitingCount;
 
     RemoteCommands(StationId station, Topics topics, StationCommands commands, BrokerSettings settings,
@@ -83,6 +96,12 @@ final class RemoteCommands {
 
     /** Lets the rate-limited warnings report what they held back. */
     void poll(long nowNs) {
+        long dropped = droppedCount.get();
+        if (dropped > droppedLogged) {
+            droppedCommands.warn(nowNs, "dropped {} commands unanswered: the command inbox is full ({} bytes; {}"
+                    + " dropped since start)", dropped - droppedLogged, INBOX_BYTES, dropped);
+            droppedLogged = dropped;
+        }
         refusals.poll(nowNs);
         unsentResponses.poll(nowNs);
         droppedCommands.poll(nowNs);
@@ -95,7 +114,52 @@ final class RemoteCommands {
 
     /** The command figures since start; read from any thread. */
     Figures figures() {
-        return new Figures(received, answered, refused, busy, dropped, waitingCount);
+        return new Figures(receivedCount.get(), answered, refused, busy, droppedCount.get(),
+                inboxCount.get() + waitingCount);
+    }
+
+    /**
+     * A message on a command topic, on the client's thread: into the inbox, marked {@code BUSY} when
+     * the inbox holds {@value #BUSY_AT} commands, or dropped and counted when it has no room.
+     */
+    void offer(String topic, byte[] payload, Long expiryS, String responseTopic, byte[] correlation) {
+        receivedCount.incrementAndGet();
+        long bytes = 64L + (payload == null ? 0 : payload.length) + topic.length()
+                + (responseTopic == null ? 0 : responseTopic.length()) + (correlation == null ? 0 : correlation.length);
+        if (inboxBytes.addAndGet(bytes) > INBOX_BYTES) {
+            inboxBytes.addAndGet(-bytes);
+            droppedCount.incrementAndGet();
+            return;
+        }
+        boolean busyNow = inboxCount.getAndIncrement() >= BUSY_AT;
+        inbox.add(new Incoming(topic, payload, expiryS, responseTopic, correlation, bytes, busyNow));
+    }
+
+    /**
+     * Takes up commands from the inbox while fewer than {@value #AHEAD} answers wait for room, at
+     * most {@value #TAKE_PER_CYCLE}; delivery thread. Returns how many.
+     *
+     * @param status the status message, for a status request
+     */
+    int takeUp(StatusMessage status, boolean connected) {
+        int n = 0;
+        Incoming in;
+        while (n < TAKE_PER_CYCLE && waiting.size() + owed < AHEAD && (in = inbox.poll()) != null) {
+            inboxBytes.addAndGet(-in.bytes);
+            inboxCount.decrementAndGet();
+            n++;
+            if (in.busy) {
+                String name = topics.commandName(in.topic);
+                if (name != null) {
+                    busy++;
+                    respond(in.responseTopic, in.correlation, name, StationCommands.Reply.refused("BUSY",
+                            "more than " + BUSY_AT + " commands were waiting; this one was not acted on"), null);
+                }
+            } else {
+                onMessage(in.topic, in.payload, in.expiryS, in.responseTopic, in.correlation, status, connected);
+            }
+        }
+        return n;
     }
 
     /**
@@ -103,25 +167,10 @@ final class RemoteCommands {
      *
      * @param status the status message, for a status request
      */
-    void onMessage(String topic, byte[] payload, Long expiryS, String responseTopic, byte[] correlation,
+    private void onMessage(String topic, byte[] payload, Long expiryS, String responseTopic, byte[] correlation,
                    StatusMessage status, boolean connected) {
         String name = topics.commandName(topic);
         if (name == null) {
-            return;
-        }
-        received++;
-        int queued = waiting.size() + owed;
-        if (answerable(responseTopic) && queued >= BUSY_AT) {
-            String shown = name.length() > 64 ? name.substring(0, 64) : name;
-            if (queued >= CAPACITY) {
-                dropped++;
-                droppedCommands.warn(clock.nanoTime(), "dropped command {} unanswered: {} answers are waiting to be"
-                        + " sent ({} dropped since start)", shown, queued, dropped);
-                return;
-            }
-            busy++;
-            respond(responseTopic, correlation, name, StationCommands.Reply.refused("BUSY", queued
-                    + " answers are waiting to be sent; the command was not acted on"), null);
             return;
         }
         CommandParser.Result r = parser.parse(name, payload, expiryS);

@@ -196,12 +196,16 @@ public final class ResultPublisher implements Agent {
 
             @Override
             public void message(String topic, byte[] payload, Long expiryS, String responseTopic, byte[] correlation) {
+                if (topics.commandName(topic) != null) {
+                    commands.offer(topic, payload, expiryS, responseTopic, correlation);
+                    return;
+                }
                 signals.add(new Incoming(topic, payload, expiryS, responseTopic, correlation));
             }
         };
     }
 
-    /** Acts on up to {@value #SIGNALS_PER_CYCLE} reports, so answers go out between parts of a burst. */
+    /** Acts on up to {@value #SIGNALS_PER_CYCLE} reports, then takes up commands as answers go out. */
     private int drain(long now) {
         int work = 0;
         Signal s;
@@ -215,11 +219,10 @@ public final class ResultPublisher implements Agent {
                 if (ack.tag > 0 && !delivery.acknowledged(ack.tag, ack.ok)) {
                     drop(now, "broker refused a result: " + ack.detail);
                 }
-            } else if (s instanceof Incoming in && !seqCheck.onMessage(in.topic, in.payload)) {
-                commands.onMessage(in.topic, in.payload, in.expiryS, in.responseTopic,
-                        in.correlation, status, connection.connected());
+            } else if (s instanceof Incoming in) {
+                seqCheck.onMessage(in.topic, in.payload);
             }
         }
-        return work;
+        return work + commands.takeUp(status, connection.connected());
     }
 }

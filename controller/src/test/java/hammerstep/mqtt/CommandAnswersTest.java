@@ -118,45 +118,77 @@ class CommandAnswersTest {
         assertThat(f.waiting()).isZero();
     }
 
+    private void part(FakeLink l, int i, String serial) {
+        l.events.message(publisher.topics().prefix() + "cmd/part",
+                ("{\"serial\":\"" + serial + "\",\"model\":\"hub-5\"}").getBytes(StandardCharsets.UTF_8), 30L,
+                "qs/replies/qs/hub-fit-1", ("c" + i).getBytes(StandardCharsets.UTF_8));
+    }
+
     @Test
-    void aFullQueueAnswersBusyAndBeyondItsBoundDropsAndCountsInTheStatus() throws Exception {
+    void commandsAreTakenUpAtThePaceTheirAnswersGoOutAndAFullInboxAnswersBusy() throws Exception {
         cycles(3);
         FakeLink l = link();
         l.roomForResponses = 0;
-        int sent = RemoteCommands.CAPACITY + 300;
+        int sent = RemoteCommands.BUSY_AT + 300;
         for (int i = 0; i < sent; i++) {
-            l.events.message(publisher.topics().prefix() + "cmd/part",
-                    ("{\"serial\":\"P" + i + "\",\"model\":\"hub-5\"}").getBytes(StandardCharsets.UTF_8), 30L,
-                    "qs/replies/qs/hub-fit-1", ("c" + i).getBytes(StandardCharsets.UTF_8));
+            part(l, i, "P" + i);
         }
-        cycles(sent / 256 + 5);
+        cycles(20);
+        assertThat(station.started).as("taken up only while few answers wait").hasSize(RemoteCommands.AHEAD);
+        assertThat(publisher.commandFigures().waiting()).isEqualTo(sent);
+
+        for (int round = 0; round < 400; round++) {
+            l.roomForResponses = 20;
+            cycles(1);
+        }
         ResultPublisher.CommandFigures f = publisher.commandFigures();
         assertThat(f.received()).isEqualTo(sent);
-        assertThat(f.busy()).isEqualTo(RemoteCommands.CAPACITY - RemoteCommands.BUSY_AT);
-        assertThat(f.dropped()).isEqualTo(300);
-        assertThat(f.waiting()).isEqualTo(RemoteCommands.CAPACITY);
-        assertThat(station.started).as("only the commands answered other than BUSY were acted on")
-                .hasSize(RemoteCommands.BUSY_AT);
-        assertThat(logged.list).anySatisfy(e -> assertThat(e.getFormattedMessage()).contains("dropped command part"));
+        assertThat(f.answered()).isEqualTo(sent);
+        assertThat(f.busy()).isEqualTo(300);
+        assertThat(f.dropped()).isZero();
+        assertThat(f.waiting()).isZero();
+        assertThat(station.started).as("every command but the BUSY ones acted on").hasSize(RemoteCommands.BUSY_AT);
+        Map<String, String> codes = codesByCorrelation(l);
+        assertThat(codes).hasSize(sent);
+        assertThat(codes.get("c0")).isEqualTo("OK");
+        assertThat(codes.get("c" + (RemoteCommands.BUSY_AT - 1))).isEqualTo("OK");
+        assertThat(codes.get("c" + RemoteCommands.BUSY_AT)).isEqualTo("BUSY");
+    }
+
+    @Test
+    void beyondTheInboxBoundACommandIsDroppedLoggedAndCountedInTheStatus() throws Exception {
+        cycles(3);
+        FakeLink l = link();
+        l.roomForResponses = 0;
+        String big = "x".repeat(4000); // within the 4096-byte command limit
+        int sent = 1100;
+        for (int i = 0; i < sent; i++) {
+            part(l, i, big);
+        }
+        ResultPublisher.CommandFigures f = publisher.commandFigures();
+        long kept = sent - f.dropped();
+        assertThat(f.dropped()).as("4 MiB of inbox hold about a thousand such commands").isBetween(50L, 150L);
+        cycles(3);
+        assertThat(logged.list).anySatisfy(e -> assertThat(e.getFormattedMessage())
+                .contains("commands unanswered: the command inbox is full"));
 
         l.roomForResponses = Integer.MAX_VALUE;
+        for (int k = 0; k < 100; k++) {
+            cycles(1);
+        }
         nowNs += 61_000_000_000L; // the status interval: a status with the figures
         cycles(3);
-        Map<String, String> codes = codesByCorrelation(l);
-        assertThat(codes).hasSize(RemoteCommands.CAPACITY);
-        assertThat(codes.values().stream().filter("BUSY"::equals).count())
-                .isEqualTo(RemoteCommands.CAPACITY - RemoteCommands.BUSY_AT);
-        assertThat(codes.get("c0")).isEqualTo("OK");
-        assertThat(codes.get("c" + RemoteCommands.BUSY_AT)).isEqualTo("BUSY");
-        assertThat(codes).doesNotContainKey("c" + RemoteCommands.CAPACITY);
+        assertThat(codesByCorrelation(l)).hasSize((int) kept);
         List<FakeLink.Sent> statuses = l.on("/status");
         byte[] last = statuses.get(statuses.size() - 1).payload();
         MessageSchemas.assertValid(last);
         JsonNode commands = JSON.readTree(last).get("commands");
         assertThat(commands.get("received").asLong()).isEqualTo(sent);
-        assertThat(commands.get("busy").asLong()).isEqualTo(RemoteCommands.CAPACITY - RemoteCommands.BUSY_AT);
-        assertThat(commands.get("dropped").asLong()).isEqualTo(300);
-        assertThat(commands.get("answered").asLong()).isEqualTo(RemoteCommands.CAPACITY);
+        assertThat(commands.get("dropped").asLong()).isEqualTo(sent - kept);
+        assertThat(commands.get("answered").asLong()).isEqualTo(kept);
+        assertThat(commands.get("refused").asLong() + commands.get("busy").asLong())
+                .as("a 4000-character serial is invalid; those beyond the first thousand BUSY").isEqualTo(kept);
+        assertThat(commands.get("waiting").asLong()).isZero();
     }
 
     @Test
