@@ -54,7 +54,7 @@ final class RemoteCommands {
 
     private record Outgoing(String topic, byte[] payload, byte[] correlation) { }
 
-    /** Counts since start; {@code waiting} is the queue's length now. */
+    /** Counts since start; {@code waiting}: commands in the inbox and answers queued, now. */
     record Figures(long received, long answered, long refused, long busy, long dropped, int waiting) { }
 
     private final StationId station;
