@@ -84,6 +84,7 @@ final class ResultDelivery implements AutoCloseable {
             throw new UserError("storage: cannot store the alarm for results lost from " + storage.dir() + ": "
                     + e.getMessage(), 1);
         }
+        reportStorageAtStart(sink, outbox, storage);
         JournalWriter journal = new JournalWriter(sink, outbox, JournalWriter.DEFAULT_CAPACITY);
         ResultPublisher publisher = null;
         if (broker == null) {
@@ -97,6 +98,25 @@ final class ResultDelivery implements AutoCloseable {
                     settings.username() == null ? "" : " (user " + settings.username() + ")");
         }
         return new ResultDelivery(outbox, journal, publisher);
+    }
+
+    /** A store already LOW or FULL at start: one log line, and its event stored to go out when the broker is reached. */
+    private static void reportStorageAtStart(OutboxResultSink sink, Outbox outbox, StorageSettings storage) {
+        String where = storage == null ? "memory" : storage.dir().toString();
+        try {
+            ResultSink.Storage state = sink.reportStorageAtStart();
+            if (state == ResultSink.Storage.FULL) {
+                LOG.error("STORAGE_FULL at start: result storage in {} is full ({} results not yet delivered); no new"
+                        + " part starts until results are delivered; the alarm goes out when the broker is reached",
+                        where, outbox.backlog());
+            } else if (state == ResultSink.Storage.LOW) {
+                LOG.warn("STORAGE_LOW at start: result storage in {} is running low ({} results not yet delivered)",
+                        where, outbox.backlog());
+            }
+        } catch (ResultStoreException e) {
+            LOG.error("STORAGE_FULL at start: result storage in {} is full and cannot take its alarm: {}", where,
+                    e.getMessage());
+        }
     }
 
     /** Starts the journal writer's thread and the publisher's (when there is a broker); call once the station is wired. */

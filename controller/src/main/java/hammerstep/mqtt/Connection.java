@@ -11,7 +11,10 @@ import java.util.function.Supplier;
  * The publisher's connection and its backoff: connects a new {@link Link} when the next attempt is
  * due, and after a failure or a loss waits min · 2^(failures−1), capped at max, ±20 % jitter, so
  * stations do not reconnect in step. A link serves one connection; each connection has its
- * generation, so a loss reported late by an old link is ignored. Delivery thread only.
+ * generation, so a loss reported late by an old link is ignored. While the broker cannot be reached
+ * it logs one line per backoff period ({@code reconnect.max_ms}), not one per attempt: the first
+ * failure at once, then at most one line per period with the attempts made since and the results
+ * kept. Delivery thread only.
  */
 final class Connection {
 
@@ -25,6 +28,9 @@ final class Connection {
     private long generation;
     private long nextAttemptNs;
     private int failures;
+    private boolean unreachableLogged;
+    private long nextUnreachableLogNs;
+    private long attemptsSinceLog;
     private volatile boolean connected;
     private volatile long connects;
 
@@ -65,6 +71,12 @@ final class Connection {
      */
     int connect(long nowNs, Link.Will will, java.util.function.LongFunction<Link.Events> events,
                 String commandFilter) {
+        return connect(nowNs, will, events, commandFilter, -1);
+    }
+
+    /** As above; {@code backlog} (results kept, or -1 when unknown) goes into the unreachable line. */
+    int connect(long nowNs, Link.Will will, java.util.function.LongFunction<Link.Events> events,
+                String commandFilter, long backlog) {
         Link l = links.get();
         long gen = ++generation;
         try {
@@ -74,6 +86,11 @@ final class Connection {
             failures = 0;
             connected = true;
             connects++;
+            if (unreachableLogged && attemptsSinceLog > 0) {
+                LOG.info("broker {} reached after {} more failed attempts", settings.url(), attemptsSinceLog);
+            }
+            unreachableLogged = false;
+            attemptsSinceLog = 0;
             return receiveMax;
         } catch (IOException | RuntimeException e) {
             l.close();
@@ -82,8 +99,20 @@ final class Connection {
             failures++;
             long delayMs = backoffMs();
             nextAttemptNs = nowNs + delayMs * MS;
-            if (failures == 1 || failures % 10 == 0) {
-                LOG.warn("cannot reach broker {} ({}); trying again in {} ms", settings.url(), e.getMessage(), delayMs);
+            attemptsSinceLog++;
+            if (!unreachableLogged || nowNs - nextUnreachableLogNs >= 0) {
+                String kept = backlog < 0 ? "" : "; " + backlog + " results kept, measuring and storing go on";
+                if (!unreachableLogged) {
+                    LOG.warn("cannot reach broker {} ({}){}; trying again in {} ms, next line in {} s unless it"
+                            + " connects", settings.url(), e.getMessage(), kept, delayMs,
+                            settings.reconnectMaxMs() / 1000.0);
+                } else {
+                    LOG.warn("still cannot reach broker {} ({}): {} failed attempts since the last line{}",
+                            settings.url(), e.getMessage(), attemptsSinceLog, kept);
+                }
+                unreachableLogged = true;
+                attemptsSinceLog = 0;
+                nextUnreachableLogNs = nowNs + settings.reconnectMaxMs() * MS;
             }
             return -1;
         }

@@ -48,8 +48,13 @@ public interface Link {
      */
     boolean publish(String topic, byte[] payload, boolean retained, long tag) throws IOException;
 
-    /** Publishes a response at QoS 1 with the request's correlation data, without waiting. */
-    void respond(String topic, byte[] payload, byte[] correlation, long expiryS) throws IOException;
+    /**
+     * Publishes a response at QoS 1 with the request's correlation data, without waiting.
+     *
+     * @return false when the client has as many publishes in flight as the broker takes: nothing was
+     *         sent, try again after an acknowledgement
+     */
+    boolean respond(String topic, byte[] payload, byte[] correlation, long expiryS) throws IOException;
 
     /** Publishes retained at QoS 1 and waits up to {@code timeoutMs} for the acknowledgement. */
     void publishAndWait(String topic, byte[] payload, boolean retained, long timeoutMs) throws IOException;

@@ -33,6 +33,7 @@ public final class ResultPublisher implements Agent {
 
     private static final Logger LOG = LoggerFactory.getLogger(ResultPublisher.class);
     private static final long SEQ_CHECK_WAIT_NS = 3_000_000_000L;
+    private static final int SIGNALS_PER_CYCLE = 256;
 
     private sealed interface Signal { }
 
@@ -68,6 +69,7 @@ public final class ResultPublisher implements Agent {
         this.delivery = new DeliveryWindow(outbox, topics);
         this.status = new StatusMessage(outbox, station, commands, settings, wall, version);
         this.commands = new RemoteCommands(station, topics, commands, settings, clock, wall);
+        this.status.reportCommands(this.commands);
         this.seqCheck = new SeqCrossCheck(outbox, topics.status(), status.startedText(), SEQ_CHECK_WAIT_NS);
     }
 
@@ -134,6 +136,15 @@ public final class ResultPublisher implements Agent {
                 delivery.refused(), connection.connects(), commands.refused(), outbox.backlog());
     }
 
+    /** The plant's commands since start: received, answered, refused, answered BUSY, dropped, answers waiting. */
+    public CommandFigures commandFigures() {
+        RemoteCommands.Figures f = commands.figures();
+        return new CommandFigures(f.received(), f.answered(), f.refused(), f.busy(), f.dropped(), f.waiting());
+    }
+
+    /** See {@link #commandFigures()}; {@code waiting} is the number of answers queued now. */
+    public record CommandFigures(long received, long answered, long refused, long busy, long dropped, int waiting) { }
+
     public Topics topics() {
         return topics;
     }
@@ -141,8 +152,8 @@ public final class ResultPublisher implements Agent {
     // ---- the jobs, on this thread ----------------------------------------------------------------
 
     private void connect(long now) {
-        int receiveMax = connection.connect(now, new Link.Will(topics.status(), status.bytes("offline")),
-                this::events, topics.commands());
+        int receiveMax = connection.connect(now, new Link.Will(topics.status(), status.willBytes()),
+                this::events, topics.commands(), outbox.backlog());
         if (receiveMax < 0) {
             return;
         }
@@ -190,15 +201,20 @@ public final class ResultPublisher implements Agent {
 
             @Override
             public void message(String topic, byte[] payload, Long expiryS, String responseTopic, byte[] correlation) {
+                if (topics.commandName(topic) != null) {
+                    commands.offer(topic, payload, expiryS, responseTopic, correlation);
+                    return;
+                }
                 signals.add(new Incoming(topic, payload, expiryS, responseTopic, correlation));
             }
         };
     }
 
+    /** Acts on up to {@value #SIGNALS_PER_CYCLE} reports, then takes up commands as answers go out. */
     private int drain(long now) {
         int work = 0;
         Signal s;
-        while ((s = signals.poll()) != null) {
+        while (work < SIGNALS_PER_CYCLE && (s = signals.poll()) != null) {
             work++;
             if (s instanceof Lost lost) {
                 if (lost.generation == connection.generation()) {
@@ -208,11 +224,10 @@ public final class ResultPublisher implements Agent {
                 if (ack.tag > 0 && !delivery.acknowledged(ack.tag, ack.ok)) {
                     drop(now, "broker refused a result: " + ack.detail);
                 }
-            } else if (s instanceof Incoming in && !seqCheck.onMessage(in.topic, in.payload)) {
-                commands.onMessage(connection.link(), in.topic, in.payload, in.expiryS, in.responseTopic,
-                        in.correlation, status, connection.connected());
+            } else if (s instanceof Incoming in) {
+                seqCheck.onMessage(in.topic, in.payload);
             }
         }
-        return work;
+        return work + commands.takeUp(status, connection.connected());
     }
 }

@@ -102,7 +102,9 @@ public final class SeqCrossCheck {
         }
         long[] last = new long[MessageKind.values().length];
         for (MessageKind k : MessageKind.values()) {
-            last[k.ordinal()] = status.path("last_seq").path(k.topic()).asLong(0);
+            // a Last Will carries the seqs given before its connection instead of last_seq
+            JsonNode seqs = status.has("last_seq") ? status.path("last_seq") : status.path("last_seq_at_connect");
+            last[k.ordinal()] = seqs.path(k.topic()).asLong(0);
         }
         try {
             List<Outbox.Loss> found = outbox.raiseSeqs(last, SeqCrossCheck::restamp);

@@ -39,6 +39,7 @@ final class StatusMessage {
     private long statusSeq;
     private long nextStatusNs;
     private ResultSink.Storage lastStorage;
+    private RemoteCommands remote;
 
     StatusMessage(Outbox outbox, StationId station, StationCommands commands, BrokerSettings settings, Clock wall,
                   String version) {
@@ -65,8 +66,38 @@ final class StatusMessage {
         }
     }
 
+    /** The command figures to report from now on. */
+    void reportCommands(RemoteCommands commands) {
+        this.remote = commands;
+    }
+
     byte[] bytes(String state) {
         return ResultMessages.bytes(fields(state));
+    }
+
+    /**
+     * The Last Will for a connection made now: offline, with this run's {@code started} and
+     * {@code version}, and without the figures of the moment ({@code storage}, {@code backlog},
+     * {@code last_seq}, ...), which would be stale when the broker publishes it. It carries
+     * {@code last_seq_at_connect} instead: the seqs given before this connection, a floor for the
+     * station's own cross check after a power cut, not a subscriber's tail check.
+     */
+    byte[] willBytes() {
+        Map<String, Object> m = ResultMessages.head("hammerstep.status.v1", UUID.randomUUID().toString(), ++statusSeq,
+                station, wall.instant());
+        m.put("state", "offline");
+        m.put("started", ResultMessages.time(started));
+        m.put("version", version);
+        m.put("last_seq_at_connect", lastSeq());
+        return ResultMessages.bytes(m);
+    }
+
+    private Map<String, Object> lastSeq() {
+        Map<String, Object> last = new LinkedHashMap<>();
+        for (MessageKind k : MessageKind.values()) {
+            last.put(k.topic(), outbox.nextSeq(k) - 1);
+        }
+        return last;
     }
 
     Map<String, Object> fields(String state) {
@@ -77,11 +108,7 @@ final class StatusMessage {
         m.put("version", version);
         m.put("storage", outbox.storage().name());
         m.put("backlog", outbox.backlog());
-        Map<String, Object> last = new LinkedHashMap<>();
-        for (MessageKind k : MessageKind.values()) {
-            last.put(k.topic(), outbox.nextSeq(k) - 1);
-        }
-        m.put("last_seq", last);
+        m.put("last_seq", lastSeq());
         List<Outbox.Loss> lost = outbox.losses();
         if (!lost.isEmpty()) {
             m.put("lost", SeqCrossCheck.lostField(lost));
@@ -107,6 +134,18 @@ final class StatusMessage {
             g.put("outside_rundowns", gaps.outsideRundowns());
             g.put("during_rundowns", gaps.duringRundowns());
             m.put("data_gaps", g);
+        }
+        RemoteCommands r = remote;
+        if (r != null) {
+            RemoteCommands.Figures f = r.figures();
+            Map<String, Object> c = new LinkedHashMap<>();
+            c.put("received", f.received());
+            c.put("answered", f.answered());
+            c.put("refused", f.refused());
+            c.put("busy", f.busy());
+            c.put("dropped", f.dropped());
+            c.put("waiting", f.waiting());
+            m.put("commands", c);
         }
         return m;
     }

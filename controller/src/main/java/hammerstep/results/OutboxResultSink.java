@@ -119,6 +119,31 @@ public final class OutboxResultSink implements ResultSink {
         return outbox.backlog();
     }
 
+    /**
+     * At start: when the store is already LOW or FULL, records its {@code STORAGE_LOW} warning or
+     * {@code STORAGE_FULL} alarm now (it goes out when the broker is reached), as it would have been
+     * recorded had the store filled in service. Call once, before the first result of the run.
+     * Appender thread.
+     *
+     * @return the store's state
+     */
+    public Storage reportStorageAtStart() throws ResultStoreException {
+        Storage now = outbox.storage();
+        if (now != Storage.OK && lastStorage == Storage.OK) {
+            lastStorage = now;
+            if (now == Storage.FULL) {
+                store(new StationEvent(StationEvent.Severity.ALARM, "STORAGE_FULL",
+                        "result storage is full at start: no new part can start until results are delivered",
+                        null, clock.instant()));
+            } else {
+                store(new StationEvent(StationEvent.Severity.WARNING, "STORAGE_LOW",
+                        "result storage is running low at start; results are kept, clear space or restore the network",
+                        null, clock.instant()));
+            }
+        }
+        return now;
+    }
+
     private Receipt store(StationEvent event) throws ResultStoreException {
         String id = ids.get();
         long seq = outbox.nextSeq(MessageKind.EVENT);

@@ -106,6 +106,28 @@ class RunDeliveryTest {
     }
 
     @Test
+    void aStoreFullAtStartIsLoggedAndItsAlarmStoredToGoOutWhenTheBrokerIsReached() throws Exception {
+        // more free room asked for (1 TB) than the test machine has: the store is FULL from the start
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.getFileStore(dir).getUsableSpace() < (1L << 40),
+                "this machine has a terabyte free");
+        Path file = station(dir, "");
+        Files.writeString(file, Files.readString(file).replace("dir: outbox",
+                "dir: outbox\n  low_free_mb: 1000000\n  min_free_mb: 1000000"));
+
+        Captured run = Captured.run("run", "--config", file.toString(), "--hardware", "mock", "--exit-after", "0.5");
+
+        assertThat(run.exit()).as(run.err()).isZero();
+        assertThat(logText()).contains("STORAGE_FULL at start").contains("no new part starts");
+        try (hammerstep.results.journal.FileOutbox box = hammerstep.results.journal.FileOutbox.open(
+                new hammerstep.results.StorageSettings(dir.resolve("outbox"), 1 << 20, 1 << 20, 1L << 30, 0, 0))) {
+            List<String> pending = box.pending(0, 100).stream()
+                    .map(e -> new String(e.payload(), java.nio.charset.StandardCharsets.UTF_8)).toList();
+            assertThat(pending).anySatisfy(p -> assertThat(p).contains("\"code\":\"STORAGE_FULL\"")
+                    .contains("\"severity\":\"ALARM\"").contains("full at start"));
+        }
+    }
+
+    @Test
     void aStorageFolderThatIsAFileIsRefusedAtStartWithItsLineAndExitTwo() throws Exception {
         // as check refuses it (StartRefusalTest has every such fault)
         Files.writeString(dir.resolve("outbox"), "a file where the folder should be");

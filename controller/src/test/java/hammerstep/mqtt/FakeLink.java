@@ -17,6 +17,8 @@ final class FakeLink implements Link {
     /** A subscription the broker refuses (an ACL without read on the topic). */
     String refuseSubscription;
     int receiveMaximum = 10;
+    /** How many more responses the client takes now (a full in-flight window at 0). */
+    int roomForResponses = Integer.MAX_VALUE;
     Events events;
     Will will;
     final List<String> subscriptions = new ArrayList<>();
@@ -61,8 +63,13 @@ final class FakeLink implements Link {
     }
 
     @Override
-    public void respond(String topic, byte[] payload, byte[] correlation, long expiryS) {
+    public boolean respond(String topic, byte[] payload, byte[] correlation, long expiryS) {
+        if (roomForResponses == 0) {
+            return false;
+        }
+        roomForResponses--;
         sent.add(new Sent(topic, payload, false, 0, correlation));
+        return true;
     }
 
     @Override

@@ -63,6 +63,9 @@ import java.util.concurrent.TimeUnit;
  * station's figure must not carry the force. {@code journal=file-inline} is the former wiring, for
  * comparison: the same file journal stored inline, the forced append on the station thread.
  *
+ * <p>{@code commands=burst} runs the same with the delivery side answering a flood of commands
+ * on a thread of its own (see {@link CommandFlood}).
+ *
  * <p>Run: {@code mvn -q -Pbench -DskipTests package -pl controller && java -jar controller/target/benchmarks.jar ShutoffLatency}
  */
 @State(Scope.Thread)
@@ -81,6 +84,15 @@ public class ShutoffLatencyBenchmark {
 
     @Param({"memory", "file", "file-inline"})
     String journal;
+
+    /**
+     * {@code none}, or {@code burst}: meanwhile the delivery side answers a flood of plant commands
+     * on its own thread, as under a command burst ({@link CommandFlood}).
+     */
+    @Param({"none"})
+    String commands;
+
+    private CommandFlood flood;
 
     private VirtualClock clock;
     private SampleRing ring;
@@ -196,8 +208,19 @@ public class ShutoffLatencyBenchmark {
         blockNs = (long) (blockLength * 1e9 / rateHz);
     }
 
+    @Setup(Level.Trial)
+    public void startFlood() {
+        if (commands.equals("burst")) {
+            flood = CommandFlood.start();
+        }
+    }
+
     @TearDown(Level.Trial)
     public void close() throws IOException {
+        if (flood != null) {
+            long answered = flood.stop();
+            System.out.println("command flood: " + answered + " commands answered during the trial");
+        }
         if (writerRunner != null) {
             writerRunner.close();
         }

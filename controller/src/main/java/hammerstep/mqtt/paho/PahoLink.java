@@ -28,6 +28,12 @@ import java.util.Arrays;
  */
 public final class PahoLink implements Link {
 
+    /**
+     * The Last Will's delay (MQTT 5.0 §3.1.3.2.2): the broker publishes it only when the station has
+     * not connected again within this time, so a reconnect after a broker restart or a short
+     * network loss sends no "offline" at all.
+     */
+    static final long WILL_DELAY_S = 5;
 
     private final BrokerSettings settings;
     private final Tls tls;
@@ -58,6 +64,9 @@ public final class PahoLink implements Link {
             w.setQos(1);
             w.setRetained(true);
             o.setWill(will.topic(), w);
+            MqttProperties willProps = new MqttProperties();
+            willProps.setWillDelayInterval(Math.min(WILL_DELAY_S, settings.sessionExpiryS()));
+            o.setWillMessageProperties(willProps);
             if (settings.username() != null) {
                 o.setUserName(settings.username());
             }
@@ -181,7 +190,7 @@ public final class PahoLink implements Link {
     }
 
     @Override
-    public void respond(String topic, byte[] payload, byte[] correlation, long expiryS) throws IOException {
+    public boolean respond(String topic, byte[] payload, byte[] correlation, long expiryS) throws IOException {
         MqttMessage m = new MqttMessage(payload);
         m.setQos(1);
         MqttProperties p = new MqttProperties();
@@ -190,9 +199,7 @@ public final class PahoLink implements Link {
         }
         p.setMessageExpiryInterval(expiryS);
         m.setProperties(p);
-        if (!send(topic, m, 0)) {
-            throw new IOException("too many publishes in flight to send the response now");
-        }
+        return send(topic, m, 0);
     }
 
     @Override

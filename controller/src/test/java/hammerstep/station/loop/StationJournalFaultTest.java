@@ -165,6 +165,28 @@ class StationJournalFaultTest {
     }
 
     @Test
+    void aStoreFullAtStartRefusesTheFirstPartAsWhenItFillsInService() throws Exception {
+        freeBytes.set(50); // the volume was full before the station started
+        try (FileOutbox box = openJournal()) {
+            new hammerstep.results.OutboxResultSink(box, new hammerstep.results.StationId("s", "l", "st"))
+                    .reportStorageAtStart(); // as the service does when it opens the journal
+            start(box);
+            station.scanner.queue.add(new PartIdentity("SN-30", "M"));
+            for (int k = 0; k < 20; k++) {
+                station.cycle();
+            }
+            assertThat(station.agent.sequence().phase()).as("no part starts on a full store").isEqualTo(Phase.WAITING);
+            assertThat(station.agent.sequence().part()).isNull();
+            assertThat(station.tool.enabled).isFalse();
+            assertThat(station.agent.sequence().tower(TowerLamp.WHITE)).isEqualTo(LampMode.OFF);
+            assertThat(station.agent.sequence().tower(TowerLamp.YELLOW)).isEqualTo(LampMode.BLINKING);
+            List<String> stored = payloads(box);
+            assertThat(stored).hasSize(1);
+            assertThat(stored.get(0)).contains("\"STORAGE_FULL\"").contains("ALARM").contains("full at start");
+        }
+    }
+
+    @Test
     void aStoreThatFailsStopsTheToolKeepsTheVerdictBackAndStoresItOnTheKey() throws Exception {
         FailingOutbox box = new FailingOutbox();
         start(box);

@@ -47,7 +47,11 @@ class MosquittoTlsIT {
     private static final String PREFIX = "hammerstep/v1/harrow-bend/skid-1/flange-2/";
     private static final String STATION_PW = "Fl2-station-Pw-5521";
     private static final String QS_PW = "qs-Pw-7730";
-    private static final String INTRUDER_PW = "intruder-Pw-0815";
+    private static final String VIEWER_PW = "viewer-Pw-0815";
+    private static final String OTHER_STATION_PW = "Fl3-station-Pw-3141";
+    private static final String QS2_PW = "qs2-Pw-2718";
+    /** Where the quality system {@code qs} asks flange-2 to reply (docs/security.md). */
+    private static final String QS_REPLIES = "qs/replies/qs/flange-2";
     private static final String WRONG_PW = "not-the-Pw-9999";
 
     @TempDir
@@ -67,7 +71,7 @@ class MosquittoTlsIT {
                 "-keyout", "ca.key", "-out", "ca.pem", "-days", "2", "-subj", "/CN=hammerstep test plant CA");
         Files.writeString(pki.resolve("broker.ext"), "subjectAltName=IP:127.0.0.1,DNS:localhost\n");
         issue("broker", "localhost", "broker.ext");
-        for (String client : List.of("flange-2", "qs", "intruder")) {
+        for (String client : List.of("flange-2", "flange-3", "qs", "qs-2", "viewer")) {
             issue(client, client, null);
         }
         Path brokerDir = Files.createDirectories(dir.resolve("broker"));
@@ -75,12 +79,15 @@ class MosquittoTlsIT {
         assumeTrue(run("mosquitto_passwd", "-b", "-c", passwd.toString(), "flange-2", STATION_PW) == 0,
                 "mosquitto_passwd is not available");
         sh("mosquitto_passwd", "-b", passwd.toString(), "qs", QS_PW);
-        sh("mosquitto_passwd", "-b", passwd.toString(), "intruder", INTRUDER_PW);
+        sh("mosquitto_passwd", "-b", passwd.toString(), "qs-2", QS2_PW);
+        sh("mosquitto_passwd", "-b", passwd.toString(), "viewer", VIEWER_PW);
+        sh("mosquitto_passwd", "-b", passwd.toString(), "flange-3", OTHER_STATION_PW);
         Path acl = brokerDir.resolve("hammerstep.acl");
         Files.writeString(acl, documentedAcl());
         broker = new Mosquitto(brokerDir, "cafile " + pki.resolve("ca.pem") + "\ncertfile " + pki.resolve("broker.pem")
                 + "\nkeyfile " + pki.resolve("broker.key") + "\nrequire_certificate true\ntls_version tlsv1.2\n"
-                + "allow_anonymous false\npassword_file " + passwd + "\nacl_file " + acl + "\n");
+                + documentedListenerBinding() + "allow_anonymous false\npassword_file " + passwd + "\nacl_file " + acl
+                + "\n");
         broker.start();
         root = (Logger) LoggerFactory.getLogger(org.slf4j.Logger.ROOT_LOGGER_NAME);
         logged.start();
@@ -97,13 +104,29 @@ class MosquittoTlsIT {
         }
     }
 
-    /** The ACL block of docs/security.md, as a plant would copy it. */
+    /**
+     * The ACL block of docs/security.md, as a plant would copy it. {@code -Dhammerstep.security.doc=FILE}
+     * reads another version of the page instead, to show that these tests fail with a weaker ACL.
+     */
     static String documentedAcl() throws IOException {
-        String doc = Files.readString(Path.of("../docs/security.md"));
+        String doc = Files.readString(securityDoc());
         int at = doc.indexOf("# /etc/mosquitto/hammerstep.acl");
         assertThat(at).as("docs/security.md shows the ACL file").isPositive();
         int end = doc.indexOf("```", at);
         return doc.substring(doc.indexOf('\n', at) + 1, end);
+    }
+
+    /** The line of docs/security.md's listener that binds client ids to accounts. */
+    static String documentedListenerBinding() throws IOException {
+        String doc = Files.readString(securityDoc());
+        int at = doc.indexOf("# /etc/mosquitto/conf.d/hammerstep.conf");
+        String conf = doc.substring(at, doc.indexOf("```", at));
+        String line = "use_username_as_clientid true";
+        return conf.contains(line) ? line + "\n" : "";
+    }
+
+    private static Path securityDoc() {
+        return Path.of(System.getProperty("hammerstep.security.doc", "../docs/security.md"));
     }
 
     private void issue(String name, String cn, String ext) throws Exception {
@@ -140,7 +163,7 @@ class MosquittoTlsIT {
 
     /** TLS settings for {@code user} with its own client certificate; {@code ca} is the trusted CA file. */
     private BrokerSettings account(String clientId, String user, String password, Path ca) throws IOException {
-        return new BrokerSettings(broker.sslUrl(), clientId, user, secret(clientId, password), ca,
+        return new BrokerSettings(broker.sslUrl(), clientId, user, secret(user + "-as-" + clientId, password), ca,
                 pki.resolve(user + ".pem"), pki.resolve(user + ".key"), 10, 5, 100, 500, 600, 300, 60, 32);
     }
 
@@ -184,7 +207,9 @@ class MosquittoTlsIT {
         try (QualityClient qs = QualityClient.connect(account("qs-tls", "qs", QS_PW, pki.resolve("ca.pem")), got::add);
              Station station = new Station(account("flange-2", "flange-2", STATION_PW, pki.resolve("ca.pem")),
                      StationCommands.NONE)) {
-            qs.subscribe("hammerstep/v1/#");
+            for (String kind : List.of("joint", "status")) {
+                qs.subscribe("hammerstep/v1/+/+/+/" + kind);
+            }
             for (int i = 1; i <= 5; i++) {
                 station.sink.joint(TestResults.joint(i));
             }
@@ -226,40 +251,101 @@ class MosquittoTlsIT {
     }
 
     @Test
-    void theDocumentedAclLetsTheStationAndTheQualitySystemWorkAndKeepsOthersOffTheirTopics() throws Exception {
+    void theStationAndTheQualitySystemWorkAndNoOtherAccountSpeaksInTheStationsName() throws Exception {
         hammerstep.mqtt.RecordingStation commands = new hammerstep.mqtt.RecordingStation();
         Received got = new Received();
         Path ca = pki.resolve("ca.pem");
         try (QualityClient qs = QualityClient.connect(account("qs-acl", "qs", QS_PW, ca), got::add);
              Station station = new Station(account("flange-2", "flange-2", STATION_PW, ca), commands);
-             QualityClient intruder = QualityClient.connect(account("intruder-1", "intruder", INTRUDER_PW, ca),
+             QualityClient viewer = QualityClient.connect(account("dash-1", "viewer", VIEWER_PW, ca),
                      (t, pl, r, c) -> { });
-             QualityClient sameUser = QualityClient.connect(account("flange-2-probe", "flange-2", STATION_PW, ca),
+             QualityClient otherStation = QualityClient.connect(account("flange-3", "flange-3", OTHER_STATION_PW, ca),
                      (t, pl, r, c) -> { })) {
-            qs.subscribe("hammerstep/v1/#");
-            qs.subscribe("qs/replies/#");
+            for (String kind : List.of("joint", "part", "event", "status")) {
+                qs.subscribe("hammerstep/v1/+/+/+/" + kind);
+            }
+            qs.subscribe("qs/replies/qs/#");
             Received.await("station connected", WAIT, () -> station.publisher.figures().connected());
 
-            publishQuietly(intruder, PREFIX + "cmd/part", "{\"serial\":\"EVIL-1\",\"model\":\"PS-40D\"}", "qs/replies/evil");
-            publishQuietly(intruder, PREFIX + "joint", "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"forged\"}", null);
-            publishQuietly(sameUser, "hammerstep/v1/harrow-bend/skid-1/flange-3/cmd/part",
-                    "{\"serial\":\"EVIL-2\",\"model\":\"PS-40D\"}", "qs/replies/evil2");
-            publishQuietly(sameUser, "hammerstep/v1/harrow-bend/skid-1/flange-3/joint",
-                    "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"forged-2\"}", null);
+            for (QualityClient forger : List.of(viewer, otherStation)) {
+                publishQuietly(forger, PREFIX + "cmd/part", "{\"serial\":\"EVIL-1\",\"model\":\"PS-40D\"}",
+                        "qs/replies/viewer/flange-2");
+                for (String kind : List.of("joint", "part", "event", "status")) {
+                    publishQuietly(forger, PREFIX + kind, "{\"schema\":\"hammerstep." + kind
+                            + ".v1\",\"id\":\"forged\",\"state\":\"offline\"}", null);
+                }
+                publishQuietly(forger, QS_REPLIES, "{\"ok\":true,\"code\":\"OK\",\"message\":\"forged\"}", null);
+            }
+            publishQuietly(otherStation, "hammerstep/v1/harrow-bend/skid-1/flange-3/joint",
+                    "{\"schema\":\"hammerstep.joint.v1\",\"id\":\"own-name\"}", null);
             qs.publish(PREFIX + "cmd/part", "{\"serial\":\"PS40D-1\",\"model\":\"PS-40D\"}".getBytes(StandardCharsets.UTF_8),
-                    30L, "qs/replies/ok", "c".getBytes(StandardCharsets.UTF_8));
+                    30L, QS_REPLIES, "c".getBytes(StandardCharsets.UTF_8));
             station.sink.joint(TestResults.joint(1));
 
-            Received.await("the quality system's command answered", WAIT, () -> !got.on("/replies/ok").isEmpty());
+            Received.await("the quality system's command answered", WAIT, () -> !got.on(QS_REPLIES).isEmpty());
             Received.await("the station's joint", WAIT, () -> !got.on(PREFIX + "joint").isEmpty());
-            assertThat(got.on("/replies/ok").get(0).json().get("ok").asBoolean()).isTrue();
-            // the forged messages were published before the ones that arrived; give stragglers a moment anyway
-            Thread.sleep(500);
+            Received.await("flange-3's joint under its own name (the broker passed everything before it)", WAIT,
+                    () -> !got.on("flange-3/joint").isEmpty());
+            Thread.sleep(300); // stragglers, if the broker let any forgery through
+            assertThat(got.on(QS_REPLIES)).hasSize(1);
+            assertThat(got.on(QS_REPLIES).get(0).json().get("ok").asBoolean()).isTrue();
+            assertThat(new String(got.on(QS_REPLIES).get(0).correlation(), StandardCharsets.UTF_8)).isEqualTo("c");
             assertThat(commands.started).containsExactly("PS40D-1/PS-40D");
+            assertThat(got.on(PREFIX + "joint")).hasSize(1);
             assertThat(got.all).noneSatisfy(m -> assertThat(new String(m.payload(), StandardCharsets.UTF_8))
                     .containsAnyOf("forged", "EVIL"));
-            assertThat(got.on("/replies/evil")).isEmpty();
-            assertThat(got.on("/replies/evil2")).isEmpty();
+        }
+    }
+
+    @Test
+    void anotherAccountConnectingWithTheStationsClientIdDoesNotKnockTheStationOff() throws Exception {
+        Received got = new Received();
+        Path ca = pki.resolve("ca.pem");
+        try (QualityClient qs = QualityClient.connect(account("qs-watch", "qs", QS_PW, ca), got::add);
+             Station station = new Station(account("flange-2", "flange-2", STATION_PW, ca), StationCommands.NONE)) {
+            qs.subscribe(PREFIX + "status");
+            Received.await("the station online", WAIT, () -> got.on(PREFIX + "status").stream()
+                    .anyMatch(m -> m.json().get("state").asText().equals("online")));
+            for (int i = 0; i < 5; i++) {
+                try (QualityClient thief = QualityClient.connect(account("flange-2", "viewer", VIEWER_PW, ca),
+                        (t, pl, r, c) -> { })) {
+                    thief.subscribe(PREFIX + "status");
+                    Thread.sleep(400);
+                }
+            }
+            station.sink.joint(TestResults.joint(1));
+            Received.await("backlog drained", WAIT, () -> station.outbox.backlog() == 0);
+            assertThat(station.publisher.figures().connects()).as("station connections").isEqualTo(1);
+            assertThat(got.on(PREFIX + "status")).noneSatisfy(m -> assertThat(m.json().get("state").asText())
+                    .isEqualTo("offline"));
+        }
+    }
+
+    @Test
+    void aQualitySystemReadsNoRepliesMeantForAnother() throws Exception {
+        Received mine = new Received();
+        Received theirs = new Received();
+        Path ca = pki.resolve("ca.pem");
+        try (QualityClient qs = QualityClient.connect(account("qs-a", "qs", QS_PW, ca), mine::add);
+             QualityClient qs2 = QualityClient.connect(account("qs-b", "qs-2", QS2_PW, ca), theirs::add);
+             Station station = new Station(account("flange-2", "flange-2", STATION_PW, ca), StationCommands.NONE)) {
+            qs.subscribe("qs/replies/qs/#");
+            for (String filter : List.of("#", "qs/replies/#", QS_REPLIES)) {
+                try {
+                    qs2.subscribe(filter);
+                } catch (IOException refused) {
+                    // a refused subscription is as good as an empty one
+                }
+            }
+            Received.await("station connected", WAIT, () -> station.publisher.figures().connected());
+            qs.publish(PREFIX + "cmd/status", new byte[0], null, QS_REPLIES, "mine".getBytes(StandardCharsets.UTF_8));
+            Received.await("the reply for qs", WAIT, () -> !mine.on(QS_REPLIES).isEmpty());
+            qs2.publish(PREFIX + "cmd/status", new byte[0], null, "qs/replies/qs-2/flange-2",
+                    "theirs".getBytes(StandardCharsets.UTF_8));
+            Received.await("qs-2's own reply (after the one for qs)", WAIT,
+                    () -> !theirs.on("qs/replies/qs-2/flange-2").isEmpty());
+            assertThat(theirs.all).noneSatisfy(m -> assertThat(m.topic()).startsWith("qs/replies/qs/"));
+            assertThat(mine.on(QS_REPLIES).get(0).json().get("code").asText()).isEqualTo("OK");
         }
     }
 
@@ -281,7 +367,7 @@ class MosquittoTlsIT {
         Received got = new Received();
         int[] exit = {-1};
         try (QualityClient qs = QualityClient.connect(account("qs-run", "qs", QS_PW, pki.resolve("ca.pem")), got::add)) {
-            qs.subscribe("qs/replies/#");
+            qs.subscribe("qs/replies/qs/#");
             qs.subscribe(PREFIX + "status");
             Thread service = new Thread(() -> {
                 java.io.InputStream saved = System.in;
@@ -297,9 +383,9 @@ class MosquittoTlsIT {
             Received.await("the service online over TLS", WAIT, () -> got.on(PREFIX + "status").stream()
                     .anyMatch(m -> m.json().get("state").asText().equals("online")));
             qs.publish(PREFIX + "cmd/part", "{\"serial\":\"HX-7001\",\"model\":\"HX-220\"}"
-                    .getBytes(StandardCharsets.UTF_8), 30L, "qs/replies/run", "r".getBytes(StandardCharsets.UTF_8));
-            Received.await("the service's answer", WAIT, () -> !got.on("/replies/run").isEmpty());
-            assertThat(got.on("/replies/run").get(0).json().get("message").asText())
+                    .getBytes(StandardCharsets.UTF_8), 30L, QS_REPLIES, "r".getBytes(StandardCharsets.UTF_8));
+            Received.await("the service's answer", WAIT, () -> !got.on(QS_REPLIES).isEmpty());
+            assertThat(got.on(QS_REPLIES).get(0).json().get("message").asText())
                     .isEqualTo("part HX-7001 started: pattern hub-5");
             service.join(WAIT.toMillis());
             assertThat(exit[0]).isZero();
