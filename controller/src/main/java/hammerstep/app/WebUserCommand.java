@@ -16,8 +16,8 @@ import java.util.concurrent.Callable;
 
 /** {@code hammerstep web-user}: one line of the web view's users file, with the password hashed. */
 @Command(name = "web-user", mixinStandardHelpOptions = true,
-        description = {"Prints one line for the web view's users file (the station file's web.users_file):",
-                "NAME, its role and a PBKDF2-HMAC-SHA256 hash of the password with a fresh salt; the password itself",
+        description = {"Prints one line for the web view's users file (the station file's web.users_file).",
+                "The line holds NAME, its role and a PBKDF2-HMAC-SHA256 hash of the password with a fresh salt; the password itself",
                 "is never written. Asks for the password twice on a terminal, or reads one line from standard input.",
                 "Example: hammerstep web-user ana --role engineer >> /etc/hammerstep/web.users"})
 public final class WebUserCommand implements Callable<Integer> {

@@ -289,9 +289,9 @@ class BadInputCatalogueTest {
         c.add(bad("stats: limits.blows.max 1e10", d + "limit-blows-huge.jsonl:1: limits.blows: 'max' is 1.0E10", "stats", d + "limit-blows-huge.jsonl"));
         c.add(bad("stats: final torque 1e30", d + "torque-absurd.jsonl:1: 'final_torque_nm' 1.0E30 N·m is beyond any torque transducer's range", "stats", d + "torque-absurd.jsonl"));
         c.add(bad("stats: torque limit -1e300", d + "limit-absurd.jsonl:1: limits.torque_nm: 'min' -1.0E300 N·m is beyond", "stats", d + "limit-absurd.jsonl"));
-        c.add(bad("stats: JSON nested 1500 deep", d + "nested.jsonl:1: not a JSON object: ", "stats", d + "nested.jsonl"));
-        c.add(bad("stats: not JSON", d + "not-json.jsonl:1: not a JSON object", "stats", d + "not-json.jsonl"));
-        c.add(bad("stats: a JSON array", d + "array.jsonl:1: expected a JSON object, got ARRAY", "stats", d + "array.jsonl"));
+        c.add(bad("stats: JSON nested 1500 deep (a line that is no message: skipped, and then no joint result)", d + "nested.jsonl: no joint results (1 line that is no message, skipped (first: line 1))", "stats", d + "nested.jsonl"));
+        c.add(bad("stats: not JSON (a line that is no message: skipped, and then no joint result)", d + "not-json.jsonl: no joint results (1 line that is no message, skipped (first: line 1))", "stats", d + "not-json.jsonl"));
+        c.add(bad("stats: a JSON array (a line that is no message: skipped, and then no joint result)", d + "array.jsonl: no joint results (1 line that is no message, skipped (first: line 1))", "stats", d + "array.jsonl"));
         c.add(bad("stats: a joint without program", d + "no-program.jsonl:1: joint result without 'program'", "stats", d + "no-program.jsonl"));
         c.add(bad("stats: a joint without limits", d + "no-limits.jsonl:1: joint result without 'limits'", "stats", d + "no-limits.jsonl"));
         c.add(bad("stats: final torque as text", d + "torque-text.jsonl:1: 'final_torque_nm' must be a number", "stats", d + "torque-text.jsonl"));

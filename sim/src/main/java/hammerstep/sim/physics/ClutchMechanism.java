@@ -50,6 +50,16 @@ abstract sealed class ClutchMechanism extends Mechanism
         return new TwinPinOilBathMechanism((ClutchSpec.TwinPinOilBath) spec, drive, trainStiffness, dampingRatio);
     }
 
+    /**
+     * One pitch at the drive's free speed: after a strike the parts come in again only for the jaw one
+     * pitch on, and the hammer turns no faster than its free speed, so any contact sooner is the same
+     * strike's rebound.
+     */
+    @Override
+    double recontactS() {
+        return pitch / drive.freeShaftSpeedRadS();
+    }
+
     /** The engaging parts in parallel, in series with the train: the stiffness a strike meets, N·m/rad. */
     static double contactInSeries(ClutchSpec spec, double trainStiffness) {
         double parts = spec.engaging() * spec.partStiffnessNmPerRad();
