@@ -565,7 +565,7 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
     }
 
     /** The part named (by the plant or the scanner) that waits for the fixture, or null. */
-    PartIdentity queuedPart() {
+    public PartIdentity queuedPart() {
         return waitingIdentity;
     }
 

@@ -8,6 +8,7 @@ import hammerstep.sim.station.SimulatedStation;
 import hammerstep.sim.station.VirtualLamps;
 import hammerstep.sim.station.VirtualStation;
 import hammerstep.station.LampMode;
+import hammerstep.station.PartIdentity;
 import hammerstep.station.TowerLamp;
 import hammerstep.station.setup.StationConfig;
 
@@ -138,6 +139,11 @@ final class LiveView implements DemoView {
         out.flush();
     }
 
+    /** The part named (by the plant's cmd/part or the scanner) that waits for the fixture, if any. */
+    static String queued(PartIdentity part) {
+        return part == null ? "" : "  next " + part.serial() + " waits for the fixture";
+    }
+
     /**
      * One frame as lines with their colour codes, each at most {@code size.columns()} characters wide
      * on screen, at most {@code size.rows()} of them.
@@ -153,7 +159,7 @@ final class LiveView implements DemoView {
         lines.add(String.format(Locale.ROOT, "%s  t %.1f s (virtual)", title, station.nowNs() * 1e-9));
         lines.add("part " + (seq.part() == null ? "-" : seq.part().serial() + " (" + seq.part().model() + ")")
                 + (pattern == null ? "" : "  pass " + seq.pass().name() + " " + (seq.passIndex() + 1) + "/"
-                + pattern.passes().size()) + "  " + seq.phase());
+                + pattern.passes().size()) + "  " + seq.phase() + queued(station.agent().queuedPart()));
 
         StringBuilder p = new StringBuilder("positions ");
         for (int i = 0; i < lamps.positionLamps(); i++) {

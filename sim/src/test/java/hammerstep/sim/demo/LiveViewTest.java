@@ -71,6 +71,13 @@ class LiveViewTest {
     }
 
     @Test
+    void aPartWaitingForTheFixtureIsShownBesideThePartInWork() {
+        assertThat(LiveView.queued(new hammerstep.station.PartIdentity("PS40D-2611-0302", "PS-40D")))
+                .isEqualTo("  next PS40D-2611-0302 waits for the fixture");
+        assertThat(LiveView.queued(null)).isEmpty();
+    }
+
+    @Test
     void cutsALineByWhatShowsAndClosesItsColour() {
         String line = "ab\u001b[1;34mcdef\u001b[0mgh";
 
