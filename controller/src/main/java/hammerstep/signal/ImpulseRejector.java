@@ -70,14 +70,13 @@ public final class ImpulseRejector {
     /**
      * Replaces every impulse that starts in {@code [from, to)} of {@code s}. The array must hold
      * {@link #HISTORY} samples before {@code from} and {@code lookAhead() − 1} from {@code to} on.
+     * Every sample's bend is looked at; a caller that already knows no bend there reaches the level
+     * (the conditioner finds the largest in its one pass over the block) need not call it at all.
      *
      * @return how many impulses were replaced
      */
     public int reject(float[] s, int from, int to) {
         float lvl = level;
-        if (largestBend(s, from, to) < lvl) {
-            return 0;
-        }
         int found = 0;
         int p = from;
         while (p < to) {
@@ -104,44 +103,6 @@ public final class ImpulseRejector {
             }
         }
         return found;
-    }
-
-    /**
-     * The largest |second difference| over {@code [from, to)}: one pass over the block (four
-     * independent maxima) that lets a block without any sharp bend, nearly every idle block, skip the
-     * scan for candidates. A NaN bend is passed over (the scan would leave a NaN alone too; the
-     * conditioner reports it as {@code NOT_FINITE}).
-     */
-    private static float largestBend(float[] s, int from, int to) {
-        // Math.abs is one and-instruction; a new largest bend is rare, so the compare-and-keep is a
-        // well-predicted branch where Math.max would pay for its NaN handling on every sample
-        float m0 = 0f, m1 = 0f, m2 = 0f, m3 = 0f;
-        int p = from;
-        for (int last = to - 3; p < last; p += 4) {
-            float d0 = Math.abs(s[p] - 2f * s[p - 1] + s[p - 2]);
-            float d1 = Math.abs(s[p + 1] - 2f * s[p] + s[p - 1]);
-            float d2 = Math.abs(s[p + 2] - 2f * s[p + 1] + s[p]);
-            float d3 = Math.abs(s[p + 3] - 2f * s[p + 2] + s[p + 1]);
-            if (d0 > m0) {
-                m0 = d0;
-            }
-            if (d1 > m1) {
-                m1 = d1;
-            }
-            if (d2 > m2) {
-                m2 = d2;
-            }
-            if (d3 > m3) {
-                m3 = d3;
-            }
-        }
-        for (; p < to; p++) {
-            float d = Math.abs(s[p] - 2f * s[p - 1] + s[p - 2]);
-            if (d > m0) {
-                m0 = d;
-            }
-        }
-        return Math.max(Math.max(m0, m1), Math.max(m2, m3));
     }
 
     /** The smallest departure beyond the threshold of the last {@link #widthAt} that found an impulse. */
