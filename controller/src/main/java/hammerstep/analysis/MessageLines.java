@@ -6,8 +6,15 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.config.InputFiles;
 
 import java.io.IOException;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
+import java.security.MessageDigest;
+import java.security.NoSuchAlgorithmException;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Collections;
 import java.util.HashMap;
+import java.util.List;
 import java.util.Map;
 
 /**
@@ -84,9 +91,10 @@ final class MessageLines {
                 }
                 JsonNode id = node.get("id");
                 if (id != null && id.isTextual()) {
-                    Seen earlier = ids.putIfAbsent(id.asText(), new Seen(line, node.hashCode()));
+                    byte[] digest = digest(node);
+                    Seen earlier = ids.putIfAbsent(id.asText(), new Seen(line, digest));
                     if (earlier != null) {
-                        if (earlier.hash() != node.hashCode()) {
+                        if (!Arrays.equals(earlier.digest(), digest)) {
                             throw new InputException(file + ":" + line + ": message id \"" + id.asText()
                                     + "\" came on line " + earlier.line() + " with other content; a station never"
                                     + " sends two different messages under one id (logs of two stations or two"
@@ -104,7 +112,56 @@ final class MessageLines {
         return new Tally(duplicates, commands, unreadable, firstUnreadable);
     }
 
-    private record Seen(int line, int hash) {
+    /** Where an id came first, and a digest of its content (the message itself is not kept). */
+    private record Seen(int line, byte[] digest) {
+    }
+
+    /**
+     * SHA-256 of a message's content, field order aside: two messages with the same digest are the same
+     * message (a 32-bit hash would let two different results under one id pass as a repeat once in
+     * four billion pairs; a log of millions of lines makes that a matter of time).
+     */
+    static byte[] digest(JsonNode node) {
+        MessageDigest sha;
+        try {
+            sha = MessageDigest.getInstance("SHA-256");
+        } catch (NoSuchAlgorithmException e) {
+            throw new IllegalStateException("the JDK has no SHA-256", e);
+        }
+        feed(sha, node);
+        return sha.digest();
+    }
+
+    private static void feed(MessageDigest sha, JsonNode node) {
+        sha.update((byte) node.getNodeType().ordinal());
+        if (node.isObject()) {
+            List<String> names = new ArrayList<>();
+            node.fieldNames().forEachRemaining(names::add);
+            Collections.sort(names);
+            sha.update(int4(names.size()));
+            for (String name : names) {
+                text(sha, name);
+                feed(sha, node.get(name));
+            }
+        } else if (node.isArray()) {
+            sha.update(int4(node.size()));
+            for (JsonNode item : node) {
+                feed(sha, item);
+            }
+        } else {
+            // a number keeps its written form's kind: 1 and 1.0 are told apart, as JsonNode.equals does
+            text(sha, node.isNumber() ? node.numberType() + ":" + node.asText() : node.asText());
+        }
+    }
+
+    private static void text(MessageDigest sha, String s) {
+        byte[] bytes = s.getBytes(StandardCharsets.UTF_8);
+        sha.update(int4(bytes.length));
+        sha.update(bytes);
+    }
+
+    private static byte[] int4(int n) {
+        return new byte[] {(byte) (n >>> 24), (byte) (n >>> 16), (byte) (n >>> 8), (byte) n};
     }
 
     /** The line's JSON object; null when it is none and cannot be a joint result; an error when it may be one. */

@@ -1,5 +1,6 @@
 package hammerstep.analysis;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -114,6 +115,19 @@ class ResultsFileTest {
 
         assertThatThrownBy(() -> ResultsFile.read(f)).isInstanceOf(InputException.class)
                 .hasMessageStartingWith(f + ":3: message id \"j1\" came on line 1 with other content");
+    }
+
+    @Test
+    void otherContentWhoseHashCodesAgreeIsStillOtherContent() throws Exception {
+        // "Aa" and "BB" share String.hashCode, so the two messages share JsonNode.hashCode too
+        String a = joint("j1", 91.5).replace("\"program\":\"p\"", "\"program\":\"Aa\"");
+        String b = joint("j1", 91.5).replace("\"program\":\"p\"", "\"program\":\"BB\"");
+        ObjectMapper json = new ObjectMapper();
+        assertThat(json.readTree(a).hashCode()).isEqualTo(json.readTree(b).hashCode());
+        Path f = write(a, b);
+
+        assertThatThrownBy(() -> ResultsFile.read(f)).isInstanceOf(InputException.class)
+                .hasMessageStartingWith(f + ":2: message id \"j1\" came on line 1 with other content");
     }
 
     private static String joint(String id, double finalNm) {
