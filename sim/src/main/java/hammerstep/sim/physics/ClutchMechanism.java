@@ -13,31 +13,13 @@ package hammerstep.sim.physics;
  * <p>The three variants share these dynamics about the axis; they differ in pitch, in how many
  * parts share the blow, and in the oil bath (see the subclasses and docs/simulator.md).
  */
-abstract sealed class ClutchMechanism extends Mechanism
+abstract sealed class ClutchMechanism extends JawStriker
         permits RockingDogMechanism, ThreeJawClutchMechanism, TwinPinOilBathMechanism {
-
-    private final double j;
-    private final double pitch;
-    private final double overlap;
-    private final double releaseNm;
-    private final double releaseS;
-    private final double bathDrag;
-
-    private double th, w;
-    private boolean engaged = true;
-    private boolean pushed;
-    private double face;
-    private double heldS;
 
     ClutchMechanism(ClutchSpec spec, Drive drive, double trainStiffness, double dampingRatio) {
         super(drive, contactInSeries(spec, trainStiffness), dampingRatio + spec.filmDampingRatio(),
-                spec.hammerInertiaKgM2() + drive.reflectedInertiaKgM2());
-        this.j = spec.hammerInertiaKgM2() + drive.reflectedInertiaKgM2();
-        this.pitch = spec.pitchRad();
-        this.overlap = spec.overlapRad();
-        this.releaseNm = spec.releaseTorqueNm();
-        this.releaseS = spec.releaseMs() * 1e-3;
-        this.bathDrag = spec.bathDragNmPerRadS();
+                spec.hammerInertiaKgM2() + drive.reflectedInertiaKgM2(), spec.pitchRad(), spec.overlapRad(),
+                spec.releaseTorqueNm(), spec.releaseMs() * 1e-3, spec.bathDragNmPerRadS());
     }
 
     static ClutchMechanism of(ClutchSpec spec, Drive drive, double trainStiffness, double dampingRatio) {
@@ -50,114 +32,9 @@ abstract sealed class ClutchMechanism extends Mechanism
         return new TwinPinOilBathMechanism((ClutchSpec.TwinPinOilBath) spec, drive, trainStiffness, dampingRatio);
     }
 
-    /**
-     * One pitch at the drive's free speed: after a strike the parts come in again only for the jaw one
-     * pitch on, and the hammer turns no faster than its free speed, so any contact sooner is the same
-     * strike's rebound.
-     */
-    @Override
-    double recontactS() {
-        return pitch / drive.freeShaftSpeedRadS();
-    }
-
     /** The engaging parts in parallel, in series with the train: the stiffness a strike meets, N·m/rad. */
     static double contactInSeries(ClutchSpec spec, double trainStiffness) {
         double parts = spec.engaging() * spec.partStiffnessNmPerRad();
         return 1.0 / (1.0 / trainStiffness + 1.0 / parts);
-    }
-
-    /** The stiffness a strike meets, N·m/rad. */
-    final double strikeStiffness() {
-        return trainStiffness;
-    }
-
-    /** The striking inertia, motor included, kg·m². */
-    final double strikingInertia() {
-        return j;
-    }
-
-    @Override
-    final double trainTorque(double nutAngle, double nutSpeed) {
-        if (!engaged) {
-            return 0.0;
-        }
-        return contact(th - nutAngle - face, w - nutSpeed);
-    }
-
-    @Override
-    final void advance(double h, double trainNm, double nutAngle, double nutSpeed) {
-        double td = drive.shaftTorque(w);
-        w += h * (td - bathDrag * w - trainNm) / j;
-        th += h * w;
-        // the bath's drag counts against the drive, as a motor's own drag does
-        driveWorkJ += (td - bathDrag * w) * w * h;
-        trackContact(h, trainNm);
-        if (engaged) {
-            if (trainNm > 0) {
-                pushed = true;
-            }
-            heldS = trainNm > releaseNm ? heldS + h : 0.0;
-            boolean rebound = pushed && trainNm == 0 && w < nutSpeed;
-            if (rebound || heldS >= releaseS) {
-                engaged = false;
-                release();
-            }
-        } else if (th - nutAngle > face + overlap) {
-            engaged = true;
-            pushed = false;
-            heldS = 0;
-            face += pitch;
-        }
-    }
-
-    @Override
-    final double inputAngleRad() {
-        return th;
-    }
-
-    @Override
-    final double inputSpeedRadS() {
-        return w;
-    }
-
-    @Override
-    final double strikerAngle() {
-        return th;
-    }
-
-    @Override
-    final double storedJ() {
-        return 0.5 * j * w * w;
-    }
-
-    @Override
-    final double trainElasticJ(double nutAngle) {
-        double d = th - nutAngle - face;
-        return engaged && d > 0 ? 0.5 * trainStiffness * d * d : 0.0;
-    }
-
-    @Override
-    final void resetSwitched() {
-        reset();
-        // out of engagement behind the jaw: it comes in at once and strikes after the free travel
-        engaged = false;
-        face = -overlap;
-    }
-
-    @Override
-    final void reset() {
-        restAgainstAnvil();
-        th = 0;
-        w = 0;
-        face = 0;
-        engaged = true;
-        pushed = false;
-        heldS = 0;
-    }
-
-    /** Places the hammer (tests: a strike from a known state). */
-    final void setStriker(double angleRad, double speedRadS) {
-        th = angleRad;
-        w = speedRadS;
     }
 }

@@ -15,8 +15,7 @@ package hammerstep.sim.physics;
  *
  * <p>The mechanism books the work its drive does; the rig books the work done on the train. Single-threaded; allocation-free after construction.
  */
-abstract sealed class Mechanism permits CamMechanism, TwinHammerMechanism, OilPulseMechanism,
-        ClutchMechanism {
+abstract sealed class Mechanism permits CamMechanism, JawStriker, OilPulseMechanism {
 
     protected final Drive drive;
     /** Stiffness of the train from the striking face to the nut, transducer shaft included. */
