@@ -23,9 +23,7 @@ import hammerstep.station.SampleRing;
 import hammerstep.station.VirtualClock;
 import org.junit.jupiter.api.Test;
 
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -46,7 +44,7 @@ class CommandDeskTest {
     private final AtomicLong ids = new AtomicLong();
     private final MemoryOutbox outbox = new MemoryOutbox();
     private final StorageSwitch sink = new StorageSwitch(new OutboxResultSink(outbox, new StationId("s", "l", "st"),
-            () -> "id-" + ids.incrementAndGet(), Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)));
+            () -> "id-" + ids.incrementAndGet(), new VirtualClock(Instant.EPOCH)));
     private final List<PartOutcome> parts = new ArrayList<>();
     private final List<StationEvent> events = new ArrayList<>();
     private final AtomicReference<Map<String, Pattern>> onDisk = new AtomicReference<>(Map.of("M", pattern("p2", FINAL)));

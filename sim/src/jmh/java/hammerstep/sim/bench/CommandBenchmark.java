@@ -26,7 +26,6 @@ import hammerstep.station.loop.StationListener;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -41,7 +40,6 @@ import org.openjdk.jmh.annotations.TearDown;
 import org.openjdk.jmh.annotations.Warmup;
 
 import java.nio.charset.StandardCharsets;
-import java.time.Clock;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
@@ -91,7 +89,7 @@ public class CommandBenchmark {
             station = new StationRunner(agent).start();
             BrokerSettings settings = BrokerSettings.plain(broker.url(), "hub-fit-1");
             ResultPublisher publisher = new ResultPublisher(outbox, BenchResults.STATION, () -> new PahoLink(settings),
-                    desk, settings, new SystemNanoClock(), Clock.systemUTC(), 1, "bench");
+                    desk, settings, new SystemStationClock(), 1, "bench");
             delivery = ResultPublisher.start(publisher);
             topic = publisher.topics().prefix() + "cmd/end-part";
             statusTopic = publisher.topics().prefix() + "cmd/status";
