@@ -110,7 +110,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         SampleRing ring = new SampleRing(hw.adc().rateHz(), hw.adc().blockSamples(), RING_BLOCKS);
         Acquisition acquisition = new Acquisition(io.adc(), io.dataReady(), clock, io.calibration(),
                 td.zeroCounts(), ring);
-        Sequence sequence = new Sequence(clock, new Sequence.Settings(td.serial(), td.calibrationDue(),
+        Sequence sequence = new Sequence(new Sequence.Settings(td.serial(), td.calibrationDue(),
                 timing.completeHoldMs()), !hw.confirm().isEmpty());
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);

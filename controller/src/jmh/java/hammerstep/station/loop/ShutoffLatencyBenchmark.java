@@ -171,7 +171,7 @@ public class ShutoffLatencyBenchmark {
         relay = new Relay();
         long[] ids = {0};
         StationPorts ports = new StationPorts(ring, new DarkLamps(), relay, new Idle(), scanner);
-        Sequence sequence = new Sequence(clock, new Sequence.Settings("TQ", null, 0), false);
+        Sequence sequence = new Sequence(new Sequence.Settings("TQ", null, 0), false);
         if (journal.startsWith("file")) {
             journalDir = Files.createTempDirectory("hammerstep-bench-journal-");
             fileOutbox = FileOutbox.open(StorageSettings.defaults(journalDir));

@@ -57,7 +57,7 @@ class CommandDeskTest {
     });
     private final StationAgent agent = new StationAgent(clock, new StationPorts(new SampleRing(20_000, 64, 4),
             new Fakes.RecordingLamps(4), new Fakes.RecordingTool(), inputs, new Fakes.Scanner()), sink,
-            new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), onDisk.get(),
+            new Sequence(new Sequence.Settings("TQ-1", null, 300), false), onDisk.get(),
             JointMonitor.replayConditioning(FINAL), 1_000_000_000L, new StationListener() {
                 @Override
                 public void onPart(PartOutcome part, ResultSink.Receipt receipt) {

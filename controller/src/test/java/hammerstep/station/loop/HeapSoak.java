@@ -73,7 +73,7 @@ class HeapSoak {
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + (++ids),
                 new VirtualClock(Instant.EPOCH));
         StationAgent agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
+                new Sequence(new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
                 JointMonitor.replayConditioning(FINAL), 1_000_000_000L, new StationListener() {
                     @Override
                     public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {

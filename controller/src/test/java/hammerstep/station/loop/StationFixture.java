@@ -102,7 +102,7 @@ final class StationFixture {
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
                 new VirtualClock(Instant.EPOCH));
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), patterns,
+                new Sequence(new Sequence.Settings("TQ-1", null, 300), false), patterns,
                 conditioning, 1_000_000_000L, StationListener.both(reports, extra), errorHandler);
         return agent;
     }
@@ -119,7 +119,7 @@ final class StationFixture {
         writer = new JournalWriter(sink, outbox, JournalWriter.DEFAULT_CAPACITY);
         writeStallNs = stallNs;
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), writer,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
+                new Sequence(new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
                 conditioning, 1_000_000_000L, reports, errors::add);
         return agent;
     }

@@ -62,7 +62,7 @@ class StationRunnerTest {
                 new StationPorts(new SampleRing(20_000, 16, 8), new Fakes.RecordingLamps(1), tool, new Fakes.Inputs(),
                         scanner),
                 new OutboxResultSink(new MemoryOutbox(), new StationId("s", "l", "t"), () -> "x", new SystemStationClock()),
-                new Sequence(clock, new Sequence.Settings("TQ", null, 500), false), Map.of("M", pattern),
+                new Sequence(new Sequence.Settings("TQ", null, 500), false), Map.of("M", pattern),
                 JointMonitor.replayConditioning(p), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
         StationRunner runner = new StationRunner(agent).start();
         try {

@@ -82,7 +82,7 @@ public class CommandBenchmark {
             MemoryOutbox outbox = new MemoryOutbox();
             StationAgent agent = new StationAgent(clock, new StationPorts(new SampleRing(20_000, 64, 16), new NoLamps(),
                     on -> { }, new NoInputs(), () -> null), new OutboxResultSink(outbox, BenchResults.STATION),
-                    new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("hub-5", pattern),
+                    new Sequence(new Sequence.Settings("TQ-1", null, 300), false), Map.of("hub-5", pattern),
                     JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
             CommandDesk desk = new CommandDesk(null);
             agent.takeCommands(desk);
