@@ -25,9 +25,10 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 /**
  * A plant's {@code cmd/part} during a demo run (issue: the summary once read "parts 3 of 2"): the part it
- * names is worked in the place of a part of the run's list, and the summary's parts line adds up: the
- * run's own parts never more than it asked for, plus the others named, equal to the part records the
- * station published.
+ * names is worked when the station is free (between two parts of the run's list), and the summary's parts
+ * line adds up: the run's own parts never more than it asked for, plus the others named, equal to the
+ * part records the station published. A run read "parts 3 of 3, and 1 more not in the run's list",
+ * with 4 part records (the summary is kept in {@code target/demo-plant-part.txt}).
  */
 class DemoPlantPartIT {
 
