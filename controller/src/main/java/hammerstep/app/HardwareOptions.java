@@ -4,7 +4,7 @@ import hammerstep.config.ConfigException;
 import hammerstep.hardware.HardwareConfig;
 import hammerstep.hardware.HardwareException;
 import hammerstep.hardware.pi4j.Pi4jHardware;
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 import picocli.CommandLine.Option;
 
 import java.nio.file.Path;
@@ -26,7 +26,7 @@ final class HardwareOptions {
     }
 
     /** Opens the hardware; a machine without GPIO, or a part that does not answer, is one line and exit 1. */
-    Pi4jHardware open(HardwareConfig c, NanoClock clock) {
+    Pi4jHardware open(HardwareConfig c, StationClock clock) {
         try {
             return Pi4jHardware.open(kind == Kind.mock ? Pi4jHardware.Mode.MOCK : Pi4jHardware.Mode.GPIO,
                     c.hardware(), c.transducer(), clock);

@@ -4,8 +4,8 @@ import ch.qos.logback.classic.Level;
 import hammerstep.config.ConfigException;
 import hammerstep.hardware.HardwareConfig;
 import hammerstep.hardware.pi4j.Pi4jHardware;
-import org.agrona.concurrent.NanoClock;
-import org.agrona.concurrent.SystemNanoClock;
+import hammerstep.station.StationClock;
+import hammerstep.station.SystemStationClock;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
@@ -26,7 +26,7 @@ final class MeasureOptions {
     @Option(names = "--verbose", description = "log debug detail")
     boolean verbose;
 
-    NanoClock clock = SystemNanoClock.INSTANCE;
+    StationClock clock = new SystemStationClock();
 
     /** Configures logging, checks {@code --seconds} and loads the station file. */
     HardwareConfig begin() throws ConfigException {

@@ -1,8 +1,9 @@
 package hammerstep.app;
 
+import hammerstep.station.StationClock;
+
 import java.io.PrintStream;
 import java.util.Locale;
-import java.util.function.LongSupplier;
 
 /**
  * A progress line on standard error for a long run on a terminal: nothing during the first second
@@ -16,18 +17,18 @@ final class Progress {
     private static final long EVERY_NS = 250_000_000L;
 
     private final PrintStream err;
-    private final LongSupplier clock;
+    private final StationClock clock;
     private final boolean on;
     private final long startNs;
     private long nextNs;
     private int shownLength;
 
     /** @param terminal true when standard error is a terminal ({@code System.console() != null}) */
-    Progress(PrintStream err, LongSupplier clock, boolean terminal) {
+    Progress(PrintStream err, StationClock clock, boolean terminal) {
         this.err = err;
         this.clock = clock;
         this.on = terminal;
-        this.startNs = terminal ? clock.getAsLong() : 0;
+        this.startNs = terminal ? clock.nanoTime() : 0;
         this.nextNs = startNs + QUIET_NS;
     }
 
@@ -36,7 +37,7 @@ final class Progress {
         if (!on) {
             return;
         }
-        long now = clock.getAsLong();
+        long now = clock.nanoTime();
         if (now - nextNs < 0) {
             return;
         }

@@ -11,6 +11,7 @@ import hammerstep.joint.SplitReplay;
 import hammerstep.results.JointFields;
 import hammerstep.results.JsonLines;
 import hammerstep.signal.Conditioning;
+import hammerstep.station.SystemStationClock;
 import hammerstep.trace.F32Trace;
 import hammerstep.trace.StationReplay;
 import hammerstep.trace.StoredTrace;
@@ -177,7 +178,7 @@ public final class ReplayCommand implements Callable<Integer> {
         ReplayPreload.stop();
         BufferedWriter out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), 1 << 16);
         PrintWriter err = spec == null ? new PrintWriter(System.err, true) : spec.commandLine().getErr();
-        Progress progress = new Progress(System.err, System::nanoTime, System.console() != null);
+        Progress progress = new Progress(System.err, new SystemStationClock(), System.console() != null);
         ArchiveReplay.Settings s = new ArchiveReplay.Settings(traces, programFiles, rateHz, lowPassHz, overRangeNm,
                 flatLineMs, mainsHz, summary, compare);
         return new ArchiveReplay(s, out, err, progress).run();

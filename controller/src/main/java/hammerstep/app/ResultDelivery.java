@@ -13,12 +13,11 @@ import hammerstep.results.ResultStoreException;
 import hammerstep.results.StationId;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
-import java.time.Clock;
 
 /**
  * The service's way from the station to the plant: the outbox journal of {@code storage:} (in
@@ -92,8 +91,9 @@ final class ResultDelivery implements AutoCloseable {
         } else {
             BrokerSettings settings = broker.clientId().isEmpty()
                     ? broker.withClientId(id.site() + "-" + id.line() + "-" + id.station()) : broker;
+            SystemStationClock clock = new SystemStationClock();
             publisher = new ResultPublisher(journal.forDelivery(), id, () -> new PahoLink(settings), commands, settings,
-                    new SystemNanoClock(), Clock.systemUTC(), System.nanoTime(), version);
+                    clock, clock.nanoTime(), version);
             LOG.info("delivering results to {} as {}{}", settings.url(), settings.clientId(),
                     settings.username() == null ? "" : " (user " + settings.username() + ")");
         }

@@ -96,7 +96,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
                 .get(PartsSection.INSTANCE).byModel());
         try (ResultDelivery delivery = ResultDelivery.open(id, station.get(StationSections.STORAGE),
                 station.get(StationSections.BROKER), desk, new Version().getVersion()[0]);
-             Pi4jHardware io = hardware.open(new HardwareConfig(hw, td), clock::nanoTime)) {
+             Pi4jHardware io = hardware.open(new HardwareConfig(hw, td), clock)) {
             return run(station, io, hw, td, clock, delivery, desk);
         }
     }
@@ -108,9 +108,9 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         TimingSection.Timing timing = station.has(TimingSection.INSTANCE) ? station.get(TimingSection.INSTANCE)
                 : TimingSection.Timing.DEFAULT;
         SampleRing ring = new SampleRing(hw.adc().rateHz(), hw.adc().blockSamples(), RING_BLOCKS);
-        Acquisition acquisition = new Acquisition(io.adc(), io.dataReady(), clock::nanoTime, io.calibration(),
+        Acquisition acquisition = new Acquisition(io.adc(), io.dataReady(), clock, io.calibration(),
                 td.zeroCounts(), ring);
-        Sequence sequence = new Sequence(clock, new Sequence.Settings(td.serial(), td.calibrationDue(),
+        Sequence sequence = new Sequence(new Sequence.Settings(td.serial(), td.calibrationDue(),
                 timing.completeHoldMs()), !hw.confirm().isEmpty());
         StdinIdentities identities = new StdinIdentities(parts.byModel().keySet().iterator().next());
         StationPorts ports = new StationPorts(ring, io.lamps(), io.toolEnable(), io.inputs(), identities);

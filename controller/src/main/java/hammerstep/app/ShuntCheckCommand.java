@@ -6,7 +6,7 @@ import hammerstep.hardware.Sampler;
 import hammerstep.hardware.TransducerSettings;
 import hammerstep.hardware.pi4j.Pi4jHardware;
 import hammerstep.signal.Calibration;
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -49,7 +49,7 @@ public final class ShuntCheckCommand implements Callable<Integer> {
                     + " the reading with the figure above");
             return 0;
         }
-        NanoClock clock = measure.clock;
+        StationClock clock = measure.clock;
         try (Pi4jHardware hw = measure.openStarted(c)) {
             long ns = measure.readingNs();
             long settleNs = Math.max(50_000_000L, (long) (10e9 / hw.adc().rateHz()));

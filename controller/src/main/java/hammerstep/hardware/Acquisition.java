@@ -2,8 +2,8 @@ package hammerstep.hardware;
 
 import hammerstep.signal.Calibration;
 import hammerstep.station.SampleRing;
+import hammerstep.station.StationClock;
 import org.agrona.concurrent.Agent;
-import org.agrona.concurrent.NanoClock;
 
 /**
  * The acquisition duty cycle: polls the ADC's data-ready, reads each conversion, converts counts to
@@ -27,7 +27,7 @@ public final class Acquisition implements Agent {
 
     private final AdcDriver adc;
     private final DataReady dataReady;
-    private final NanoClock clock;
+    private final StationClock clock;
     private final SampleRing ring;
     private final int blockSamples;
     private final float nmPerCount;
@@ -46,7 +46,7 @@ public final class Acquisition implements Agent {
     private volatile long missedSamples;
     private volatile int lastCounts;
 
-    public Acquisition(AdcDriver adc, DataReady dataReady, NanoClock clock, Calibration calibration, int zeroCounts,
+    public Acquisition(AdcDriver adc, DataReady dataReady, StationClock clock, Calibration calibration, int zeroCounts,
                        SampleRing ring) {
         if (Math.abs(ring.rateHz() - adc.rateHz()) > 1e-9 * adc.rateHz()) {
             throw new IllegalArgumentException("ring rate " + ring.rateHz() + " Hz differs from the ADC's " + adc.rateHz());

@@ -1,6 +1,6 @@
 package hammerstep.hardware;
 
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 
 /**
  * Texas Instruments ADS1256: 24-bit delta-sigma ADC, PGA 1 to 64, up to 30 000 conversions per
@@ -62,7 +62,7 @@ public final class Ads1256 implements AdcDriver {
 
     private final SpiLink link;
     private final DataReady dataReady;
-    private final NanoClock clock;
+    private final StationClock clock;
     private final String where;
     private final int positiveInput;
     private final int negativeInput;
@@ -81,7 +81,7 @@ public final class Ads1256 implements AdcDriver {
      * @param referenceV    VREF between VREFP and VREFN
      * @param buffer        the input buffer (high input impedance; input range AGND to AVDD − 2 V)
      */
-    public Ads1256(SpiLink link, DataReady dataReady, NanoClock clock, String where, int positiveInput,
+    public Ads1256(SpiLink link, DataReady dataReady, StationClock clock, String where, int positiveInput,
                    int negativeInput, int gain, double rateHz, double referenceV, boolean buffer) {
         this.link = link;
         this.dataReady = dataReady;

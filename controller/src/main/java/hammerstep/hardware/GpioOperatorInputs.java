@@ -1,7 +1,7 @@
 package hammerstep.hardware;
 
 import hammerstep.station.OperatorInputs;
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 
 import java.util.List;
 
@@ -12,7 +12,7 @@ import java.util.List;
  */
 public final class GpioOperatorInputs implements OperatorInputs {
 
-    private final NanoClock clock;
+    private final StationClock clock;
     private final Line acknowledge;
     private final Line supervisorKey;
     private final Line partPresent;
@@ -20,7 +20,7 @@ public final class GpioOperatorInputs implements OperatorInputs {
     private final Line[] confirm;
 
     /** Optional lines ({@code partPresent}, {@code trigger}) may be null; {@code confirm} may be empty. */
-    public GpioOperatorInputs(NanoClock clock, Line acknowledge, Line supervisorKey, Line partPresent, Line trigger,
+    public GpioOperatorInputs(StationClock clock, Line acknowledge, Line supervisorKey, Line partPresent, Line trigger,
                               List<Line> confirm) {
         this.clock = clock;
         this.acknowledge = acknowledge;

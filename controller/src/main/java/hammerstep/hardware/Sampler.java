@@ -1,6 +1,6 @@
 package hammerstep.hardware;
 
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 
 /**
  * Reads the ADC for a while and sums up what it saw: for {@code hammerstep zero} and
@@ -19,7 +19,7 @@ public final class Sampler {
     }
 
     /** Reads every conversion for {@code durationNs}; at least one is required within the time. */
-    public static Reading measure(AdcDriver adc, DataReady ready, NanoClock clock, long durationNs) {
+    public static Reading measure(AdcDriver adc, DataReady ready, StationClock clock, long durationNs) {
         long start = clock.nanoTime();
         long end = start + durationNs;
         long n = 0;
@@ -50,7 +50,7 @@ public final class Sampler {
     }
 
     /** Waits {@code ns} while reading and discarding conversions (filter settling after a switch). */
-    public static void settle(AdcDriver adc, DataReady ready, NanoClock clock, long ns) {
+    public static void settle(AdcDriver adc, DataReady ready, StationClock clock, long ns) {
         long end = clock.nanoTime() + ns;
         long now;
         while ((now = clock.nanoTime()) - end < 0) {

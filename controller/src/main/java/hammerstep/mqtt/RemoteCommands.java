@@ -2,12 +2,11 @@ package hammerstep.mqtt;
 
 import hammerstep.results.ResultMessages;
 import hammerstep.results.StationId;
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
 import java.io.IOException;
-import java.time.Clock;
 import java.util.ArrayDeque;
 import java.util.Map;
 import java.util.UUID;
@@ -60,8 +59,7 @@ final class RemoteCommands {
     private final StationId station;
     private final Topics topics;
     private final StationCommands commands;
-    private final NanoClock clock;
-    private final Clock wall;
+    private final StationClock clock;
     private final CommandParser parser;
     private final RateLimitedWarnings refusals = new RateLimitedWarnings(LOG, "refused commands", 10, 60_000_000_000L);
     private final RateLimitedWarnings unsentResponses = new RateLimitedWarnings(LOG, "unsent responses", 10,
@@ -85,12 +83,11 @@ final class RemoteCommands {
     private volatile int waitingCount;
 
     RemoteCommands(StationId station, Topics topics, StationCommands commands, BrokerSettings settings,
-                   NanoClock clock, Clock wall) {
+                   StationClock clock) {
         this.station = station;
         this.topics = topics;
         this.commands = commands;
         this.clock = clock;
-        this.wall = wall;
         this.parser = new CommandParser(MAX_COMMAND_BYTES, settings.commandMaxExpiryS());
     }
 
@@ -262,7 +259,7 @@ final class RemoteCommands {
             return;
         }
         Map<String, Object> m = ResultMessages.head("hammerstep.response.v1", UUID.randomUUID().toString(),
-                ++responseSeq, station, wall.instant());
+                ++responseSeq, station, clock.now());
         m.put("command", command.length() > 64 ? command.substring(0, 64) : command);
         m.put("ok", reply.ok());
         m.put("code", reply.code());

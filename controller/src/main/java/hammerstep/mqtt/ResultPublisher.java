@@ -2,15 +2,14 @@ package hammerstep.mqtt;
 
 import hammerstep.results.Outbox;
 import hammerstep.results.StationId;
+import hammerstep.station.StationClock;
 import org.agrona.concurrent.Agent;
 import org.agrona.concurrent.AgentRunner;
 import org.agrona.concurrent.BackoffIdleStrategy;
-import org.agrona.concurrent.NanoClock;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
 import java.io.IOException;
-import java.time.Clock;
 import java.util.concurrent.ConcurrentLinkedQueue;
 import java.util.function.Supplier;
 
@@ -51,7 +50,7 @@ public final class ResultPublisher implements Agent {
     private final Outbox outbox;
     private final Topics topics;
     private final BrokerSettings settings;
-    private final NanoClock clock;
+    private final StationClock clock;
     private final Connection connection;
     private final DeliveryWindow delivery;
     private final StatusMessage status;
@@ -60,15 +59,15 @@ public final class ResultPublisher implements Agent {
     private final ConcurrentLinkedQueue<Signal> signals = new ConcurrentLinkedQueue<>();
 
     public ResultPublisher(Outbox outbox, StationId station, Supplier<Link> links, StationCommands commands,
-                           BrokerSettings settings, NanoClock clock, Clock wall, long seed, String version) {
+                           BrokerSettings settings, StationClock clock, long seed, String version) {
         this.outbox = outbox;
         this.topics = new Topics(station);
         this.settings = settings;
         this.clock = clock;
         this.connection = new Connection(links, settings, seed, clock.nanoTime());
         this.delivery = new DeliveryWindow(outbox, topics);
-        this.status = new StatusMessage(outbox, station, commands, settings, wall, version);
-        this.commands = new RemoteCommands(station, topics, commands, settings, clock, wall);
+        this.status = new StatusMessage(outbox, station, commands, settings, clock, version);
+        this.commands = new RemoteCommands(station, topics, commands, settings, clock);
         this.status.reportCommands(this.commands);
         this.seqCheck = new SeqCrossCheck(outbox, topics.status(), status.startedText(), SEQ_CHECK_WAIT_NS);
     }

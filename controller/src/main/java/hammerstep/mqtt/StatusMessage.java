@@ -5,9 +5,9 @@ import hammerstep.results.Outbox;
 import hammerstep.results.ResultMessages;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StationId;
+import hammerstep.station.StationClock;
 
 import java.io.IOException;
-import java.time.Clock;
 import java.time.Instant;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -28,7 +28,7 @@ final class StatusMessage {
     private final StationId station;
     private final StationCommands commands;
     private final BrokerSettings settings;
-    private final Clock wall;
+    private final StationClock clock;
     private final String version;
     private final Instant started;
 
@@ -41,15 +41,15 @@ final class StatusMessage {
     private ResultSink.Storage lastStorage;
     private RemoteCommands remote;
 
-    StatusMessage(Outbox outbox, StationId station, StationCommands commands, BrokerSettings settings, Clock wall,
+    StatusMessage(Outbox outbox, StationId station, StationCommands commands, BrokerSettings settings, StationClock clock,
                   String version) {
         this.outbox = outbox;
         this.station = station;
         this.commands = commands;
         this.settings = settings;
-        this.wall = wall;
+        this.clock = clock;
         this.version = version;
-        this.started = wall.instant();
+        this.started = clock.now();
     }
 
     /** True when the status is due: its interval passed, or the store's room changed. */
@@ -84,7 +84,7 @@ final class StatusMessage {
      */
     byte[] willBytes() {
         Map<String, Object> m = ResultMessages.head("hammerstep.status.v1", UUID.randomUUID().toString(), ++statusSeq,
-                station, wall.instant());
+                station, clock.now());
         m.put("state", "offline");
         m.put("started", ResultMessages.time(started));
         m.put("version", version);
@@ -102,7 +102,7 @@ final class StatusMessage {
 
     Map<String, Object> fields(String state) {
         Map<String, Object> m = ResultMessages.head("hammerstep.status.v1", UUID.randomUUID().toString(), ++statusSeq,
-                station, wall.instant());
+                station, clock.now());
         m.put("state", state);
         m.put("started", ResultMessages.time(started));
         m.put("version", version);

@@ -2,9 +2,10 @@ package hammerstep.results;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import hammerstep.station.StationClock;
+import hammerstep.station.SystemStationClock;
 
 import java.io.IOException;
-import java.time.Clock;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.UUID;
@@ -27,11 +28,11 @@ public final class OutboxResultSink implements ResultSink {
     private final Outbox outbox;
     private final StationId station;
     private final Supplier<String> ids;
-    private final Clock clock;
+    private final StationClock clock;
     private Storage lastStorage = Storage.OK;
     private boolean recoveryReported;
 
-    public OutboxResultSink(Outbox outbox, StationId station, Supplier<String> ids, Clock clock) {
+    public OutboxResultSink(Outbox outbox, StationId station, Supplier<String> ids, StationClock clock) {
         this.outbox = outbox;
         this.station = station;
         this.ids = ids;
@@ -40,7 +41,7 @@ public final class OutboxResultSink implements ResultSink {
 
     /** Random (type 4) UUIDs as ids, the system clock for the sink's own events. */
     public OutboxResultSink(Outbox outbox, StationId station) {
-        this(outbox, station, () -> UUID.randomUUID().toString(), Clock.systemUTC());
+        this(outbox, station, () -> UUID.randomUUID().toString(), new SystemStationClock());
     }
 
     @Override
@@ -134,11 +135,11 @@ public final class OutboxResultSink implements ResultSink {
             if (now == Storage.FULL) {
                 store(new StationEvent(StationEvent.Severity.ALARM, "STORAGE_FULL",
                         "result storage is full at start: no new part can start until results are delivered",
-                        null, clock.instant()));
+                        null, clock.now()));
             } else {
                 store(new StationEvent(StationEvent.Severity.WARNING, "STORAGE_LOW",
                         "result storage is running low at start; results are kept, clear space or restore the network",
-                        null, clock.instant()));
+                        null, clock.now()));
             }
         }
         return now;
@@ -158,12 +159,12 @@ public final class OutboxResultSink implements ResultSink {
             switch (now) {
                 case LOW -> store(new StationEvent(StationEvent.Severity.WARNING, "STORAGE_LOW",
                         "result storage is running low; results are kept, clear space or restore the network",
-                        null, clock.instant()));
+                        null, clock.now()));
                 case FULL -> store(new StationEvent(StationEvent.Severity.ALARM, "STORAGE_FULL",
                         "result storage is full: no new part can start until results are delivered",
-                        null, clock.instant()));
+                        null, clock.now()));
                 case OK -> store(new StationEvent(StationEvent.Severity.NOTICE, "STORAGE_OK",
-                        "result storage has room again", null, clock.instant()));
+                        "result storage has room again", null, clock.now()));
             }
         }
         return r;
@@ -175,7 +176,7 @@ public final class OutboxResultSink implements ResultSink {
             Outbox.Recovery rec = outbox.recovery();
             if (!rec.notes().isEmpty() || rec.tornBytes() != 0) {
                 store(new StationEvent(StationEvent.Severity.WARNING, "OUTBOX_RECOVERED",
-                        "result store repaired at start: " + String.join("; ", rec.notes()), null, clock.instant()));
+                        "result store repaired at start: " + String.join("; ", rec.notes()), null, clock.now()));
             }
         }
         reportLosses();
@@ -194,7 +195,7 @@ public final class OutboxResultSink implements ResultSink {
             return losses;
         }
         for (Outbox.Loss l : losses) {
-            store(new StationEvent(StationEvent.Severity.ALARM, "RESULTS_LOST", lossMessage(l), null, clock.instant()));
+            store(new StationEvent(StationEvent.Severity.ALARM, "RESULTS_LOST", lossMessage(l), null, clock.now()));
         }
         outbox.lossesReported(losses);
         return losses;

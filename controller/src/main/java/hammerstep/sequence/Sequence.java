@@ -5,15 +5,12 @@ import hammerstep.joint.JointResult;
 import hammerstep.joint.Reason;
 import hammerstep.joint.Verdict;
 import hammerstep.results.ResultSink;
-import hammerstep.results.StationEvent;
 import hammerstep.results.UnfinishedPart;
 import hammerstep.station.LampMode;
 import hammerstep.station.OperatorInputs;
 import hammerstep.station.PartIdentity;
-import hammerstep.station.StationClock;
 import hammerstep.station.TowerLamp;
 
-import java.time.Instant;
 import java.time.LocalDate;
 
 /**
@@ -21,8 +18,9 @@ import java.time.LocalDate;
  * {@link #onTick(long)} go in; what comes out is state the station loop reads after each call
  * ({@link #toolEnabled()}, the lamp modes) and the records to store ({@link #nextToStore()}), which
  * the loop hands to the {@link ResultSink} and confirms with {@link #stored} or {@link #storeFailed}.
- * No threads, no sleeps, no clock reads: every time comes in as {@code nowNs}; the clock is used only
- * to turn a {@code nowNs} into a wall-clock stamp.
+ * No threads, no sleeps, no clock: every time comes in as the station-clock {@code nowNs} of the call,
+ * and the records carry it ({@link SequenceRecord#atNs()}). The loop that stores them turns it into
+ * wall-clock time and words the events; the sequence builds no text.
  *
  * <p>Flow: waiting for a part → prompting a position → rundown → the result is stored → verdict
  * shown → next position; or rework (tool disabled until acknowledged, attempts counted) → pass
@@ -55,7 +53,6 @@ public final class Sequence {
     public record Settings(String transducerSerial, LocalDate calibrationDue, double completeHoldMs) {
     }
 
-    private final StationClock clock;
     private final Settings settings;
     private final boolean confirmSensors;
     private final Records records;
@@ -69,7 +66,7 @@ public final class Sequence {
     private Pattern pattern;
     private String patternId;
     private String rejectedAs = "REJECTED";
-    private Instant partStarted;
+    private Long partStartedNs;
     private final PartProgress progress = new PartProgress();
     private boolean abandonAfterStore;
     private int passIndex;
@@ -94,10 +91,9 @@ public final class Sequence {
     /**
      * @param confirmSensors true when the fixture reports at which position the tool is
      */
-    public Sequence(StationClock clock, Settings settings, boolean confirmSensors) {
-        this.clock = clock;
+    public Sequence(Settings settings, boolean confirmSensors) {
         this.settings = settings;
-        this.records = new Records(clock, settings);
+        this.records = new Records(settings);
         this.confirmSensors = confirmSensors;
     }
 
@@ -114,24 +110,22 @@ public final class Sequence {
             clearPart();
         }
         if (phase != Phase.WAITING) {
-            records.event(StationEvent.Severity.WARNING, "IDENTITY_IGNORED", "part " + identity.serial()
-                    + " scanned while " + (part == null ? "the station is faulted" : "part " + part.serial()
-                    + " is in work"), identity.serial(), nowNs);
+            records.event(new SequenceRecord.IdentityIgnored(identity.serial(), part == null ? null : part.serial(),
+                    nowNs));
             return false;
         }
         if (storage == ResultSink.Storage.FULL) {
             return false;
         }
         if (pattern == null) {
-            records.event(StationEvent.Severity.WARNING, "UNKNOWN_MODEL", "no pattern for model " + identity.model(),
-                    identity.serial(), nowNs);
+            records.event(new SequenceRecord.UnknownModel(identity.serial(), identity.model(), nowNs));
             return false;
         }
         this.part = identity;
         this.pattern = pattern;
         this.patternId = pattern.id();
         this.rejectedAs = "REJECTED";
-        this.partStarted = clock.instantOf(nowNs);
+        this.partStartedNs = nowNs;
         this.abandonAfterStore = false;
         this.progress.startPart(pattern.size());
         this.passIndex = 0;
@@ -154,7 +148,7 @@ public final class Sequence {
         part = new PartIdentity(unfinished.partSerial(), unfinished.partModel());
         pattern = null;
         patternId = unfinished.pattern();
-        partStarted = null;
+        partStartedNs = null;
         progress.startPart(0);
         for (String id : unfinished.jointIds()) {
             progress.jointStored(id);
@@ -163,9 +157,7 @@ public final class Sequence {
         rejectedAs = "INTERRUPTED";
         phase = Phase.REJECTED;
         int n = unfinished.jointIds().size();
-        records.event(StationEvent.Severity.ALARM, "PART_INTERRUPTED", "part " + part.serial() + " was in work when the"
-                + " station stopped (" + n + (n == 1 ? " joint" : " joints") + " stored, no part record): check it,"
-                + " then turn the supervisor key to close it as INTERRUPTED", part.serial(), nowNs);
+        records.event(new SequenceRecord.PartInterrupted(part.serial(), n, nowNs));
     }
 
     /**
@@ -196,8 +188,7 @@ public final class Sequence {
         if (part == null || phase == Phase.COMPLETE || abandonAfterStore) {
             return "NO_PART";
         }
-        records.event(StationEvent.Severity.NOTICE, "PART_ENDED", "part " + part.serial() + " ended by the plant: "
-                + reason, part.serial(), nowNs);
+        records.event(new SequenceRecord.PartEndedByPlant(part.serial(), reason, nowNs));
         if (phase == Phase.REJECTED) {
             partRecord("NO_GO", rejectedAs, nowNs);
             clearPart();
@@ -230,9 +221,8 @@ public final class Sequence {
     public void jointJudged(JointResult result, long nowNs) {
         if (effective() != Phase.RUNDOWN) {
             if (unexpectedRundown) {
-                records.event(StationEvent.Severity.ALARM, "UNEXPECTED_RUNDOWN", "a rundown of " + result.blows()
-                        + " blows to " + Math.round(result.finalTorqueNm()) + " N·m while no position was prompted",
-                        part == null ? null : part.serial(), nowNs);
+                records.event(new SequenceRecord.UnexpectedRundown(part == null ? null : part.serial(), result.blows(),
+                        result.finalTorqueNm(), nowNs));
             }
             unexpectedRundown = false;
             return;
@@ -246,9 +236,8 @@ public final class Sequence {
         if (pos != prompted) {
             boolean rehit = progress.done(pos);
             r = Records.withReason(result, rehit ? Reason.REHIT : Reason.OUT_OF_SEQUENCE);
-            records.event(StationEvent.Severity.ALARM, rehit ? "REHIT" : "OUT_OF_SEQUENCE",
-                    "rundown on position " + label(pos) + " while " + label(prompted) + " was prompted",
-                    part.serial(), nowNs);
+            records.event(new SequenceRecord.WrongPosition(part.serial(), position(pos), position(prompted), rehit,
+                    nowNs));
         }
         int attempt = progress.countAttempt(pos);
         Pattern.Pass pass = pass();
@@ -268,14 +257,7 @@ public final class Sequence {
             inferred = true;
         }
         boolean voids = progress.done(pos);
-        if (voids) {
-            records.event(StationEvent.Severity.ALARM, "LOOSENED", "position " + label(pos) + ", judged GO, was loosened"
-                    + (inferred ? " (no confirm sensors: taken as the position judged GO last)" : "")
-                    + ": it is prompted again and must be tightened again", part.serial(), nowNs);
-        } else {
-            records.event(StationEvent.Severity.NOTICE, "LOOSENED", "position " + label(pos)
-                    + " was loosened; it was not judged GO, so nothing is voided", part.serial(), nowNs);
-        }
+        records.event(new SequenceRecord.Loosened(part.serial(), position(pos), voids, inferred, nowNs));
         records.joint(part, pattern, pos, pass().name(), Math.max(1, progress.attempts(pos)), result, nowNs);
         judgedPosition = pos;
         judgedVerdict = result.verdict();
@@ -298,8 +280,7 @@ public final class Sequence {
     public void supervisorKey(long nowNs) {
         if (lockout.active()) {
             if (lockout.release()) {
-                records.event(StationEvent.Severity.NOTICE, "SENSOR_FAULT_CLEARED", "torque signal healthy again;"
-                        + " lockout released by the supervisor", part == null ? null : part.serial(), nowNs);
+                records.event(new SequenceRecord.SensorFaultCleared(part == null ? null : part.serial(), nowNs));
             }
             return;
         }
@@ -327,9 +308,7 @@ public final class Sequence {
      */
     public void sensorFault(int faults, String names, long nowNs) {
         if (lockout.fault(faults)) {
-            records.event(StationEvent.Severity.ALARM, "SENSOR_FAULT", "torque signal fault " + names
-                    + ": tool locked out until the fault clears and the supervisor key is turned",
-                    part == null ? null : part.serial(), nowNs);
+            records.event(new SequenceRecord.SensorFault(part == null ? null : part.serial(), names, nowNs));
         }
     }
 
@@ -362,19 +341,19 @@ public final class Sequence {
     // ---- storing ------------------------------------------------------------------------------
 
     /** The oldest record waiting to be stored, or null; none is handed out while a store fault stands. */
-    public Store nextToStore() {
+    public SequenceRecord nextToStore() {
         return phase == Phase.FAULT ? null : records.peek();
     }
 
     /** The record from {@link #nextToStore()} was stored; a joint's verdict shows now. */
     public void stored(ResultSink.Receipt receipt, long nowNs) {
-        Store done = records.poll();
-        if (done instanceof Store.Joint) {
+        SequenceRecord done = records.poll();
+        if (done instanceof SequenceRecord.JointJudged) {
             progress.jointStored(receipt.id());
             if (phase == Phase.STORING) {
                 applyVerdict(nowNs);
             }
-        } else if (done instanceof Store.Part && phase == Phase.COMPLETE && !completeOnDisk) {
+        } else if (done instanceof SequenceRecord.PartClosed && phase == Phase.COMPLETE && !completeOnDisk) {
             completeOnDisk = true; // the part's GO shows from now, for the whole hold
             completeAtNs = nowNs;
         }
@@ -538,9 +517,7 @@ public final class Sequence {
         } else {
             progress.failed(pos, pass.afterNoGo() == AfterNoGo.SKIP_POSITION);
             reworkRetry = false;
-            records.event(StationEvent.Severity.ALARM, "POSITION_FAILED", "position " + label(pos) + " is NO_GO after "
-                    + tried + (tried == 1 ? " attempt" : " attempts") + " in pass " + pass.name(),
-                    part.serial(), nowNs);
+            records.event(new SequenceRecord.PositionFailed(part.serial(), position(pos), tried, pass.name(), nowNs));
             if (pass.afterNoGo() == AfterNoGo.REJECT) {
                 prompted = -1;
                 phase = Phase.REJECTED;
@@ -556,8 +533,7 @@ public final class Sequence {
     }
 
     private void releaseRework(String by, long nowNs) {
-        records.event(StationEvent.Severity.NOTICE, "REWORK_ACKNOWLEDGED", "NO_GO on position " + label(reworkPosition)
-                + " acknowledged by the " + by, part.serial(), nowNs);
+        records.event(new SequenceRecord.ReworkAcknowledged(part.serial(), position(reworkPosition), by, nowNs));
         if (reworkRetry) {
             prompted = reworkPosition;
             phase = Phase.PROMPT;
@@ -584,10 +560,10 @@ public final class Sequence {
     }
 
     private void partRecord(String verdict, String ended, long nowNs) {
-        records.part(part, patternId, verdict, ended, progress.jointIds(), partStarted, nowNs);
+        records.part(part, patternId, verdict, ended, progress.jointIds(), partStartedNs, nowNs);
     }
 
-    private String label(int pos) {
-        return pos < 0 ? "-" : (pos + 1) + " (" + pattern.positions().get(pos) + ")";
+    private SequenceRecord.Position position(int pos) {
+        return Records.position(pattern, pos);
     }
 }

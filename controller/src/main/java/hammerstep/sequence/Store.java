@@ -7,7 +7,11 @@ import hammerstep.results.ResultSink;
 import hammerstep.results.ResultStoreException;
 import hammerstep.results.StationEvent;
 
-/** A record the sequence asks the station to store, in the order asked. */
+/**
+ * A record as the journal stores it, stamped with wall-clock time: the sequence's records once the
+ * station loop stamped and worded them ({@code hammerstep.station.loop.SequenceRecords}), and the loop's
+ * own events (tool health, interference).
+ */
 public sealed interface Store extends JournalWriter.Storable {
 
     record Joint(JointOutcome outcome) implements Store {

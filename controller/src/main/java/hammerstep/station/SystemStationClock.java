@@ -2,7 +2,7 @@ package hammerstep.station;
 
 import java.time.Instant;
 
-/** The real clock: {@link System#nanoTime()} for time, the system's UTC clock for stamps. */
+/** The real clock: {@link System#nanoTime()} for time, the system's UTC clock for stamps. Stateless, thread-safe. */
 public final class SystemStationClock implements StationClock {
 
     @Override
@@ -14,5 +14,10 @@ public final class SystemStationClock implements StationClock {
     @Override
     public Instant instantOf(long nanoTime) {
         return Instant.now().minusNanos(System.nanoTime() - nanoTime);
+    }
+
+    @Override
+    public Instant now() {
+        return Instant.now();
     }
 }

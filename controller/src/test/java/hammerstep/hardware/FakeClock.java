@@ -1,9 +1,11 @@
 package hammerstep.hardware;
 
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
+
+import java.time.Instant;
 
 /** A clock that moves only when told to; optionally a step on every reading (for timeouts). */
-final class FakeClock implements NanoClock {
+final class FakeClock implements StationClock {
 
     long nowNs;
     long stepPerReadNs;
@@ -13,6 +15,11 @@ final class FakeClock implements NanoClock {
         long t = nowNs;
         nowNs += stepPerReadNs;
         return t;
+    }
+
+    @Override
+    public Instant instantOf(long nanoTime) {
+        return Instant.EPOCH.plusNanos(nanoTime);
     }
 
     void advanceNs(long ns) {

@@ -9,6 +9,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.MessageSchemas;
 import hammerstep.results.Samples;
+import hammerstep.station.FixedWallClock;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -16,8 +17,6 @@ import org.junit.jupiter.params.provider.ValueSource;
 import org.slf4j.LoggerFactory;
 
 import java.nio.charset.StandardCharsets;
-import java.time.Clock;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Random;
@@ -54,12 +53,12 @@ class CommandFuzzTest {
         log.setAdditive(false); // kept here, not printed
         logged.start();
         log.addAppender(logged);
-        Clock wall = Clock.fixed(Samples.T0, ZoneOffset.UTC);
+        FixedWallClock clock = new FixedWallClock(() -> 1_000_000_000L, Samples.T0);
         publisher = new ResultPublisher(new MemoryOutbox(), Samples.STATION, () -> {
             FakeLink l = new FakeLink();
             links.add(l);
             return l;
-        }, station, BrokerSettings.plain("tcp://127.0.0.1:1883", "hub-fit-1"), () -> 1_000_000_000L, wall, 7, "test");
+        }, station, BrokerSettings.plain("tcp://127.0.0.1:1883", "hub-fit-1"), clock, 7, "test");
     }
 
     @AfterEach

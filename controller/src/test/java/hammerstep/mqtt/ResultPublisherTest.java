@@ -6,12 +6,11 @@ import hammerstep.results.MemoryOutbox;
 import hammerstep.results.MessageSchemas;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.Samples;
+import hammerstep.station.FixedWallClock;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 
 import java.nio.charset.StandardCharsets;
-import java.time.Clock;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicInteger;
@@ -34,15 +33,15 @@ class ResultPublisherTest {
     @BeforeEach
     void setUp() {
         outbox = new MemoryOutbox();
-        Clock wall = Clock.fixed(Samples.T0, ZoneOffset.UTC);
-        sink = new OutboxResultSink(outbox, Samples.STATION, () -> "id-" + ids.incrementAndGet(), wall);
+        FixedWallClock clock = new FixedWallClock(() -> nowNs, Samples.T0);
+        sink = new OutboxResultSink(outbox, Samples.STATION, () -> "id-" + ids.incrementAndGet(), clock);
         BrokerSettings settings = BrokerSettings.plain("tcp://127.0.0.1:1883", "hub-fit-1");
         publisher = new ResultPublisher(outbox, Samples.STATION, () -> {
             FakeLink l = new FakeLink();
             l.refuseConnect = refuseNext;
             links.add(l);
             return l;
-        }, station, settings, () -> nowNs, wall, 7, "test");
+        }, station, settings, clock, 7, "test");
     }
 
     private FakeLink link() {

@@ -11,6 +11,7 @@ import hammerstep.results.ResultStoreException;
 import hammerstep.results.Samples;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.FixedWallClock;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -18,8 +19,6 @@ import org.junit.jupiter.api.io.TempDir;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Clock;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicInteger;
@@ -58,8 +57,8 @@ class SeqCrossCheckTest {
 
     private void wire(Outbox outbox) {
         opened.add(outbox);
-        Clock wall = Clock.fixed(Samples.T0, ZoneOffset.UTC);
-        sink = new OutboxResultSink(outbox, Samples.STATION, () -> "id-" + ids.incrementAndGet(), wall);
+        FixedWallClock clock = new FixedWallClock(() -> nowNs, Samples.T0);
+        sink = new OutboxResultSink(outbox, Samples.STATION, () -> "id-" + ids.incrementAndGet(), clock);
         publisher = new ResultPublisher(outbox, Samples.STATION, () -> {
             FakeLink l = new FakeLink();
             if (retained != null) {
@@ -69,7 +68,7 @@ class SeqCrossCheckTest {
             l.refuseSubscription = refuse;
             links.add(l);
             return l;
-        }, new RecordingStation(), BrokerSettings.plain("tcp://127.0.0.1:1883", "hub-fit-1"), () -> nowNs, wall, 7,
+        }, new RecordingStation(), BrokerSettings.plain("tcp://127.0.0.1:1883", "hub-fit-1"), clock, 7,
                 "test");
     }
 

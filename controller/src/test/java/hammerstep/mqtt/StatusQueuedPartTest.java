@@ -5,11 +5,10 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.MessageSchemas;
 import hammerstep.results.StationId;
+import hammerstep.station.VirtualClock;
 import org.junit.jupiter.api.Test;
 
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.CompletionStage;
 
@@ -44,7 +43,7 @@ class StatusQueuedPartTest {
         };
         StatusMessage s = new StatusMessage(new MemoryOutbox(), new StationId("plant-north", "axle-2", "hub-fit-1"),
                 station, BrokerSettings.plain("tcp://127.0.0.1:1883", "hub-fit-1"),
-                Clock.fixed(Instant.parse("2026-03-04T05:06:07Z"), ZoneOffset.UTC), "1.0");
+                new VirtualClock(Instant.parse("2026-03-04T05:06:07Z")), "1.0");
         byte[] bytes = s.bytes("online");
         MessageSchemas.assertValid(bytes);
         return JSON.readTree(bytes);

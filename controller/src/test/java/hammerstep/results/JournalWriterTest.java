@@ -1,6 +1,7 @@
 package hammerstep.results;
 
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.VirtualClock;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -8,9 +9,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 
 import java.nio.file.Path;
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicLong;
@@ -47,7 +46,7 @@ class JournalWriterTest {
 
     private JournalWriter writer(Outbox box) {
         return new JournalWriter(new OutboxResultSink(box, new StationId("s", "l", "st"),
-                () -> "id-" + ids.incrementAndGet(), Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), box, 4);
+                () -> "id-" + ids.incrementAndGet(), new VirtualClock(Instant.EPOCH)), box, 4);
     }
 
     private static JournalWriter.Storable joint(int n) {

@@ -1,11 +1,10 @@
 package hammerstep.results;
 
+import hammerstep.station.VirtualClock;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import org.junit.jupiter.api.Test;
 
-import java.time.Clock;
-import java.time.ZoneOffset;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicInteger;
 
@@ -15,7 +14,7 @@ class OutboxResultSinkTest {
 
     private static final ObjectMapper JSON = new ObjectMapper();
     private final AtomicInteger next = new AtomicInteger();
-    private final Clock clock = Clock.fixed(Samples.T0, ZoneOffset.UTC);
+    private final VirtualClock clock = new VirtualClock(Samples.T0);
 
     private OutboxResultSink sink(Outbox box) {
         return new OutboxResultSink(box, Samples.STATION, () -> "id-" + next.incrementAndGet(), clock);

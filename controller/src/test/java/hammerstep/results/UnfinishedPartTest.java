@@ -1,12 +1,11 @@
 package hammerstep.results;
 
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.VirtualClock;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.nio.file.Path;
-import java.time.Clock;
-import java.time.ZoneOffset;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicInteger;
 
@@ -26,7 +25,7 @@ class UnfinishedPartTest {
 
     private OutboxResultSink sink(Outbox box) {
         return new OutboxResultSink(box, Samples.STATION, () -> "id-" + next.incrementAndGet(),
-                Clock.fixed(Samples.T0, ZoneOffset.UTC));
+                new VirtualClock(Samples.T0));
     }
 
     private static JointOutcome joint(String serial, int position) {

@@ -4,6 +4,7 @@ import hammerstep.joint.JointResult;
 import hammerstep.results.ResultSink;
 import hammerstep.station.PartIdentity;
 import hammerstep.station.VirtualClock;
+import hammerstep.station.loop.SequenceRecords;
 
 import java.time.Instant;
 import java.util.ArrayList;
@@ -14,12 +15,14 @@ final class Harness {
 
     final VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
     final Sequence seq;
+    /** What the sequence handed out, as typed records and as the loop stamps and words them for the journal. */
+    final List<SequenceRecord> records = new ArrayList<>();
     final List<Store> stored = new ArrayList<>();
     boolean storeFails;
     private long seq0;
 
     Harness(boolean confirmSensors) {
-        seq = new Sequence(clock, new Sequence.Settings("TQ-0042", null, 500), confirmSensors);
+        seq = new Sequence(new Sequence.Settings("TQ-0042", null, 500), confirmSensors);
     }
 
     long now() {
@@ -42,15 +45,21 @@ final class Harness {
     }
 
     void drain() {
-        Store s;
-        while ((s = seq.nextToStore()) != null) {
+        SequenceRecord r;
+        while ((r = seq.nextToStore()) != null) {
             if (storeFails) {
                 seq.storeFailed(now());
                 return;
             }
-            stored.add(s);
+            take(r);
             seq.stored(new ResultSink.Receipt("r" + seq0, seq0++), now());
         }
+    }
+
+    /** Keeps {@code r} as the loop would hand it to the journal. */
+    void take(SequenceRecord r) {
+        records.add(r);
+        stored.add(SequenceRecords.toStore(r, clock));
     }
 
     void ack() {

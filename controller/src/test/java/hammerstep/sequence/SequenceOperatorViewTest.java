@@ -110,15 +110,15 @@ class SequenceOperatorViewTest {
         h.seq.rundownStarted(h.now());
         h.seq.jointJudged(go(FINAL), h.now());
         long storedAt = h.now();
-        h.stored.add(h.seq.nextToStore());
+        h.take(h.seq.nextToStore());
         h.seq.stored(new ResultSink.Receipt("j1", 1), storedAt);
         assertThat(h.seq.phase()).isEqualTo(Phase.COMPLETE);
         assertThat(h.seq.tower(TowerLamp.GREEN)).as("the part's GO record is not on disk yet").isEqualTo(LampMode.OFF);
         h.seq.onTick(storedAt + 5_000_000_000L);
         assertThat(h.seq.phase()).as("the hold waits for the part record").isEqualTo(Phase.COMPLETE);
         storedAt += 700_000_000L; // a stalled forced write
-        assertThat(h.seq.nextToStore()).isInstanceOf(Store.Part.class);
-        h.stored.add(h.seq.nextToStore());
+        assertThat(h.seq.nextToStore()).isInstanceOf(SequenceRecord.PartClosed.class);
+        h.take(h.seq.nextToStore());
         h.seq.stored(new ResultSink.Receipt("p1", 1), storedAt);
         assertThat(h.seq.tower(TowerLamp.GREEN)).isEqualTo(LampMode.STEADY);
         h.seq.onTick(storedAt + 500_000_000L - 1);

@@ -6,11 +6,10 @@ import hammerstep.mqtt.ResultPublisher;
 import hammerstep.mqtt.StationCommands;
 import hammerstep.results.MemoryOutbox;
 import hammerstep.results.StationId;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 
 import java.nio.charset.StandardCharsets;
-import java.time.Clock;
 
 /**
  * A command burst beside the station thread, for {@code ShutoffLatencyBenchmark -p commands=burst}:
@@ -32,8 +31,8 @@ final class CommandFlood {
 
     private CommandFlood() {
         publisher = new ResultPublisher(new MemoryOutbox(), new StationId("b", "b", "b"), () -> link,
-                StationCommands.NONE, BrokerSettings.plain("tcp://127.0.0.1:1883", "b"), new SystemNanoClock(),
-                Clock.systemUTC(), 1, "bench");
+                StationCommands.NONE, BrokerSettings.plain("tcp://127.0.0.1:1883", "b"), 
+                new SystemStationClock(), 1, "bench");
         runner = ResultPublisher.start(publisher);
         feeder = new Thread(this::feed, "command-flood");
         feeder.setDaemon(true);

@@ -42,9 +42,7 @@ import org.agrona.concurrent.AgentRunner;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
@@ -173,7 +171,7 @@ public class ShutoffLatencyBenchmark {
         relay = new Relay();
         long[] ids = {0};
         StationPorts ports = new StationPorts(ring, new DarkLamps(), relay, new Idle(), scanner);
-        Sequence sequence = new Sequence(clock, new Sequence.Settings("TQ", null, 0), false);
+        Sequence sequence = new Sequence(new Sequence.Settings("TQ", null, 0), false);
         if (journal.startsWith("file")) {
             journalDir = Files.createTempDirectory("hammerstep-bench-journal-");
             fileOutbox = FileOutbox.open(StorageSettings.defaults(journalDir));
@@ -181,12 +179,12 @@ public class ShutoffLatencyBenchmark {
         if (journal.equals("file-inline")) {
             agent = new StationAgent(clock, ports,
                     new OutboxResultSink(fileOutbox, new StationId("b", "b", "b"), () -> "id" + ids[0]++,
-                            Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), sequence, Map.of("M", pattern),
+                            new VirtualClock(Instant.EPOCH)), sequence, Map.of("M", pattern),
                     JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
                     Throwable::printStackTrace);
         } else if (journal.equals("file")) {
             JournalWriter writer = new JournalWriter(new OutboxResultSink(fileOutbox, new StationId("b", "b", "b"),
-                    () -> "id" + ids[0]++, Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), fileOutbox,
+                    () -> "id" + ids[0]++, new VirtualClock(Instant.EPOCH)), fileOutbox,
                     JournalWriter.DEFAULT_CAPACITY);
             writerRunner = JournalWriter.start(writer, Throwable::printStackTrace);
             agent = new StationAgent(clock, ports, writer, sequence, Map.of("M", pattern),
@@ -195,7 +193,7 @@ public class ShutoffLatencyBenchmark {
         } else {
             agent = new StationAgent(clock, ports,
                     new OutboxResultSink(new MemoryOutbox(), new StationId("b", "b", "b"), () -> "id" + ids[0]++,
-                            Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), sequence, Map.of("M", pattern),
+                            new VirtualClock(Instant.EPOCH)), sequence, Map.of("M", pattern),
                     JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
                     Throwable::printStackTrace);
         }

@@ -21,7 +21,7 @@ import hammerstep.hardware.SimulatedPart;
 import hammerstep.hardware.SimulatedTransducer;
 import hammerstep.hardware.TransducerSettings;
 import hammerstep.signal.Calibration;
-import org.agrona.concurrent.NanoClock;
+import hammerstep.station.StationClock;
 
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -54,7 +54,7 @@ public final class Pi4jHardware implements AutoCloseable {
     private final List<DigitalOut> outputs = new ArrayList<>();
     private final SimulatedTransducer simulated;
 
-    private Pi4jHardware(Pi4jBoard board, HardwareSettings hw, TransducerSettings td, NanoClock clock,
+    private Pi4jHardware(Pi4jBoard board, HardwareSettings hw, TransducerSettings td, StationClock clock,
                          SimulatedTransducer simulated) {
         this.board = board;
         this.simulated = simulated;
@@ -100,7 +100,7 @@ public final class Pi4jHardware implements AutoCloseable {
 
     /** Opens the station's hardware; a machine without GPIO fails with a one-line {@link hammerstep.hardware.HardwareException}. */
     /** For tests: the hardware on a given board (a mock board with a recorded part). */
-    static Pi4jHardware open(Pi4jBoard board, HardwareSettings hw, TransducerSettings td, NanoClock clock) {
+    static Pi4jHardware open(Pi4jBoard board, HardwareSettings hw, TransducerSettings td, StationClock clock) {
         return new Pi4jHardware(board, hw, td, clock, null);
     }
 
@@ -108,7 +108,7 @@ public final class Pi4jHardware implements AutoCloseable {
         return board;
     }
 
-    public static Pi4jHardware open(Mode mode, HardwareSettings hw, TransducerSettings td, NanoClock clock) {
+    public static Pi4jHardware open(Mode mode, HardwareSettings hw, TransducerSettings td, StationClock clock) {
         if (mode == Mode.GPIO) {
             return new Pi4jHardware(Pi4jBoard.gpio(hw.adc().spiBus(), hw.adc().spiChipSelect()), hw, td, clock, null);
         }

@@ -15,6 +15,7 @@ import hammerstep.results.StationEvent;
 import hammerstep.results.UnfinishedPart;
 import hammerstep.sequence.Pattern;
 import hammerstep.sequence.Sequence;
+import hammerstep.sequence.SequenceRecord;
 import hammerstep.sequence.Store;
 import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
@@ -361,10 +362,11 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
                 n++;
             }
             if (awaiting == null) {
-                Store s = sequence.nextToStore();
-                if (s == null) {
+                SequenceRecord r = sequence.nextToStore();
+                if (r == null) {
                     break;
                 }
+                Store s = SequenceRecords.toStore(r, clock);
                 if (traces != null && s instanceof Store.Joint j) {
                     s = new Store.Joint(traces.keep(j.outcome()));
                 }

@@ -10,15 +10,17 @@ import hammerstep.hardware.HardwareConfig;
 import hammerstep.hardware.HardwareException;
 import hammerstep.hardware.SimulatedAds1256;
 import hammerstep.hardware.SimulatedMcp3208;
+import hammerstep.station.FixedWallClock;
 import hammerstep.station.SampleRing;
+import hammerstep.station.StationClock;
 import hammerstep.station.TowerLamp;
-import org.agrona.concurrent.NanoClock;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 
 import java.lang.reflect.Method;
 import java.lang.reflect.Modifier;
+import java.time.Instant;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -54,7 +56,7 @@ class Pi4jHardwareTest {
             """;
 
     final long[] now = {0};
-    final NanoClock clock = () -> now[0];
+    final StationClock clock = new FixedWallClock(() -> now[0], Instant.EPOCH);
     final List<AutoCloseable> open = new ArrayList<>();
 
     @AfterEach

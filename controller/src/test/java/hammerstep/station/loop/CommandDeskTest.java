@@ -23,9 +23,7 @@ import hammerstep.station.SampleRing;
 import hammerstep.station.VirtualClock;
 import org.junit.jupiter.api.Test;
 
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -46,7 +44,7 @@ class CommandDeskTest {
     private final AtomicLong ids = new AtomicLong();
     private final MemoryOutbox outbox = new MemoryOutbox();
     private final StorageSwitch sink = new StorageSwitch(new OutboxResultSink(outbox, new StationId("s", "l", "st"),
-            () -> "id-" + ids.incrementAndGet(), Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)));
+            () -> "id-" + ids.incrementAndGet(), new VirtualClock(Instant.EPOCH)));
     private final List<PartOutcome> parts = new ArrayList<>();
     private final List<StationEvent> events = new ArrayList<>();
     private final AtomicReference<Map<String, Pattern>> onDisk = new AtomicReference<>(Map.of("M", pattern("p2", FINAL)));
@@ -59,7 +57,7 @@ class CommandDeskTest {
     });
     private final StationAgent agent = new StationAgent(clock, new StationPorts(new SampleRing(20_000, 64, 4),
             new Fakes.RecordingLamps(4), new Fakes.RecordingTool(), inputs, new Fakes.Scanner()), sink,
-            new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), onDisk.get(),
+            new Sequence(new Sequence.Settings("TQ-1", null, 300), false), onDisk.get(),
             JointMonitor.replayConditioning(FINAL), 1_000_000_000L, new StationListener() {
                 @Override
                 public void onPart(PartOutcome part, ResultSink.Receipt receipt) {

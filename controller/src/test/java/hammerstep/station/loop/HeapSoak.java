@@ -17,9 +17,7 @@ import org.junit.jupiter.api.Test;
 import java.io.File;
 import java.lang.management.ManagementFactory;
 import java.lang.management.MemoryMXBean;
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -73,9 +71,9 @@ class HeapSoak {
     void heapThreadsAndFileHandlesStayFlatOver100000Joints() throws Exception {
         Outbox outbox = new MemoryOutbox();
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + (++ids),
-                Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
+                new VirtualClock(Instant.EPOCH));
         StationAgent agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
+                new Sequence(new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
                 JointMonitor.replayConditioning(FINAL), 1_000_000_000L, new StationListener() {
                     @Override
                     public void onJoint(JointOutcome joint, ResultSink.Receipt receipt) {

@@ -44,7 +44,7 @@ public final class KillableStation {
         VirtualClock clock = new VirtualClock(Instant.parse("2026-03-02T06:00:00Z"));
         StationAgent agent = new StationAgent(clock, new StationPorts(ring, new Fakes.RecordingLamps(4), tool,
                 inputs, scanner), new OutboxResultSink(outbox, ID),
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
+                new Sequence(new Sequence.Settings("TQ-1", null, 1), false), Map.of("M", PATTERN),
                 JointMonitor.replayConditioning(FINAL), 1_000_000_000L, StationListener.NONE, t -> {
                     t.printStackTrace();
                     System.exit(3);

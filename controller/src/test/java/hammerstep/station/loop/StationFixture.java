@@ -22,9 +22,7 @@ import hammerstep.station.SampleRing;
 import hammerstep.station.VirtualClock;
 import org.agrona.ErrorHandler;
 
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -102,9 +100,9 @@ final class StationFixture {
     StationAgent start(Outbox outbox, Conditioning conditioning, Map<String, Pattern> patterns,
                        ErrorHandler errorHandler) {
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
-                Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
+                new VirtualClock(Instant.EPOCH));
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), sink,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), patterns,
+                new Sequence(new Sequence.Settings("TQ-1", null, 300), false), patterns,
                 conditioning, 1_000_000_000L, StationListener.both(reports, extra), errorHandler);
         return agent;
     }
@@ -117,11 +115,11 @@ final class StationFixture {
      */
     StationAgent startOnWriter(Outbox outbox, Conditioning conditioning, long stallNs) {
         ResultSink sink = new OutboxResultSink(outbox, ID, () -> "id-" + ids.incrementAndGet(),
-                Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
+                new VirtualClock(Instant.EPOCH));
         writer = new JournalWriter(sink, outbox, JournalWriter.DEFAULT_CAPACITY);
         writeStallNs = stallNs;
         agent = new StationAgent(clock, new StationPorts(ring, lamps, tool, inputs, scanner), writer,
-                new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
+                new Sequence(new Sequence.Settings("TQ-1", null, 300), false), Map.of("M", PATTERN),
                 conditioning, 1_000_000_000L, reports, errors::add);
         return agent;
     }

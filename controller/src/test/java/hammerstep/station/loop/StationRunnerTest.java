@@ -18,7 +18,6 @@ import hammerstep.station.SystemStationClock;
 import hammerstep.station.ToolEnable;
 import org.junit.jupiter.api.Test;
 
-import java.time.Clock;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.ConcurrentLinkedQueue;
@@ -62,8 +61,8 @@ class StationRunnerTest {
         StationAgent agent = new StationAgent(clock,
                 new StationPorts(new SampleRing(20_000, 16, 8), new Fakes.RecordingLamps(1), tool, new Fakes.Inputs(),
                         scanner),
-                new OutboxResultSink(new MemoryOutbox(), new StationId("s", "l", "t"), () -> "x", Clock.systemUTC()),
-                new Sequence(clock, new Sequence.Settings("TQ", null, 500), false), Map.of("M", pattern),
+                new OutboxResultSink(new MemoryOutbox(), new StationId("s", "l", "t"), () -> "x", new SystemStationClock()),
+                new Sequence(new Sequence.Settings("TQ", null, 500), false), Map.of("M", pattern),
                 JointMonitor.replayConditioning(p), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
         StationRunner runner = new StationRunner(agent).start();
         try {

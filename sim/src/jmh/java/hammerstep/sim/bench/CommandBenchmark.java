@@ -26,7 +26,6 @@ import hammerstep.station.loop.StationListener;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -41,7 +40,6 @@ import org.openjdk.jmh.annotations.TearDown;
 import org.openjdk.jmh.annotations.Warmup;
 
 import java.nio.charset.StandardCharsets;
-import java.time.Clock;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
@@ -84,14 +82,14 @@ public class CommandBenchmark {
             MemoryOutbox outbox = new MemoryOutbox();
             StationAgent agent = new StationAgent(clock, new StationPorts(new SampleRing(20_000, 64, 16), new NoLamps(),
                     on -> { }, new NoInputs(), () -> null), new OutboxResultSink(outbox, BenchResults.STATION),
-                    new Sequence(clock, new Sequence.Settings("TQ-1", null, 300), false), Map.of("hub-5", pattern),
+                    new Sequence(new Sequence.Settings("TQ-1", null, 300), false), Map.of("hub-5", pattern),
                     JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE, Throwable::printStackTrace);
             CommandDesk desk = new CommandDesk(null);
             agent.takeCommands(desk);
             station = new StationRunner(agent).start();
             BrokerSettings settings = BrokerSettings.plain(broker.url(), "hub-fit-1");
             ResultPublisher publisher = new ResultPublisher(outbox, BenchResults.STATION, () -> new PahoLink(settings),
-                    desk, settings, new SystemNanoClock(), Clock.systemUTC(), 1, "bench");
+                    desk, settings, new SystemStationClock(), 1, "bench");
             delivery = ResultPublisher.start(publisher);
             topic = publisher.topics().prefix() + "cmd/end-part";
             statusTopic = publisher.topics().prefix() + "cmd/status";

@@ -11,8 +11,8 @@ import hammerstep.results.ResultSink;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
 import hammerstep.sim.broker.EmbeddedBroker;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -29,7 +29,6 @@ import org.openjdk.jmh.annotations.Warmup;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Clock;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicLong;
 
@@ -81,7 +80,7 @@ public class DeliveryBenchmark {
 
         void startDelivery() {
             ResultPublisher p = new ResultPublisher(outbox, BenchResults.STATION, () -> new PahoLink(settings),
-                    StationCommands.NONE, settings, new SystemNanoClock(), Clock.systemUTC(), 1, "bench");
+                    StationCommands.NONE, settings, new SystemStationClock(), 1, "bench");
             runner = ResultPublisher.start(p);
         }
 

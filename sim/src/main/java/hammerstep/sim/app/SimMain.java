@@ -14,6 +14,7 @@ import picocli.CommandLine.Command;
 public final class SimMain {
 
     public static void main(String[] args) {
+        StartingLine.write(args, System.console() != null, System.out);
         System.exit(run(args));
     }
 

@@ -16,8 +16,9 @@ import hammerstep.results.StationId;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
 import hammerstep.sim.broker.EmbeddedBroker;
+import hammerstep.station.SystemStationClock;
+import hammerstep.station.VirtualClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 
 import java.io.BufferedWriter;
 import java.io.IOException;
@@ -26,9 +27,7 @@ import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.Comparator;
 import java.util.EnumMap;
 import java.util.HashSet;
@@ -127,10 +126,10 @@ final class DemoDelivery implements AutoCloseable {
             BrokerSettings fixed = settings;
             // ids are random UUIDs, so a resumed run never repeats one; the sink's own events carry a fixed time
             JournalWriter journal = new JournalWriter(new OutboxResultSink(outbox, station,
-                    () -> UUID.randomUUID().toString(), Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)), outbox,
+                    () -> UUID.randomUUID().toString(), new VirtualClock(Instant.EPOCH)), outbox,
                     JournalWriter.DEFAULT_CAPACITY);
             ResultPublisher publisher = new ResultPublisher(journal.forDelivery(), station, () -> new PahoLink(fixed),
-                    commands, fixed, new SystemNanoClock(), Clock.systemUTC(), o.seed(),
+                    commands, fixed, new SystemStationClock(), o.seed(),
                     "hammerstep-sim demo");
             DemoDelivery d = new DemoDelivery(station, state, temporary, outbox, journal, broker, url, subscriber,
                     out);

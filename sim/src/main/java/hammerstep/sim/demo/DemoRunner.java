@@ -42,8 +42,6 @@ import hammerstep.web.WebView;
 import java.io.PrintStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Clock;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
@@ -166,7 +164,7 @@ public final class DemoRunner {
         long[] ids = {0};
         JournalWriter journal = delivery != null ? delivery.journal()
                 : new JournalWriter(new OutboxResultSink(new MemoryOutbox(), id, () -> id.station() + "-" + (++ids[0]),
-                Clock.fixed(state.start(), ZoneOffset.UTC)));
+                new VirtualClock(state.start())));
         Set<String> serials = new HashSet<>();
         for (PartIdentity p : parts) {
             serials.add(p.serial());

@@ -47,7 +47,7 @@ public final class SimulatedStation {
         this.hardware = hardware;
         this.blockNs = hardware.blockNs();
         this.journal = journal;
-        Sequence sequence = new Sequence(clock, settings, hardware.fixture().confirmSensors());
+        Sequence sequence = new Sequence(settings, hardware.fixture().confirmSensors());
         this.agent = new StationAgent(clock, hardware.ports(), journal, sequence, patternsByModel, conditioning,
                 blinkPeriodNs, listener, errors);
         this.operator = new ScriptedOperator(hardware, habits, parts, seed);

@@ -9,14 +9,13 @@ import hammerstep.results.MessageSchemas;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.nio.file.Path;
-import java.time.Clock;
 import java.time.Duration;
 import java.util.List;
 
@@ -60,7 +59,7 @@ class LastWillIT {
                         1L << 30, 0, 0));
                 OutboxResultSink sink = new OutboxResultSink(outbox, TestResults.STATION);
                 ResultPublisher publisher = new ResultPublisher(outbox, TestResults.STATION, () -> new PahoLink(s),
-                        StationCommands.NONE, s, new SystemNanoClock(), Clock.systemUTC(), 1, "test");
+                        StationCommands.NONE, s, new SystemStationClock(), 1, "test");
                 AgentRunner runner = ResultPublisher.start(publisher);
                 try (QualityClient qs = QualityClient.connect(broker.url(), "qs-will", got::add)) {
                     qs.subscribe(STATUS);

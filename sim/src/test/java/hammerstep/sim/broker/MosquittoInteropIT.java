@@ -9,8 +9,8 @@ import hammerstep.results.MessageSchemas;
 import hammerstep.results.OutboxResultSink;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -18,7 +18,6 @@ import org.junit.jupiter.api.io.TempDir;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
-import java.time.Clock;
 import java.time.Duration;
 import java.util.Map;
 import java.util.stream.LongStream;
@@ -103,7 +102,7 @@ class MosquittoInteropIT {
         try (FileOutbox outbox = FileOutbox.open(new StorageSettings(state, 1 << 20, 1 << 20, 1L << 30, 0, 0))) {
             OutboxResultSink sink = new OutboxResultSink(outbox, TestResults.STATION);
             ResultPublisher publisher = new ResultPublisher(outbox, TestResults.STATION, () -> new PahoLink(s),
-                    StationCommands.NONE, s, new SystemNanoClock(), Clock.systemUTC(), 1, "test");
+                    StationCommands.NONE, s, new SystemStationClock(), 1, "test");
             AgentRunner runner = ResultPublisher.start(publisher);
             try {
                 sink.joint(TestResults.joint(1));

@@ -13,8 +13,8 @@ import hammerstep.results.OutboxResultSink;
 import hammerstep.results.StationId;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
@@ -26,7 +26,6 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
-import java.time.Clock;
 import java.time.Duration;
 import java.util.List;
 
@@ -178,8 +177,8 @@ class MosquittoTlsIT {
             outbox = FileOutbox.open(new StorageSettings(dir.resolve("state-" + System.nanoTime()), 1 << 20, 1 << 20,
                     1L << 30, 0, 0));
             sink = new OutboxResultSink(outbox, STATION);
-            publisher = new ResultPublisher(outbox, STATION, () -> new PahoLink(s), commands, s, new SystemNanoClock(),
-                    Clock.systemUTC(), 1, "test");
+            publisher = new ResultPublisher(outbox, STATION, () -> new PahoLink(s), commands, s,
+                    new SystemStationClock(), 1, "test");
             runner = ResultPublisher.start(publisher);
         }
 

@@ -8,11 +8,10 @@ import hammerstep.results.OutboxResultSink;
 import hammerstep.results.ResultSink;
 import hammerstep.results.StorageSettings;
 import hammerstep.results.journal.FileOutbox;
+import hammerstep.station.SystemStationClock;
 import org.agrona.concurrent.AgentRunner;
-import org.agrona.concurrent.SystemNanoClock;
 
 import java.nio.file.Path;
-import java.time.Clock;
 
 /** The results side of a station, wired as in the service: file outbox, sink, publisher on its own thread. */
 final class StationHarness implements AutoCloseable {
@@ -27,7 +26,7 @@ final class StationHarness implements AutoCloseable {
         sink = new OutboxResultSink(outbox, TestResults.STATION);
         BrokerSettings s = new BrokerSettings(url, "hub-fit-1", null, null, null, null, null, 10, 5, 100, 1000, 600, 300, 60, 32);
         publisher = new ResultPublisher(outbox, TestResults.STATION, () -> new PahoLink(s), commands, s,
-                new SystemNanoClock(), Clock.systemUTC(), 1, "test");
+                new SystemStationClock(), 1, "test");
         runner = ResultPublisher.start(publisher);
     }
 

@@ -25,9 +25,7 @@ import hammerstep.station.loop.RecordingListener;
 import org.junit.jupiter.api.Test;
 
 import java.nio.file.Path;
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -68,7 +66,7 @@ class LooseningStationTest {
         Habits loosens = new Habits(400, 700, 150, 4000, 5000, 0, 0, 0, 0, 0, 0, 0.3);
         SimulatedStation s = new SimulatedStation(clock, hw,
                 new OutboxResultSink(new MemoryOutbox(), new StationId("t", "t", "t"), () -> "j" + ids[0]++,
-                        Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)),
+                        new VirtualClock(Instant.EPOCH)),
                 Map.of("R", pattern), new Sequence.Settings("TQ", null, 500),
                 JointMonitor.replayConditioning(fin), 1_000_000_000L, loosens,
                 List.of(new PartIdentity("R-1", "R"), new PartIdentity("R-2", "R")), 5, reports, errors::add);

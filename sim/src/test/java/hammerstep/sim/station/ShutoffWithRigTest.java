@@ -22,9 +22,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
 import java.nio.file.Path;
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -69,7 +67,7 @@ class ShutoffWithRigTest {
         long[] ids = {0};
         SimulatedStation s = new SimulatedStation(clock, hw,
                 new OutboxResultSink(new MemoryOutbox(), new StationId("t", "t", "t"), () -> "j" + ids[0]++,
-                        Clock.fixed(Instant.EPOCH, ZoneOffset.UTC)),
+                        new VirtualClock(Instant.EPOCH)),
                 Map.of("R", pattern), new Sequence.Settings("TQ", null, 500),
                 // as the station conditions it: the transducer's range is known (a quantised crest of an
                 // unknown range can pass for a flat top, see docs/design.md)

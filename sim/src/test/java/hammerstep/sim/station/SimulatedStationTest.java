@@ -22,9 +22,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 
-import java.time.Clock;
 import java.time.Instant;
-import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -57,7 +55,7 @@ class SimulatedStationTest {
                 new VirtualStation.Fixture(5, true, confirm, 0), RATE, 64, 16, 1_200_000_000L);
         long[] ids = {0};
         ResultSink sink = new OutboxResultSink(new MemoryOutbox(), new StationId("s", "l", "t"),
-                () -> "j" + ids[0]++, Clock.fixed(Instant.EPOCH, ZoneOffset.UTC));
+                () -> "j" + ids[0]++, new VirtualClock(Instant.EPOCH));
         List<PartIdentity> list = new ArrayList<>();
         for (int i = 0; i < count; i++) {
             list.add(new PartIdentity("SN-" + (100 + i), "HX"));
