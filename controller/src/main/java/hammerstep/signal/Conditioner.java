@@ -456,12 +456,25 @@ public final class Conditioner {
         float high = max;
         float low = min;
         if (!exact) {
-            high = Float.NEGATIVE_INFINITY;
-            low = Float.POSITIVE_INFINITY;
+            // branch-free as in pass; a zero's sign cannot matter here (a rail is beyond the level)
+            int highKey = KEY_NEGATIVE_INFINITY;
+            int lowKey = KEY_POSITIVE_INFINITY;
             for (int i = 0; i < length; i++) {
-                float v = src[base + i];
-                high = v > high ? v : high;
-                low = v < low ? v : low;
+                int k = key(src[base + i]);
+                highKey = Math.max(highKey, k);
+                lowKey = Math.min(lowKey, k);
+            }
+            high = unkey(highKey);
+            low = unkey(lowKey);
+            if (high != high || low != low) {
+                // a NaN, which the float compares pass over
+                high = Float.NEGATIVE_INFINITY;
+                low = Float.POSITIVE_INFINITY;
+                for (int i = 0; i < length; i++) {
+                    float v = src[base + i];
+                    high = v > high ? v : high;
+                    low = v < low ? v : low;
+                }
             }
         }
         // only the block's largest magnitude can be a rail: nothing passes a rail
