@@ -29,7 +29,8 @@ import java.util.concurrent.TimeUnit;
  * realistic block stream at 50 kHz: rundowns of 6 to 20 blows at 1100 to 3300 per minute with
  * noise and offset, separated by idle time, as a station sees it. One operation is one block;
  * samples per second = ops/s × block. {@code copy} moves the same blocks with System.arraycopy,
- * the floor any chain is compared with. {@code rejectImpulses} switches impulse rejection (and its
+ * the floor any chain is compared with; {@code extremes} only reads them and takes their extremes,
+ * the floor of any stage that looks at every sample. {@code rejectImpulses} switches impulse rejection (and its
  * look-ahead copy) and the flat-top check on or off; {@code mainsHz} 50 names the mains frequency
  * (hum cancelling), 0 leaves it unnamed (with rejection on, the hum watchers run instead). The
  * stream carries 5 N·m of 50 Hz hum and 1.5 N·m at 150 Hz either way.
@@ -113,6 +114,40 @@ public class ChainBenchmark {
     public void copy(Blackhole bh) {
         System.arraycopy(stream, next(), copy, 0, block);
         bh.consume(copy);
+    }
+
+    /**
+     * The least a scalar pass over the block costs: it reads each sample once and takes the block's
+     * extremes the way the conditioner's pass does (as integer keys, four accumulators each, no
+     * branch per sample), and does nothing else. No stage that looks at every sample can beat it.
+     */
+    @Benchmark
+    public void extremes(Blackhole bh) {
+        float[] s = stream;
+        int b = next();
+        int max0 = Integer.MIN_VALUE, max1 = max0, max2 = max0, max3 = max0;
+        int min0 = Integer.MAX_VALUE, min1 = min0, min2 = min0, min3 = min0;
+        for (int i = 0; i + 3 < block; i += 4) { // a block of 512: the tail of a block not of fours is left out
+            int k0 = key(s[b + i]);
+            int k1 = key(s[b + i + 1]);
+            int k2 = key(s[b + i + 2]);
+            int k3 = key(s[b + i + 3]);
+            max0 = Math.max(max0, k0);
+            max1 = Math.max(max1, k1);
+            max2 = Math.max(max2, k2);
+            max3 = Math.max(max3, k3);
+            min0 = Math.min(min0, k0);
+            min1 = Math.min(min1, k1);
+            min2 = Math.min(min2, k2);
+            min3 = Math.min(min3, k3);
+        }
+        bh.consume(Math.max(Math.max(max0, max1), Math.max(max2, max3)));
+        bh.consume(Math.min(Math.min(min0, min1), Math.min(min2, min3)));
+    }
+
+    private static int key(float v) {
+        int bits = Float.floatToRawIntBits(v);
+        return bits ^ ((bits >> 31) >>> 1);
     }
 
 

@@ -276,6 +276,12 @@ public final class JointMonitor implements PulseSink {
         long endRel = lastAboveRel + endAfterSamples;
         int i = from;
         boolean ended = false;
+        Conditioner conditioner = stage.conditioner();
+        if (conditioner.conditionedHigh() < level && conditioner.conditionedLow() > low) {
+            // x is the block the stage's conditioner just wrote and nothing in it reaches the level:
+            // go straight to where the rundown ends (the loop then stops there at once), or past the end
+            i = (int) Math.min(stop, Math.max(from, endRel));
+        }
         for (; i < stop; i++) {
             float v = x[i];
             if (v >= level || v <= low) {

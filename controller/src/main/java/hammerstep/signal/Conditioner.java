@@ -163,17 +163,17 @@ public final class Conditioner {
         // the same pass finds the largest bend, and only a block that bends as sharply as an impulse
         // (rare: a strike's crest bends far less) has its impulses replaced and is passed over again
         if (rejector != null && length > 0) {
-            conditionWithBends(src, base, length, out, zero, humPhase);
+            pass(src, base, length, out, zero, humPhase, true);
             if (largestBend >= rejector.level()) {
                 // the rejector would replace a lone absurd or non-finite sample as an impulse: see it
                 // first, wherever in the samples at hand a replacement could reach
                 rawFaults = beyondRange(work, 0, tail.length + length);
                 rejected += rejector.reject(work, ImpulseRejector.HISTORY + 1, base + length + 1);
-                condition(src, base, length, out, zero, humPhase);
+                pass(src, base, length, out, zero, humPhase, false);
             }
             System.arraycopy(work, length, tail, 0, tail.length);
         } else {
-            condition(src, base, length, out, zero, humPhase);
+            pass(src, base, length, out, zero, humPhase, false);
         }
         if (hum != null) {
             hum.advance(length);
@@ -277,7 +277,7 @@ public final class Conditioner {
         return ImpulseRejector.HISTORY;
     }
 
-    /** The hum model where none is subtracted: the oscillator stands at its one entry, 0. */
+    /** The hum model where none is subtracted: the oscillator stands at its one entry, 0 (x − 0 is x). */
     private static final float[] NO_HUM = new float[1];
 
     // what the last pass found, read back by process (four fields rather than an allocated result)
@@ -288,106 +288,25 @@ public final class Conditioner {
     private float largestBend;
 
     /**
-     * {@code out[i] = s[b+i] − hum − zero} for the block, with the extremes and the sum of the
-     * samples less hum (four independent accumulators keep the loop free of long dependency chains).
+     * The block's one pass: {@code out[i] = s[b+i] − hum − zero}, with the extremes and the sum of
+     * the samples less hum, and, with {@code bends} (over {@link #work}, which holds a sample before
+     * the block and the look-ahead after it), the largest bend of the samples as they came at
+     * {@code b .. b+length−1} (where {@link ImpulseRejector#reject} would look for impulses).
+     *
+     * <p>Shaped for the JIT: four independent accumulators of each kind keep the loop free of long
+     * dependency chains; the extremes are taken as integers ({@link #key}) with branch-free integer
+     * max and min, since a float compare-and-keep is a branch that a strike's flank or a hum's rising
+     * half mispredicts on every other sample; a new largest bend is rare, so its compare-and-keep
+     * stays a well-predicted branch. Only where the result could differ from comparing floats (a NaN,
+     * or an extreme that is a zero of either sign) are the extremes taken again as before.
      */
-    private void condition(float[] s, int b, int length, float[] out, float zero, int phase) {
-        if (hum == null) {
-            conditionPlain(s, b, length, out, zero);
-            return;
-        }
-        float[] t = hum.table();
-        int step = hum.step();
-        int p = phase;
-        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
-        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
-        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
-        int i = 0;
-        for (int last = length - 3; i < last; i += 4) {
-            float x0 = s[b + i] - t[p >>> HumCanceller.SHIFT];
-            float x1 = s[b + i + 1] - t[(p + step) >>> HumCanceller.SHIFT];
-            float x2 = s[b + i + 2] - t[(p + 2 * step) >>> HumCanceller.SHIFT];
-            float x3 = s[b + i + 3] - t[(p + 3 * step) >>> HumCanceller.SHIFT];
-            p += 4 * step;
-            max0 = x0 > max0 ? x0 : max0;
-            max1 = x1 > max1 ? x1 : max1;
-            max2 = x2 > max2 ? x2 : max2;
-            max3 = x3 > max3 ? x3 : max3;
-            min0 = x0 < min0 ? x0 : min0;
-            min1 = x1 < min1 ? x1 : min1;
-            min2 = x2 < min2 ? x2 : min2;
-            min3 = x3 < min3 ? x3 : min3;
-            sum0 += x0;
-            sum1 += x1;
-            sum2 += x2;
-            sum3 += x3;
-            out[i] = x0 - zero;
-            out[i + 1] = x1 - zero;
-            out[i + 2] = x2 - zero;
-            out[i + 3] = x3 - zero;
-        }
-        for (; i < length; i++) {
-            float x = s[b + i] - t[p >>> HumCanceller.SHIFT];
-            p += step;
-            max0 = x > max0 ? x : max0;
-            min0 = x < min0 ? x : min0;
-            sum0 += x;
-            out[i] = x - zero;
-        }
-        keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
-    }
-
-    private void conditionPlain(float[] s, int b, int length, float[] out, float zero) {
-        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
-        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
-        float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
-        int i = 0;
-        for (int last = length - 3; i < last; i += 4) {
-            float x0 = s[b + i];
-            float x1 = s[b + i + 1];
-            float x2 = s[b + i + 2];
-            float x3 = s[b + i + 3];
-            max0 = x0 > max0 ? x0 : max0;
-            max1 = x1 > max1 ? x1 : max1;
-            max2 = x2 > max2 ? x2 : max2;
-            max3 = x3 > max3 ? x3 : max3;
-            min0 = x0 < min0 ? x0 : min0;
-            min1 = x1 < min1 ? x1 : min1;
-            min2 = x2 < min2 ? x2 : min2;
-            min3 = x3 < min3 ? x3 : min3;
-            sum0 += x0;
-            sum1 += x1;
-            sum2 += x2;
-            sum3 += x3;
-            out[i] = x0 - zero;
-            out[i + 1] = x1 - zero;
-            out[i + 2] = x2 - zero;
-            out[i + 3] = x3 - zero;
-        }
-        for (; i < length; i++) {
-            float x = s[b + i];
-            max0 = x > max0 ? x : max0;
-            min0 = x < min0 ? x : min0;
-            sum0 += x;
-            out[i] = x - zero;
-        }
-        keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
-    }
-
-    /**
-     * {@link #condition} over {@link #work}, which holds a sample before the block and the look-ahead
-     * after it, that also takes the largest bend of the samples as they came, at {@code b+1 ..
-     * b+length} (where {@link ImpulseRejector#reject} would look for impulses).
-     */
-    private void conditionWithBends(float[] s, int b, int length, float[] out, float zero, int phase) {
+    private void pass(float[] s, int b, int length, float[] out, float zero, int phase, boolean bends) {
         float[] t = hum == null ? NO_HUM : hum.table();
         int step = hum == null ? 0 : hum.step();
         int p = phase;
-        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
-        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
+        int max0 = KEY_NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
+        int min0 = KEY_POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
         float sum0 = 0f, sum1 = 0f, sum2 = 0f, sum3 = 0f;
-        // Math.abs is one and-instruction; a new largest bend is rare, so the compare-and-keep is a
-        // well-predicted branch where Math.max would pay for its NaN handling on every sample
         float m0 = 0f, m1 = 0f, m2 = 0f, m3 = 0f;
         int i = 0;
         for (int last = length - 3; i < last; i += 4) {
@@ -395,36 +314,42 @@ public final class Conditioner {
             float r1 = s[b + i + 1];
             float r2 = s[b + i + 2];
             float r3 = s[b + i + 3];
-            float r4 = s[b + i + 4];
-            float d0 = Math.abs(r1 - 2f * r0 + s[b + i - 1]);
-            float d1 = Math.abs(r2 - 2f * r1 + r0);
-            float d2 = Math.abs(r3 - 2f * r2 + r1);
-            float d3 = Math.abs(r4 - 2f * r3 + r2);
-            if (d0 > m0) {
-                m0 = d0;
-            }
-            if (d1 > m1) {
-                m1 = d1;
-            }
-            if (d2 > m2) {
-                m2 = d2;
-            }
-            if (d3 > m3) {
-                m3 = d3;
+            if (bends) {
+                float r4 = s[b + i + 4];
+                float d0 = Math.abs(r1 - 2f * r0 + s[b + i - 1]);
+                float d1 = Math.abs(r2 - 2f * r1 + r0);
+                float d2 = Math.abs(r3 - 2f * r2 + r1);
+                float d3 = Math.abs(r4 - 2f * r3 + r2);
+                if (d0 > m0) {
+                    m0 = d0;
+                }
+                if (d1 > m1) {
+                    m1 = d1;
+                }
+                if (d2 > m2) {
+                    m2 = d2;
+                }
+                if (d3 > m3) {
+                    m3 = d3;
+                }
             }
             float x0 = r0 - t[p >>> HumCanceller.SHIFT];
             float x1 = r1 - t[(p + step) >>> HumCanceller.SHIFT];
             float x2 = r2 - t[(p + 2 * step) >>> HumCanceller.SHIFT];
             float x3 = r3 - t[(p + 3 * step) >>> HumCanceller.SHIFT];
             p += 4 * step;
-            max0 = x0 > max0 ? x0 : max0;
-            max1 = x1 > max1 ? x1 : max1;
-            max2 = x2 > max2 ? x2 : max2;
-            max3 = x3 > max3 ? x3 : max3;
-            min0 = x0 < min0 ? x0 : min0;
-            min1 = x1 < min1 ? x1 : min1;
-            min2 = x2 < min2 ? x2 : min2;
-            min3 = x3 < min3 ? x3 : min3;
+            int k0 = key(x0);
+            int k1 = key(x1);
+            int k2 = key(x2);
+            int k3 = key(x3);
+            max0 = Math.max(max0, k0);
+            max1 = Math.max(max1, k1);
+            max2 = Math.max(max2, k2);
+            max3 = Math.max(max3, k3);
+            min0 = Math.min(min0, k0);
+            min1 = Math.min(min1, k1);
+            min2 = Math.min(min2, k2);
+            min3 = Math.min(min3, k3);
             sum0 += x0;
             sum1 += x1;
             sum2 += x2;
@@ -436,27 +361,82 @@ public final class Conditioner {
         }
         for (; i < length; i++) {
             float r = s[b + i];
-            float next = s[b + i + 1];
-            float d = Math.abs(next - 2f * r + s[b + i - 1]);
-            if (d > m0) {
-                m0 = d;
+            if (bends) {
+                float d = Math.abs(s[b + i + 1] - 2f * r + s[b + i - 1]);
+                if (d > m0) {
+                    m0 = d;
+                }
             }
             float x = r - t[p >>> HumCanceller.SHIFT];
             p += step;
-            max0 = x > max0 ? x : max0;
-            min0 = x < min0 ? x : min0;
+            int k = key(x);
+            max0 = Math.max(max0, k);
+            min0 = Math.min(min0, k);
             sum0 += x;
             out[i] = x - zero;
         }
-        keep(max0, max1, max2, max3, min0, min1, min2, min3, sum0, sum1, sum2, sum3);
+        blockMax = unkey(Math.max(Math.max(max0, max1), Math.max(max2, max3)));
+        blockMin = unkey(Math.min(Math.min(min0, min1), Math.min(min2, min3)));
+        blockSum = (sum0 + sum1) + (sum2 + sum3);
         largestBend = Math.max(Math.max(m0, m1), Math.max(m2, m3));
+        boolean asFloats = blockMax == blockMax && blockMin == blockMin && blockMax != 0f && blockMin != 0f;
+        if (!asFloats) {
+            // a NaN (which the float compares pass over) or a zero (whose sign the first compare kept)
+            floatExtremes(s, b, length, t, phase, step);
+        }
     }
 
-    private void keep(float max0, float max1, float max2, float max3, float min0, float min1, float min2, float min3,
-                      float sum0, float sum1, float sum2, float sum3) {
+    /**
+     * A float's bits as an int that orders as the float does (−0 just below +0; a NaN beyond the
+     * infinities, of the sign its sign bit gives): the sign bit stays, the others flip for a
+     * negative. Its own inverse.
+     */
+    private static int key(float v) {
+        int bits = Float.floatToRawIntBits(v);
+        return bits ^ ((bits >> 31) >>> 1);
+    }
+
+    private static float unkey(int key) {
+        return Float.intBitsToFloat(key ^ ((key >> 31) >>> 1));
+    }
+
+    private static final int KEY_NEGATIVE_INFINITY = key(Float.NEGATIVE_INFINITY);
+    private static final int KEY_POSITIVE_INFINITY = key(Float.POSITIVE_INFINITY);
+
+    /**
+     * The extremes of the samples less hum by float compares, four accumulators as in {@link #pass},
+     * for the rare block where that differs from comparing keys: a NaN is passed over, and of equal
+     * zeros each accumulator keeps the first.
+     */
+    private void floatExtremes(float[] s, int b, int length, float[] t, int phase, int step) {
+        float max0 = Float.NEGATIVE_INFINITY, max1 = max0, max2 = max0, max3 = max0;
+        float min0 = Float.POSITIVE_INFINITY, min1 = min0, min2 = min0, min3 = min0;
+        int p = phase;
+        int quads = length & ~3; // the samples pass takes four at a time; the rest go to the first
+        for (int i = 0; i < length; i++) {
+            float x = s[b + i] - t[p >>> HumCanceller.SHIFT];
+            p += step;
+            switch (i < quads ? i & 3 : 0) {
+                case 0:
+                    max0 = x > max0 ? x : max0;
+                    min0 = x < min0 ? x : min0;
+                    break;
+                case 1:
+                    max1 = x > max1 ? x : max1;
+                    min1 = x < min1 ? x : min1;
+                    break;
+                case 2:
+                    max2 = x > max2 ? x : max2;
+                    min2 = x < min2 ? x : min2;
+                    break;
+                default:
+                    max3 = x > max3 ? x : max3;
+                    min3 = x < min3 ? x : min3;
+                    break;
+            }
+        }
         blockMax = Math.max(Math.max(max0, max1), Math.max(max2, max3));
         blockMin = Math.min(Math.min(min0, min1), Math.min(min2, min3));
-        blockSum = (sum0 + sum1) + (sum2 + sum3);
     }
 
     /**
@@ -476,12 +456,25 @@ public final class Conditioner {
         float high = max;
         float low = min;
         if (!exact) {
-            high = Float.NEGATIVE_INFINITY;
-            low = Float.POSITIVE_INFINITY;
+            // branch-free as in pass; a zero's sign cannot matter here (a rail is beyond the level)
+            int highKey = KEY_NEGATIVE_INFINITY;
+            int lowKey = KEY_POSITIVE_INFINITY;
             for (int i = 0; i < length; i++) {
-                float v = src[base + i];
-                high = v > high ? v : high;
-                low = v < low ? v : low;
+                int k = key(src[base + i]);
+                highKey = Math.max(highKey, k);
+                lowKey = Math.min(lowKey, k);
+            }
+            high = unkey(highKey);
+            low = unkey(lowKey);
+            if (high != high || low != low) {
+                // a NaN, which the float compares pass over
+                high = Float.NEGATIVE_INFINITY;
+                low = Float.POSITIVE_INFINITY;
+                for (int i = 0; i < length; i++) {
+                    float v = src[base + i];
+                    high = v > high ? v : high;
+                    low = v < low ? v : low;
+                }
             }
         }
         // only the block's largest magnitude can be a rail: nothing passes a rail

@@ -54,26 +54,25 @@ public final class HumCanceller {
     private final double windowS;
     private final int nominalStep;
     private final int maxStepDeviation;
-    /** cos(kθ_j) at [k-1][j] flattened, then sin(kθ_j) likewise; θ_j the middle of step j. Shared, read only. */
-    private final float[] basis;
     /**
-     * The basis for each number of harmonics, made once: a replay over an archive makes a canceller
-     * (and two hum watchers) per trace, and 2048 to 10 240 sines and cosines each cost more than
-     * judging a short trace.
+     * cos(kθ_j) at [k−1][j], θ_j the middle of step j; shared, read only. One array per harmonic, so
+     * that the table's rebuild reads each at the index it writes and the JIT can vectorise it.
      */
-    private static final float[][] BASES = new float[MAX_HARMONIC + 1][];
+    private static final float[][] COSINES = new float[MAX_HARMONIC][TABLE];
+    /** sin(kθ_j) likewise. */
+    private static final float[][] SINES = new float[MAX_HARMONIC][TABLE];
 
+    /*
+     * Made once: a replay over an archive makes a canceller (and two hum watchers) per trace, and
+     * 2048 to 10 240 sines and cosines each cost more than judging a short trace.
+     */
     static {
-        for (int h = 1; h <= MAX_HARMONIC; h++) {
-            float[] b = new float[2 * h * TABLE];
-            for (int k = 1; k <= h; k++) {
-                for (int j = 0; j < TABLE; j++) {
-                    double theta = 2 * Math.PI * k * (j + 0.5) / TABLE;
-                    b[(k - 1) * TABLE + j] = (float) Math.cos(theta);
-                    b[(h + k - 1) * TABLE + j] = (float) Math.sin(theta);
-                }
+        for (int k = 1; k <= MAX_HARMONIC; k++) {
+            for (int j = 0; j < TABLE; j++) {
+                double theta = 2 * Math.PI * k * (j + 0.5) / TABLE;
+                COSINES[k - 1][j] = (float) Math.cos(theta);
+                SINES[k - 1][j] = (float) Math.sin(theta);
             }
-            BASES[h] = b;
         }
     }
     /** The model over one period, from {@link #coefficients}. */
@@ -124,7 +123,6 @@ public final class HumCanceller {
         this.nominalStep = toStep(mainsHz);
         this.maxStepDeviation = (int) Math.round(MAX_DEVIATION * Math.abs((double) toStep(mainsHz)));
         this.step = nominalStep;
-        this.basis = BASES[harmonics];
         this.coefficients = new double[2 * harmonics];
         this.sums = new double[2 * harmonics];
         this.inTable = new double[2 * harmonics];
@@ -207,7 +205,8 @@ public final class HumCanceller {
         }
         boolean ended = false;
         int h = harmonics;
-        float[] b = basis;
+        float[][] cos = COSINES;
+        float[][] sin = SINES;
         double[] acc = sums;
         int i = next;
         for (; i < length; i += stride) {
@@ -216,13 +215,13 @@ public final class HumCanceller {
             if (changed && subtracting) {
                 // a window ended earlier in this block: the block was cleaned with the model before it
                 for (int k = 0; k < h; k++) {
-                    r -= (coefficients[2 * k] - inTable[2 * k]) * b[k * TABLE + j]
-                            + (coefficients[2 * k + 1] - inTable[2 * k + 1]) * b[(h + k) * TABLE + j];
+                    r -= (coefficients[2 * k] - inTable[2 * k]) * cos[k][j]
+                            + (coefficients[2 * k + 1] - inTable[2 * k + 1]) * sin[k][j];
                 }
             }
             for (int k = 0; k < h; k++) {
-                acc[2 * k] += r * b[k * TABLE + j];
-                acc[2 * k + 1] += r * b[(h + k) * TABLE + j];
+                acc[2 * k] += r * cos[k][j];
+                acc[2 * k + 1] += r * sin[k][j];
             }
             if (++counted == windowCount) {
                 endWindow();
@@ -274,14 +273,15 @@ public final class HumCanceller {
         if (!subtracting) {
             return;
         }
-        java.util.Arrays.fill(table, 0f);
+        float[] t = table;
+        java.util.Arrays.fill(t, 0f);
         for (int k = 0; k < h; k++) {
             float a = (float) coefficients[2 * k];
             float b = (float) coefficients[2 * k + 1];
-            int c = k * TABLE;
-            int s = (h + k) * TABLE;
+            float[] cos = COSINES[k];
+            float[] sin = SINES[k];
             for (int j = 0; j < TABLE; j++) {
-                table[j] += a * basis[c + j] + b * basis[s + j];
+                t[j] += a * cos[j] + b * sin[j];
             }
         }
     }
