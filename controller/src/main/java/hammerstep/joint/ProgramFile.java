@@ -55,6 +55,7 @@ public final class ProgramFile {
         t.finish();
 
         FinalTorque finalTorque = FinalTorque.ofKey(root.choice("final_torque", "max_peak", FinalTorque.keys()));
+        boolean onResidual = finalTorque == FinalTorque.RESIDUAL_ESTIMATE;
 
         MapReader b = root.map("blows");
         double countAbove = b.requiredNumber("count_above", 0, MAX_NM);
@@ -109,7 +110,8 @@ public final class ProgramFile {
         } else if (shutoff < min) {
             root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is below torque.min (" + min
                     + "): the tool would stop before a joint reaches its window");
-        } else if (shutoff > max) {
+        } else if (shutoff > max && !onResidual) {
+            // judged on the residual estimate, the window is a residual one: blow peaks run above it
             root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is above torque.max (" + max
                     + "): the tool would only stop after the joint is over torque");
         }
@@ -117,6 +119,11 @@ public final class ProgramFile {
         if (rehit > 0 && blowsMax > 0 && rehit >= blowsMax) {
             root.problem("rehit_blows", "'rehit_blows' (" + rehit + ") is not below blows.max (" + blowsMax
                     + "): every joint within the blow window would be REHIT, no joint could be GO");
+        } else if (rehit > 0 && onResidual) {
+            root.problem("rehit_blows", "'rehit_blows' judges blow peaks against torque.min, which under"
+                    + " 'final_torque: residual_estimate' is a residual window the peaks run above: every joint would"
+                    + " be REHIT; leave rehit_blows out (a rehit turns the nut no further: no turning blow,"
+                    + " RESIDUAL_UNKNOWN)");
         }
         boolean leftHand = "left".equals(root.choice("thread", "right", java.util.List.of("right", "left")));
 
