@@ -126,9 +126,39 @@ public final class ProgramFile {
                     + " RESIDUAL_UNKNOWN)");
         }
         boolean leftHand = "left".equals(root.choice("thread", "right", java.util.List.of("right", "left")));
+        ResidualCalibration calibration = calibration(root.optionalMap("residual_calibration"));
 
         return new JointProgram(id, revision, new JointProgram.Torque(min, target, max), finalTorque,
                 new JointProgram.Blows(countAbove, releaseBelow, blowsMin, blowsMax, deadTime),
-                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit, leftHand);
+                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit, leftHand, calibration);
+    }
+
+    /**
+     * {@code residual_calibration: { factor, offset_nm, band_nm, audits, date }} as {@code hammerstep audit}
+     * prints it; null when absent or wrong (the problems are reported).
+     */
+    private static ResidualCalibration calibration(MapReader c) {
+        if (c == null) {
+            return null;
+        }
+        double factor = c.requiredNumber("factor", ResidualCalibration.MIN_FACTOR, ResidualCalibration.MAX_FACTOR);
+        double offset = c.requiredNumber("offset_nm", -MAX_NM, MAX_NM);
+        double band = c.requiredNumber("band_nm", 0, MAX_NM);
+        int audits = c.integer("audits", ResidualCalibration.MIN_AUDITS, 1_000_000);
+        String text = c.string("date");
+        java.time.LocalDate date = null;
+        try {
+            date = text.isEmpty() ? null : java.time.LocalDate.parse(text);
+        } catch (java.time.format.DateTimeParseException e) {
+            c.problem("date", "'" + c.path("date") + "' is \"" + text + "\": expected the day of the fit as YYYY-MM-DD");
+        }
+        if (band == 0) {
+            c.problem("band_nm", "'" + c.path("band_nm") + "' is 0: audits always scatter; give the band the fit left");
+        }
+        c.finish();
+        if (Double.isNaN(factor + offset + band) || date == null || band == 0) {
+            return null;
+        }
+        return new ResidualCalibration(factor, offset, band, audits, date);
     }
 }
