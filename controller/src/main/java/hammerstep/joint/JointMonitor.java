@@ -402,9 +402,12 @@ public final class JointMonitor implements PulseSink {
             return;
         }
         ResidualEstimate estimate = residual.estimate(rundownFaults, program.residualCalibration());
-        double finalNm = Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
+        double finalNm = program.finalTorque() == FinalTorque.RESIDUAL_ESTIMATE
+                ? (estimate.present() ? estimate.torqueNm() : 0.0)
+                : Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
         double durationMs = (lastAboveNs - startNs) * 1e-6;
-        List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults);
+        List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults,
+                estimate.present());
         if (traceEnded) {
             reasons = new java.util.ArrayList<>(reasons);
             reasons.add(Reason.TRACE_ENDED);

@@ -16,6 +16,12 @@ import java.time.LocalDate;
  */
 public record ResidualCalibration(double factor, double offsetNm, double bandNm, int audits, LocalDate date) {
 
+    /** Fewest audits a calibration may rest on. */
+    public static final int MIN_AUDITS = 2;
+    /** Plausible factors: the estimate is off by more than a factor of two only when something else is wrong. */
+    public static final double MIN_FACTOR = 0.5;
+    public static final double MAX_FACTOR = 2.0;
+
     /** The calibrated estimate from the default one. */
     public double apply(double estimateNm) {
         return factor * estimateNm + offsetNm;
