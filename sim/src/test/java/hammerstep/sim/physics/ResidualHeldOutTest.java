@@ -20,7 +20,7 @@ class ResidualHeldOutTest {
     /** Margin over the measured figure before the test fails. */
     static final double MARGIN = 0.03;
     /** Max peak's calibration-set ratio truth ÷ peak (the study's full run, docs/residual-estimate.md). */
-    static final double MAX_PEAK_RATIO = 0.569;
+    static final double MAX_PEAK_RATIO = 0.722;
 
     @Test
     void heldOutEstimateStaysWithinTheReportedErrorAndSaysWhenItHasNoValue() throws Exception {

@@ -66,7 +66,7 @@ final class ResidualStudy {
      * One rundown: the truth, the dynamic figures from the controller's result, and the estimator's answer.
      *
      * @param truthNm        the truth's residual torque (breakaway audit)
-     * @param results        joint results the chain gave (1 expected)
+     * @param results        joint results the chain gave (the last is the joint's rundown)
      * @param turningBlows   blows that turned the nut (truth)
      * @param maxPeakNm      highest blow peak (controller)
      * @param lastPeakNm     last blow's peak
@@ -219,11 +219,12 @@ final class ResidualStudy {
         for (int i = 0; i < Math.min(truthBlows, Rig.MAX_BLOWS); i++) {
             turning += rig.blowTurnedDeg(i) > TURNED_DEG ? 1 : 0;
         }
-        if (results.size() != 1 || results.get(0).blows() == 0) {
+        // the joint's rundown is the last result (a free-running start may make a short one before it)
+        if (results.isEmpty() || results.get(results.size() - 1).blows() == 0) {
             return new Run(p, seed, truth, results.size(), truthBlows, turning, Double.NaN, Double.NaN, Double.NaN,
-                    Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, "NO_SINGLE_RUNDOWN");
+                    Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, "NO_RUNDOWN");
         }
-        JointResult r = results.get(0);
+        JointResult r = results.get(results.size() - 1);
         double[] peaks = r.peaksNm();
         int n = peaks.length;
         double max = 0;
@@ -237,13 +238,15 @@ final class ResidualStudy {
             last3 += peaks[i];
             torque3 += meanTorqueNm(r, i);
         }
-        // the oracle: the last three blows that turned the nut, by the truth, when truth and chain agree on the count
+        // the oracle: the last three blows that turned the nut, by the truth, the chain's blows matched to the
+        // truth's from the last one back when the chain counted no more than the truth
         double turning3 = Double.NaN;
-        if (r.blows() == truthBlows && n == truthBlows) {
+        int shift = truthBlows - n;
+        if (r.blows() == n && shift >= 0 && truthBlows <= Rig.MAX_BLOWS) {
             double sum = 0;
             int m = 0;
             for (int i = n - 1; i >= 0 && m < 3; i--) {
-                if (rig.blowTurnedDeg(i) > TURNED_DEG) {
+                if (rig.blowTurnedDeg(i + shift) > TURNED_DEG) {
                     sum += meanTorqueNm(r, i);
                     m++;
                 }
