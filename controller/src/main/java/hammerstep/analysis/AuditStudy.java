@@ -8,7 +8,8 @@ import java.util.Map;
 import java.util.function.DoubleUnaryOperator;
 
 /**
- * Pairs residual-torque audits with the dynamic figures of the same joints and relates them:
+ * Pairs residual-torque audits with the dynamic figures of the same joints and relates them (and,
+ * beside that, with the joints' residual estimates: {@link EstimateFit}):
  * per program and audit method (never mixed: each method reads the joint differently), the
  * mean offset residual − dynamic, Pearson's r, the line residual = a + b·dynamic with its
  * standard errors, and the dynamic window whose edges keep a single joint's residual torque
@@ -30,11 +31,14 @@ public final class AuditStudy {
      * @param fit    null with fewer than 3 pairs or no spread in the dynamic figures
      * @param window null when none can be given; {@code note} says why
      * @param currentLimits the windows the audited joints were judged against (first seen)
+     * @param estimate the audits fitted against the joints' residual estimate (beside the dynamic fit); null
+     *                 when fewer than {@link EstimateFit#MIN_AUDITS} audited joints carry an estimate
      */
     public record Group(String program, Audit.Method method, int n, double meanDynamicNm, double meanResidualNm,
                         double meanOffsetNm, double sdOffsetNm, double minDynamicNm, double maxDynamicNm,
                         LinearFit fit, boolean slopeSignificant, Window window, String note,
-                        JointRecord.Limits currentLimits, double[] dynamicNm, double[] residualNm) { }
+                        JointRecord.Limits currentLimits, double[] dynamicNm, double[] residualNm,
+                        EstimateFit estimate) { }
 
     public record Report(List<Group> groups, List<Audit> unpaired, double confidence, double specMinNm, double specMaxNm) {
 
@@ -74,7 +78,8 @@ public final class AuditStudy {
                 continue;
             }
             String key = j.program() + "\u0000" + a.method();
-            pairs.computeIfAbsent(key, k -> new ArrayList<>()).add(new double[] {j.finalTorqueNm(), a.residualNm()});
+            pairs.computeIfAbsent(key, k -> new ArrayList<>())
+                    .add(new double[] {j.finalTorqueNm(), a.residualNm(), j.residualEstimateNm()});
             firstJoint.putIfAbsent(key, j);
             methods.put(key, a.method());
         }
@@ -135,7 +140,25 @@ public final class AuditStudy {
             }
         }
         return new Group(first.program(), method, n, sx / n, sy / n, meanOffset, sdOffset, lo, hi, fit, significant,
-                window, note, first.limits(), x, y);
+                window, note, first.limits(), x, y, estimateFit(pairs, confidence));
+    }
+
+    /** The audits against the residual estimate of those joints that carry one. */
+    private static EstimateFit estimateFit(List<double[]> pairs, double confidence) {
+        int m = 0;
+        for (double[] p : pairs) {
+            m += Double.isNaN(p[2]) ? 0 : 1;
+        }
+        double[] estimate = new double[m];
+        double[] audit = new double[m];
+        int k = 0;
+        for (double[] p : pairs) {
+            if (!Double.isNaN(p[2])) {
+                estimate[k] = p[2];
+                audit[k++] = p[1];
+            }
+        }
+        return EstimateFit.of(estimate, audit, confidence);
     }
 
     /**

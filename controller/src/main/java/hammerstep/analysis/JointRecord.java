@@ -12,6 +12,8 @@ import java.util.List;
  * @param finalTorqueNm the joint's final torque per its program's rule
  * @param reasons       NO-GO reason codes, empty for GO
  * @param limits        the windows the joint was judged against
+ * @param residualEstimateNm the joint's residual estimate by the default factor
+ *                      ({@code residual_estimate.uncalibrated_nm}); NaN when it carries none
  */
 public record JointRecord(
         int line,
@@ -23,10 +25,17 @@ public record JointRecord(
         int blows,
         String verdict,
         List<String> reasons,
-        Limits limits) {
+        Limits limits,
+        double residualEstimateNm) {
 
     public JointRecord {
         reasons = List.copyOf(reasons);
+    }
+
+    /** A joint without a residual estimate. */
+    public JointRecord(int line, String id, String program, String position, String partSerial, double finalTorqueNm,
+                       int blows, String verdict, List<String> reasons, Limits limits) {
+        this(line, id, program, position, partSerial, finalTorqueNm, blows, verdict, reasons, limits, Double.NaN);
     }
 
     /** The torque window (N·m) and blow-count window a joint was judged against. */

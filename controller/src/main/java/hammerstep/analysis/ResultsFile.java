@@ -110,7 +110,23 @@ public final class ResultsFile {
             r.forEach(x -> reasons.add(x.asText()));
         }
         return new JointRecord(line, text(n, "id"), program, text(n, "position"), text(n, "part_serial"),
-                finalNm, blows, text(n, "verdict"), reasons, l);
+                finalNm, blows, text(n, "verdict"), reasons, l, residualEstimate(n, where));
+    }
+
+    /**
+     * The residual estimate audits are fitted against: {@code residual_estimate.uncalibrated_nm}
+     * ({@code torque_nm} from a line that has no uncalibrated one); NaN when the joint has none.
+     */
+    private static double residualEstimate(JsonNode n, String where) throws InputException {
+        JsonNode e = n.get("residual_estimate");
+        if (e == null || !e.isObject()) {
+            return Double.NaN;
+        }
+        String key = e.has("uncalibrated_nm") ? "uncalibrated_nm" : "torque_nm";
+        if (!e.has(key)) {
+            return Double.NaN;
+        }
+        return torque(e, key, where + "residual_estimate: ");
     }
 
     private static String text(JsonNode n, String key) {

@@ -6,6 +6,7 @@ import com.fasterxml.jackson.databind.SerializationFeature;
 import hammerstep.analysis.Audit;
 import hammerstep.analysis.AuditFile;
 import hammerstep.analysis.AuditStudy;
+import hammerstep.analysis.EstimateFit;
 import hammerstep.analysis.InputException;
 import hammerstep.analysis.LinearFit;
 import hammerstep.analysis.ResultsFile;
@@ -19,6 +20,8 @@ import picocli.CommandLine.Parameters;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.nio.file.Path;
+import java.time.LocalDate;
+import java.time.ZoneOffset;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -33,7 +36,9 @@ import java.util.concurrent.Callable;
                 "dynamic final torque from results (JSONL), and reports per program and method the",
                 "correlation, the mean offset, the line residual = a + b * dynamic with its standard errors and,",
                 "with --spec, the dynamic window that keeps one joint's residual torque in its specification",
-                "(two-sided prediction interval, t-distribution)."})
+                "(two-sided prediction interval, t-distribution). Beside it, the same audits against the joints'",
+                "residual estimate (residual_estimate in the results), and the residual_calibration a program",
+                "can carry from that fit (factor, offset, band, audits, date)."})
 public final class AuditCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "AUDITS", description = "audit readings, CSV (see docs/engineer-guide.md)")
@@ -99,11 +104,12 @@ public final class AuditCommand implements Callable<Integer> {
             throw new UserError("none of the " + audits.size() + " audits matches a joint result in " + resultsFile
                     + " (by joint_id, or by part_serial and position)");
         }
+        LocalDate today = LocalDate.now(ZoneOffset.UTC);
         if (json) {
             System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT)
-                    .writeValueAsString(toJson(report, audits.size(), results)));
+                    .writeValueAsString(toJson(report, audits.size(), results, today)));
         } else {
-            print(report, audits.size(), System.out);
+            print(report, audits.size(), System.out, today);
             if (!results.leftOut().isEmpty()) {
                 System.out.println(resultsFile + ": " + results.joints().size() + " joint results used, "
                         + results.leftOut());
@@ -118,7 +124,8 @@ public final class AuditCommand implements Callable<Integer> {
         return 0;
     }
 
-    static Map<String, Object> toJson(AuditStudy.Report report, int audits, ResultsFile.Contents results) {
+    static Map<String, Object> toJson(AuditStudy.Report report, int audits, ResultsFile.Contents results,
+                                      LocalDate today) {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("audits", audits);
         m.put("joint_results", results.joints().size());
@@ -162,13 +169,62 @@ public final class AuditCommand implements Callable<Integer> {
             o.put("current_window_nm", Map.of("min", g.currentLimits().torqueMinNm(), "max", g.currentLimits().torqueMaxNm()));
             o.put("audited_dynamic_nm", Map.of("min", g.minDynamicNm(), "max", g.maxDynamicNm()));
             o.put("note", g.note());
+            o.put("estimate_fit", estimateJson(g.estimate(), today));
             groups.add(o);
         }
         m.put("groups", groups);
         return m;
     }
 
-    static void print(AuditStudy.Report report, int audits, PrintStream out) {
+    /** The fit against the residual estimate and the program key it gives; null when there is none. */
+    static Map<String, Object> estimateJson(EstimateFit e, LocalDate today) {
+        if (e == null) {
+            return null;
+        }
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("n", e.n());
+        o.put("kind", e.line() == null ? "factor" : "line");
+        o.put("r", e.line() == null ? null : num(e.line().r(), 10_000));
+        o.put("factor", num(e.factor(), 100_000));
+        o.put("offset_nm", num(e.offsetNm(), 1000));
+        o.put("se_nm", num(e.seNm(), 10_000));
+        o.put("band_nm", num(e.bandNm(), 100));
+        o.put("residual_calibration", calibrationKey(e, today));
+        return o;
+    }
+
+    /** The line to put in the program file. */
+    static String calibrationKey(EstimateFit e, LocalDate today) {
+        return String.format(Locale.ROOT, "residual_calibration: { factor: %.5f, offset_nm: %.3f, band_nm: %.2f,"
+                + " audits: %d, date: %s }", e.factor(), e.offsetNm(), Math.max(0.01, e.bandNm()), e.n(), today);
+    }
+
+    /** The dynamic fit and the fit against the residual estimate, side by side. */
+    static void printSideBySide(AuditStudy.Group g, double confidence, LocalDate today, PrintStream out) {
+        EstimateFit e = g.estimate();
+        if (e == null) {
+            out.println("  against the residual estimate: fewer than " + EstimateFit.MIN_AUDITS
+                    + " audited joints carry one (residual_estimate in the results)");
+            return;
+        }
+        LinearFit f = g.fit();
+        String pct = Math.round(confidence * 1000) / 10.0 + " %";
+        out.printf(Locale.ROOT, "  %-30s %-30s %s%n", "", "against dynamic torque", "against the residual estimate");
+        out.printf(Locale.ROOT, "  %-30s %-30d %d%n", "audited joints", g.n(), e.n());
+        out.printf(Locale.ROOT, "  %-30s %-30s %s%n", "r", f == null ? "-" : String.format(Locale.ROOT, "%.4f", f.r()),
+                e.line() == null ? "- (factor through zero)" : String.format(Locale.ROOT, "%.4f", e.line().r()));
+        out.printf(Locale.ROOT, "  %-30s %-30s %s%n", "audit = a + b * figure",
+                f == null ? "-" : String.format(Locale.ROOT, "%.3f + %.5f * dynamic", f.a(), f.b()),
+                String.format(Locale.ROOT, "%.3f + %.5f * estimate", e.offsetNm(), e.factor()));
+        out.printf(Locale.ROOT, "  %-30s %-30s %.3f N·m%n", "s_e", f == null ? "-"
+                : String.format(Locale.ROOT, "%.3f N·m", f.se()), e.seNm());
+        out.printf(Locale.ROOT, "  %-30s %-30s ±%.2f N·m%n", "one joint's audit, " + pct, f == null ? "-"
+                : String.format(Locale.ROOT, "±%.2f N·m (at the mean)", f.predictionHalfWidth(f.meanX(), confidence)),
+                e.bandNm());
+        out.println("  program key: " + calibrationKey(e, today));
+    }
+
+    static void print(AuditStudy.Report report, int audits, PrintStream out, LocalDate today) {
         out.printf(Locale.ROOT, "%d audits, %d paired with joint results%s%n", audits, audits - report.unpaired().size(),
                 report.unpaired().isEmpty() ? "" : "; not paired: lines " + report.unpaired().stream()
                         .limit(20).map(a -> Integer.toString(a.line())).toList());
@@ -191,6 +247,7 @@ public final class AuditCommand implements Callable<Integer> {
             if (!g.note().isEmpty()) {
                 out.println("  " + g.note());
             }
+            printSideBySide(g, report.confidence(), today, out);
         }
     }
 

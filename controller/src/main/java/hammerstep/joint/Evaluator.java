@@ -24,6 +24,8 @@ public final class Evaluator {
                 return maxPeakNm;
             case LAST_PEAK:
                 return lastThree[(blows - 1) % 3];
+            case RESIDUAL_ESTIMATE:
+                throw new IllegalArgumentException("the residual estimate is not taken from the peaks");
             default:
                 int n = Math.min(3, blows);
                 double sum = 0;
@@ -37,12 +39,26 @@ public final class Evaluator {
     /** The reasons a rundown is NO-GO, in a fixed order; empty for GO. */
     public static List<Reason> reasons(JointProgram p, int blows, double finalTorqueNm, boolean cut,
                                        int firstBlowAtMin, int faults) {
+        return reasons(p, blows, finalTorqueNm, cut, firstBlowAtMin, faults, true);
+    }
+
+    /**
+     * As above; {@code hasResidual} says whether the rundown has a residual estimate. A program that
+     * judges on it ({@link FinalTorque#RESIDUAL_ESTIMATE}) gets {@link Reason#RESIDUAL_UNKNOWN} instead of
+     * the torque window when there is none.
+     */
+    public static List<Reason> reasons(JointProgram p, int blows, double finalTorqueNm, boolean cut,
+                                       int firstBlowAtMin, int faults, boolean hasResidual) {
         List<Reason> reasons = new ArrayList<>(4);
-        if (finalTorqueNm < p.torque().minNm()) {
-            reasons.add(Reason.TORQUE_LOW);
-        }
-        if (finalTorqueNm > p.torque().maxNm()) {
-            reasons.add(Reason.TORQUE_HIGH);
+        if (p.finalTorque() == FinalTorque.RESIDUAL_ESTIMATE && !hasResidual) {
+            reasons.add(Reason.RESIDUAL_UNKNOWN);
+        } else {
+            if (finalTorqueNm < p.torque().minNm()) {
+                reasons.add(Reason.TORQUE_LOW);
+            }
+            if (finalTorqueNm > p.torque().maxNm()) {
+                reasons.add(Reason.TORQUE_HIGH);
+            }
         }
         if (blows < p.blows().min()) {
             reasons.add(Reason.BLOWS_FEW);

@@ -9,7 +9,12 @@ public enum FinalTorque {
     /** The peak of the last blow. */
     LAST_PEAK("last_peak"),
     /** The mean of the last three peaks (of all of them when fewer). */
-    MEAN_LAST_3("mean_last_3");
+    MEAN_LAST_3("mean_last_3"),
+    /**
+     * The residual-torque estimate ({@link ResidualEstimator}); a rundown without one is NO-GO
+     * {@link Reason#RESIDUAL_UNKNOWN}, never GO.
+     */
+    RESIDUAL_ESTIMATE("residual_estimate");
 
     private final String key;
 
@@ -23,7 +28,7 @@ public enum FinalTorque {
     }
 
     public static List<String> keys() {
-        return List.of(MAX_PEAK.key, LAST_PEAK.key, MEAN_LAST_3.key);
+        return List.of(MAX_PEAK.key, LAST_PEAK.key, MEAN_LAST_3.key, RESIDUAL_ESTIMATE.key);
     }
 
     public static FinalTorque ofKey(String key) {

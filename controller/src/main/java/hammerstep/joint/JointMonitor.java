@@ -1,5 +1,6 @@
 package hammerstep.joint;
 
+import hammerstep.signal.BlowShapes;
 import hammerstep.signal.Conditioner;
 import hammerstep.signal.Conditioning;
 import hammerstep.signal.PulseDetector;
@@ -71,6 +72,8 @@ public final class JointMonitor implements PulseSink {
     private final JointProgram program;
     private final InputStage stage;
     private final PulseDetector detector;
+    private final BlowShapes shapes;
+    private final ResidualEstimator residual = new ResidualEstimator();
     private final JointEvents events;
     private final double periodNs;
     private final float startAbove;
@@ -134,6 +137,7 @@ public final class JointMonitor implements PulseSink {
         this.stage = stage;
         JointProgram.Blows b = program.blows();
         this.detector = new PulseDetector(b.countAboveNm(), b.releaseBelowNm(), b.deadTimeMs(), rateHz, this);
+        this.shapes = new BlowShapes(b.countAboveNm(), b.releaseBelowNm(), program.tighteningSign(), rateHz);
         this.events = events;
         this.periodNs = 1e9 / rateHz;
         this.startAbove = (float) program.rundown().startAboveNm();
@@ -258,6 +262,8 @@ public final class JointMonitor implements PulseSink {
             reverseImpulse = 0;
             reversePeak = 0;
             detector.reset();
+            shapes.reset();
+            residual.reset();
             events.onRundownStart(startNs);
         }
         return i;
@@ -297,6 +303,8 @@ public final class JointMonitor implements PulseSink {
             }
         }
         boolean cut = !ended && i == stop && stop < length || !ended && base + i >= startSample + maxSamples;
+        // the shapes first: a blow's lobe has closed by the time the detector reports the blow
+        shapes.process(x, from, i - from, firstNs + (long) (from * periodNs));
         detector.process(x, from, i - from, firstNs + (long) (from * periodNs));
         if (lastAboveRel + base != lastAboveSample) {
             lastAboveSample = lastAboveRel + base;
@@ -363,6 +371,7 @@ public final class JointMonitor implements PulseSink {
         if (shutoffNs != Long.MIN_VALUE && pulseStartNs > shutoffNs) {
             blowsAfterShutoff++;
         }
+        residual.onBlow(shapes, shapes.find(pulseStartNs));
         blows = n + 1;
         events.onBlow(n, peakNm, peakNs);
     }
@@ -391,15 +400,20 @@ public final class JointMonitor implements PulseSink {
     }
 
     private void finishRundown(boolean cut, boolean traceEnded) {
+        shapes.flush();
         detector.flush();
         if (reverseStrikes > 0 && reverseImpulse > tightenImpulse
                 && (blows == 0 || reverseStrikes >= MIN_REVERSE_STRIKES_AFTER_BLOWS)) {
             finishLoosening(cut, traceEnded);
             return;
         }
-        double finalNm = Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
+        ResidualEstimate estimate = residual.estimate(rundownFaults, program.residualCalibration());
+        double finalNm = program.finalTorque() == FinalTorque.RESIDUAL_ESTIMATE
+                ? (estimate.present() ? estimate.torqueNm() : 0.0)
+                : Evaluator.finalTorque(program.finalTorque(), blows, maxPeak, lastThree);
         double durationMs = (lastAboveNs - startNs) * 1e-6;
-        List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults);
+        List<Reason> reasons = Evaluator.reasons(program, blows, finalNm, cut, firstBlowAtMin, rundownFaults,
+                estimate.present());
         if (traceEnded) {
             reasons = new java.util.ArrayList<>(reasons);
             reasons.add(Reason.TRACE_ENDED);
@@ -410,7 +424,8 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(peaks, stored), Arrays.copyOf(peakTimes, stored),
                 Arrays.copyOf(widths, stored), Arrays.copyOf(impulses, stored),
                 finalNm, durationMs, shutoffNs, blowsAfterShutoff, rundownFaults,
-                reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons, Direction.TIGHTEN, rejectedSinceStart());
+                reasons.isEmpty() ? Verdict.GO : Verdict.NO_GO, reasons, Direction.TIGHTEN, rejectedSinceStart(),
+                estimate);
         events.onRundown(result);
     }
 
@@ -437,7 +452,7 @@ public final class JointMonitor implements PulseSink {
                 Arrays.copyOf(reversePeaks, stored), Arrays.copyOf(reverseTimes, stored),
                 Arrays.copyOf(reverseWidths, stored), Arrays.copyOf(reverseImpulses, stored),
                 reversePeak, durationMs, shutoffNs, 0, rundownFaults, Verdict.NO_GO, List.copyOf(reasons),
-                Direction.LOOSEN, rejectedSinceStart());
+                Direction.LOOSEN, rejectedSinceStart(), null);
         events.onRundown(result);
     }
 

@@ -11,6 +11,8 @@ package hammerstep.joint;
  * @param leftHand    a left-hand thread ({@code thread: left}): the fastener tightens counter-clockwise, so
  *                    the transducer reads its strikes negative. The monitor flips the sign: torques,
  *                    peaks and windows stay in the tightening sense (positive), a loosening's peaks negative
+ * @param residualCalibration the residual estimate's calibration from audits ({@code residual_calibration});
+ *                    null when the program carries none (the default factor and band apply)
  */
 public record JointProgram(
         String id,
@@ -21,12 +23,19 @@ public record JointProgram(
         Rundown rundown,
         double shutoffAtNm,
         int rehitBlows,
-        boolean leftHand) {
+        boolean leftHand,
+        ResidualCalibration residualCalibration) {
+
+    /** A program without a residual calibration. */
+    public JointProgram(String id, String revision, Torque torque, FinalTorque finalTorque, Blows blows,
+                        Rundown rundown, double shutoffAtNm, int rehitBlows, boolean leftHand) {
+        this(id, revision, torque, finalTorque, blows, rundown, shutoffAtNm, rehitBlows, leftHand, null);
+    }
 
     /** A program for a right-hand thread (the common case). */
     public JointProgram(String id, String revision, Torque torque, FinalTorque finalTorque, Blows blows,
                         Rundown rundown, double shutoffAtNm, int rehitBlows) {
-        this(id, revision, torque, finalTorque, blows, rundown, shutoffAtNm, rehitBlows, false);
+        this(id, revision, torque, finalTorque, blows, rundown, shutoffAtNm, rehitBlows, false, null);
     }
 
     /** +1 for a right-hand thread, -1 for a left-hand one: the transducer's sign of a tightening strike. */

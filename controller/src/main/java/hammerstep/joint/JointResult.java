@@ -22,6 +22,8 @@ import java.util.List;
  *                          sense; its peaks are then those reverse strikes, negative, and it is NO-GO
  *                          ({@link Reason#LOOSENED})
  * @param rejectedImpulses  electrical impulses the conditioner replaced while the rundown was under way
+ * @param residual          the residual-torque estimate (or the reason there is none); null for a loosening
+ *                          and for results built without one
  */
 public record JointResult(
         JointProgram program,
@@ -40,7 +42,17 @@ public record JointResult(
         Verdict verdict,
         List<Reason> reasons,
         Direction direction,
-        int rejectedImpulses) {
+        int rejectedImpulses,
+        ResidualEstimate residual) {
+
+    /** A result without a residual estimate. */
+    public JointResult(JointProgram program, long startNs, long endNs, int blows, double[] peaksNm,
+                       long[] peakTimesNs, double[] widthsMs, double[] impulsesNms, double finalTorqueNm,
+                       double durationMs, long shutoffAtNs, int blowsAfterShutoff, int faults, Verdict verdict,
+                       List<Reason> reasons, Direction direction, int rejectedImpulses) {
+        this(program, startNs, endNs, blows, peaksNm, peakTimesNs, widthsMs, impulsesNms, finalTorqueNm,
+                durationMs, shutoffAtNs, blowsAfterShutoff, faults, verdict, reasons, direction, rejectedImpulses, null);
+    }
 
     /** A tightening rundown without rejected impulses (built in code, or from before either existed). */
     public JointResult(JointProgram program, long startNs, long endNs, int blows, double[] peaksNm,

@@ -55,6 +55,7 @@ public final class ProgramFile {
         t.finish();
 
         FinalTorque finalTorque = FinalTorque.ofKey(root.choice("final_torque", "max_peak", FinalTorque.keys()));
+        boolean onResidual = finalTorque == FinalTorque.RESIDUAL_ESTIMATE;
 
         MapReader b = root.map("blows");
         double countAbove = b.requiredNumber("count_above", 0, MAX_NM);
@@ -109,7 +110,8 @@ public final class ProgramFile {
         } else if (shutoff < min) {
             root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is below torque.min (" + min
                     + "): the tool would stop before a joint reaches its window");
-        } else if (shutoff > max) {
+        } else if (shutoff > max && !onResidual) {
+            // judged on the residual estimate, the window is a residual one: blow peaks run above it
             root.problem("shutoff_at", "'shutoff_at' (" + shutoff + ") is above torque.max (" + max
                     + "): the tool would only stop after the joint is over torque");
         }
@@ -117,11 +119,46 @@ public final class ProgramFile {
         if (rehit > 0 && blowsMax > 0 && rehit >= blowsMax) {
             root.problem("rehit_blows", "'rehit_blows' (" + rehit + ") is not below blows.max (" + blowsMax
                     + "): every joint within the blow window would be REHIT, no joint could be GO");
+        } else if (rehit > 0 && onResidual) {
+            root.problem("rehit_blows", "'rehit_blows' judges blow peaks against torque.min, which under"
+                    + " 'final_torque: residual_estimate' is a residual window the peaks run above: every joint would"
+                    + " be REHIT; leave rehit_blows out (a rehit turns the nut no further: no turning blow,"
+                    + " RESIDUAL_UNKNOWN)");
         }
         boolean leftHand = "left".equals(root.choice("thread", "right", java.util.List.of("right", "left")));
+        ResidualCalibration calibration = calibration(root.optionalMap("residual_calibration"));
 
         return new JointProgram(id, revision, new JointProgram.Torque(min, target, max), finalTorque,
                 new JointProgram.Blows(countAbove, releaseBelow, blowsMin, blowsMax, deadTime),
-                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit, leftHand);
+                new JointProgram.Rundown(startAbove, endAfter, maxMs), shutoff, rehit, leftHand, calibration);
+    }
+
+    /**
+     * {@code residual_calibration: { factor, offset_nm, band_nm, audits, date }} as {@code hammerstep audit}
+     * prints it; null when absent or wrong (the problems are reported).
+     */
+    private static ResidualCalibration calibration(MapReader c) {
+        if (c == null) {
+            return null;
+        }
+        double factor = c.requiredNumber("factor", ResidualCalibration.MIN_FACTOR, ResidualCalibration.MAX_FACTOR);
+        double offset = c.requiredNumber("offset_nm", -MAX_NM, MAX_NM);
+        double band = c.requiredNumber("band_nm", 0, MAX_NM);
+        int audits = c.integer("audits", ResidualCalibration.MIN_AUDITS, 1_000_000);
+        String text = c.string("date");
+        java.time.LocalDate date = null;
+        try {
+            date = text.isEmpty() ? null : java.time.LocalDate.parse(text);
+        } catch (java.time.format.DateTimeParseException e) {
+            c.problem("date", "'" + c.path("date") + "' is \"" + text + "\": expected the day of the fit as YYYY-MM-DD");
+        }
+        if (band == 0) {
+            c.problem("band_nm", "'" + c.path("band_nm") + "' is 0: audits always scatter; give the band the fit left");
+        }
+        c.finish();
+        if (Double.isNaN(factor + offset + band) || date == null || band == 0) {
+            return null;
+        }
+        return new ResidualCalibration(factor, offset, band, audits, date);
     }
 }

@@ -17,5 +17,10 @@ public enum Reason {
      * Set in replay: the trace ended during the rundown, before it had stayed below its start level for
      * {@code end_after_ms}; its end, and perhaps its last blows, are not in the file. Never GO.
      */
-    TRACE_ENDED
+    TRACE_ENDED,
+    /**
+     * The program judges on the residual-torque estimate ({@code final_torque: residual_estimate}) and the
+     * rundown has none (no turning blow, hydraulic pulses, a sensor fault). Never GO.
+     */
+    RESIDUAL_UNKNOWN
 }

@@ -3,6 +3,7 @@ package hammerstep.results;
 import hammerstep.joint.JointProgram;
 import hammerstep.joint.JointResult;
 import hammerstep.joint.Reason;
+import hammerstep.joint.ResidualEstimate;
 import hammerstep.signal.SignalFaults;
 
 import java.util.ArrayList;
@@ -50,7 +51,34 @@ public final class JointFields {
         if (r.rejectedImpulses() > 0) {
             m.put("rejected_impulses", r.rejectedImpulses());
         }
+        if (r.residual() != null) {
+            m.put("residual_estimate", residual(r.residual()));
+        }
         m.put("limits", limits(p));
+        return m;
+    }
+
+    /**
+     * The residual-torque estimate: {@code torque_nm} with its 95 % band ({@code low_nm}, {@code high_nm}),
+     * {@code uncalibrated_nm} (by the default factor; what audits are fitted against), {@code slide_nm}
+     * (the measured slide torque), {@code blows_used}, {@code turning_blows} and {@code calibrated}; or,
+     * without an estimate, {@code reason} and {@code turning_blows}.
+     */
+    public static Map<String, Object> residual(ResidualEstimate e) {
+        Map<String, Object> m = new LinkedHashMap<>();
+        if (!e.present()) {
+            m.put("reason", e.reason().name());
+            m.put("turning_blows", e.turningBlows());
+            return m;
+        }
+        m.put("torque_nm", round(e.torqueNm(), 100));
+        m.put("low_nm", round(e.lowNm(), 100));
+        m.put("high_nm", round(e.highNm(), 100));
+        m.put("uncalibrated_nm", round(e.uncalibratedNm(), 100));
+        m.put("slide_nm", round(e.slipNm(), 100));
+        m.put("blows_used", e.blowsUsed());
+        m.put("turning_blows", e.turningBlows());
+        m.put("calibrated", e.calibrated());
         return m;
     }
 

@@ -63,6 +63,6 @@ final class Records {
         return new JointResult(r.program(), r.startNs(), r.endNs(), r.blows(), r.peaksNm(), r.peakTimesNs(),
                 r.widthsMs(), r.impulsesNms(), r.finalTorqueNm(), r.durationMs(), r.shutoffAtNs(),
                 r.blowsAfterShutoff(), r.faults(), Verdict.NO_GO, List.copyOf(reasons), r.direction(),
-                r.rejectedImpulses());
+                r.rejectedImpulses(), r.residual());
     }
 }

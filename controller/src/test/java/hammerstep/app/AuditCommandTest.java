@@ -82,4 +82,30 @@ class AuditCommandTest {
         assertThat(run.exit()).isEqualTo(2);
         assertThat(run.err().strip()).isEqualTo("--spec '105:85': MIN must be at least 0 and below MAX");
     }
+
+    /* The same audits as the hand-worked example, their joints carrying residual estimates 80..120 N·m
+       (EstimateFitTest works that fit by hand). */
+    @Test
+    void bothFitsSideBySideAndTheCalibrationAProgramCanCarry() throws Exception {
+        String estimates = "src/test/resources/analysis/hand-audit-estimates.jsonl";
+        Captured text = Captured.run("audit", AUDITS, estimates);
+        assertThat(text.exit()).as(text.err()).isZero();
+        assertThat(text.out()).contains("against dynamic torque", "against the residual estimate",
+                "7.200 + 0.74000 * dynamic", "22.000 + 0.74000 * estimate", "±3.60 N·m",
+                "program key: residual_calibration: { factor: 0.74000, offset_nm: 22.000, band_nm: 3.60, audits: 5, date: ");
+
+        Captured json = Captured.run("audit", AUDITS, estimates, "--json");
+        JsonNode fit = new ObjectMapper().readTree(json.out()).get("groups").get(0).get("estimate_fit");
+        assertThat(fit.get("kind").asText()).isEqualTo("line");
+        assertThat(fit.get("factor").asDouble()).isEqualTo(0.74);
+        assertThat(fit.get("offset_nm").asDouble()).isEqualTo(22.0);
+        assertThat(fit.get("band_nm").asDouble()).isEqualTo(3.6);
+        assertThat(fit.get("n").asInt()).isEqualTo(5);
+    }
+
+    @Test
+    void withoutEstimatesInTheResultsTheTextSaysSo() {
+        Captured run = Captured.run("audit", AUDITS, RESULTS);
+        assertThat(run.out()).contains("against the residual estimate: fewer than 2 audited joints carry one");
+    }
 }

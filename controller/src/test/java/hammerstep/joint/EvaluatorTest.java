@@ -66,7 +66,7 @@ class EvaluatorTest {
 
     @Test
     void programKeysNameTheRules() {
-        assertThat(FinalTorque.keys()).containsExactly("max_peak", "last_peak", "mean_last_3");
+        assertThat(FinalTorque.keys()).containsExactly("max_peak", "last_peak", "mean_last_3", "residual_estimate");
         assertThat(FinalTorque.ofKey("last_peak")).isEqualTo(FinalTorque.LAST_PEAK);
         assertThat(FinalTorque.MEAN_LAST_3.key()).isEqualTo("mean_last_3");
     }

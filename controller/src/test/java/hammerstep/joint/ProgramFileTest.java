@@ -100,6 +100,18 @@ class ProgramFileTest {
                 .isInstanceOfSatisfying(ConfigException.class, e -> assertThat(e.problems()).extracting(Problem::message)
                         .containsExactly("'torque.min': expected a number, got \"x\"",
                                 "'blows.min' (9) is above 'blows.max' (3)",
-                                "unknown key 'extra' (expected one of: id, torque, final_torque, blows, rundown, shutoff_at, rehit_blows, thread)"));
+                                "unknown key 'extra' (expected one of: id, torque, final_torque, blows, rundown, shutoff_at, rehit_blows, thread, residual_calibration)"));
+    }
+
+    @Test
+    void aProgramCarriesTheResidualCalibrationFromAudits() throws Exception {
+        JointProgram p = ProgramFile.read(hammerstep.config.YamlDocument.parse("p.yaml", (
+                "id: a\ntorque: { min: 180, target: 200, max: 230 }\nblows: { count_above: 40, min: 4, max: 30 }\n"
+                        + "rundown: { start_above: 10, end_after_ms: 200, max_ms: 5000 }\n"
+                        + "residual_calibration: { factor: 0.97, offset_nm: 4.5, band_nm: 3.2, audits: 5, date: 2026-12-03 }\n")
+                .getBytes(java.nio.charset.StandardCharsets.UTF_8)));
+        assertThat(p.residualCalibration()).isEqualTo(new ResidualCalibration(0.97, 4.5, 3.2, 5,
+                java.time.LocalDate.of(2026, 12, 3)));
+        assertThat(p.residualCalibration().apply(200)).isCloseTo(198.5, org.assertj.core.api.Assertions.within(1e-9));
     }
 }

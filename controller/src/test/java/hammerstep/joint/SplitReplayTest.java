@@ -65,7 +65,9 @@ class SplitReplayTest {
         assertThat(expected).hasSizeGreaterThan(20);
         assertThat(actual).hasSameSizeAs(expected);
         for (int i = 0; i < expected.size(); i++) {
-            assertThat(actual.get(i)).as("rundown %d", i).usingRecursiveComparison().isEqualTo(expected.get(i));
+            // Double.compare: a residual estimate without a value holds NaN, equal to itself here
+            assertThat(actual.get(i)).as("rundown %d", i).usingRecursiveComparison()
+                    .withComparatorForType(Double::compare, Double.class).isEqualTo(expected.get(i));
         }
     }
 

@@ -45,6 +45,50 @@ class ResultMessagesTest {
         MessageSchemas.assertValid(ResultMessages.event(Samples.STATION, "e-1", 1, Samples.event()));
     }
 
+    private static JointOutcome withResidual(hammerstep.joint.ResidualEstimate e) {
+        hammerstep.joint.JointResult r = Samples.result(true);
+        hammerstep.joint.JointResult with = new hammerstep.joint.JointResult(r.program(), r.startNs(), r.endNs(),
+                r.blows(), r.peaksNm(), r.peakTimesNs(), r.widthsMs(), r.impulsesNms(), r.finalTorqueNm(),
+                r.durationMs(), r.shutoffAtNs(), r.blowsAfterShutoff(), r.faults(), r.verdict(), r.reasons(),
+                r.direction(), r.rejectedImpulses(), e);
+        JointOutcome j = Samples.joint(2, true);
+        return new JointOutcome(j.partSerial(), j.partModel(), j.pattern(), j.position(), j.positionIndex(), j.pass(),
+                j.attempt(), with, j.transducerSerial(), j.calibrationDue(), j.at(), j.tracePath());
+    }
+
+    @Test
+    void jointMessageCarriesTheResidualEstimateWithItsBandOrTheReasonThereIsNone() throws Exception {
+        hammerstep.joint.ResidualEstimate e = new hammerstep.joint.ResidualEstimate(231.4, 224.23, 238.57, 231.4,
+                206.61, 3, 9, false, null);
+        byte[] bytes = ResultMessages.joint(Samples.STATION, "id-5", 2, withResidual(e));
+        MessageSchemas.assertValid(bytes);
+        JsonNode est = JSON.readTree(bytes).get("residual_estimate");
+        assertThat(est.get("torque_nm").asDouble()).isEqualTo(231.4);
+        assertThat(est.get("low_nm").asDouble()).isEqualTo(224.23);
+        assertThat(est.get("high_nm").asDouble()).isEqualTo(238.57);
+        assertThat(est.get("slide_nm").asDouble()).isEqualTo(206.61);
+        assertThat(est.get("blows_used").asInt()).isEqualTo(3);
+        assertThat(est.get("calibrated").asBoolean()).isFalse();
+        assertThat(est.has("reason")).isFalse();
+
+        byte[] none = ResultMessages.joint(Samples.STATION, "id-6", 3, withResidual(hammerstep.joint.ResidualEstimate
+                .none(hammerstep.joint.ResidualEstimate.Reason.NO_TURNING_BLOW, 0)));
+        MessageSchemas.assertValid(none);
+        assertThat(JSON.readTree(none).get("residual_estimate").toString())
+                .isEqualTo("{\"reason\":\"NO_TURNING_BLOW\",\"turning_blows\":0}");
+        // without an estimate of its own, a result carries no field at all
+        assertThat(JSON.readTree(ResultMessages.joint(Samples.STATION, "id-7", 4, Samples.joint(1, true)))
+                .has("residual_estimate")).isFalse();
+    }
+
+    @Test
+    void schemaRejectsAResidualEstimateWithNeitherValueNorReason() {
+        String bad = new String(ResultMessages.joint(Samples.STATION, "id-8", 1, withResidual(
+                hammerstep.joint.ResidualEstimate.none(hammerstep.joint.ResidualEstimate.Reason.NO_TURNING_BLOW, 0))))
+                .replace("\"reason\":\"NO_TURNING_BLOW\",", "");
+        assertThat(MessageSchemas.problems(bad.getBytes())).isNotEmpty();
+    }
+
     @Test
     void schemaRejectsAJointWithoutSeq() {
         String bad = new String(ResultMessages.joint(Samples.STATION, "id-3", 1, Samples.joint(1, true)))

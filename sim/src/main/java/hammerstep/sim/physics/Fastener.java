@@ -21,6 +21,13 @@ import java.util.SplittableRandom;
  * joint's rate; at the bolt's yield load the bolt takes a permanent set and hardens (Voce) toward its
  * saturation load. The running torque follows the clamp load (T = K·F·d), so the torque-angle curve
  * flattens and the nut keeps turning under the blows. Turning back, the bolt unloads elastically.
+ *
+ * <p>A joint that names a friction law ({@link JointSpec#friction()}, docs/simulator.md "Friction") replaces
+ * the single torque coefficient by thread and bearing-face friction: {@link JointFriction} gives the
+ * coefficients in use (static at rest, after the rest time; turning, by slip speed and slip since breakaway)
+ * and {@link ThreadGeometry#torqueNm} the torque at the clamp load, with the pitch term's sign changing when
+ * loosening. The blow-to-blow scatter then scales the static coefficients; {@code frictionScatter} and
+ * {@code staticFrictionRatio} are not used.
  */
 final class Fastener {
 
@@ -52,6 +59,12 @@ final class Fastener {
     private double hardenScaleRad;
     private double jointWorkJ;
     private double restS;
+    /** The joint's friction law; null: the single torque coefficient (the law of joints without one). */
+    private final JointFriction friction = new JointFriction();
+    private boolean modelled;
+    private ThreadGeometry geometry;
+    /** Rotation since the last breakaway, rad (the stick–slip law's slip). */
+    private double slipRad;
 
     Fastener(JointSpec joint, double inertiaKgM2, SplittableRandom random) {
         this.inertia = inertiaKgM2;
@@ -77,7 +90,18 @@ final class Fastener {
         embeddedRad = 0;
         jointWorkJ = 0;
         restS = 0;
-        frictionScale = Math.max(0.5, 1.0 + joint.frictionScatter() * random.nextGaussian());
+        slipRad = 0;
+        modelled = joint.friction() != null;
+        if (modelled) {
+            geometry = ThreadGeometry.of(joint);
+            if (geometry == null) {
+                throw new IllegalArgumentException("joint " + joint.name() + ": a friction law needs an ISO metric size M6 to M30");
+            }
+            friction.renew(joint.friction(), geometry, random);
+            frictionScale = 1.0;
+        } else {
+            frictionScale = Math.max(0.5, 1.0 + joint.frictionScatter() * random.nextGaussian());
+        }
         drawHold();
     }
 
@@ -85,8 +109,16 @@ final class Fastener {
         holdScale = joint.blowScatter() > 0 ? Math.max(0.8, 1.0 + joint.blowScatter() * random.nextGaussian()) : 1.0;
     }
 
-    /** Running torque at the present angle, N·m, with this fastener's friction and embedding. */
+    /**
+     * Running torque at the present angle, N·m, with this fastener's friction and embedding; under a friction
+     * law, at the kinetic coefficients (slow, steady turning).
+     */
     double runningTorqueNm() {
+        if (modelled) {
+            double th = friction.threadKinetic();
+            return friction.prevailingNm(joint.prevailingTorqueNm(), th)
+                    + geometry.torqueNm(clampLoadN(), th, friction.headKinetic(), false);
+        }
         double f = clampLoadN();
         double nominal = joint.prevailingTorqueNm() + (f > 0 ? f * joint.kFactor() * joint.diameterM() : 0.0);
         return frictionScale * nominal;
@@ -131,6 +163,10 @@ final class Fastener {
      * tightening, backward in reverse): the nut's {@link #speedRadS()} is in that sense too.
      */
     void advance(double h, double trainNm) {
+        if (modelled) {
+            advanceModelled(h, trainNm);
+            return;
+        }
         double running = reverse ? LOOSENING_RATIO * runningTorqueNm() : runningTorqueNm();
         if (stuck) {
             if (trainNm <= joint.staticFrictionRatio() * holdScale * running) {
@@ -150,6 +186,51 @@ final class Fastener {
         }
         angle += reverse ? -h * speed : h * speed;
         jointWorkJ += running * speed * h;
+        if (!reverse) {
+            yieldBolt();
+        }
+    }
+
+    /** {@link #advance} under the joint's friction law. */
+    private void advanceModelled(double h, double trainNm) {
+        double f = clampLoadN();
+        if (stuck) {
+            // below the torque at the kinetic coefficients nothing breaks away whatever the rest: no pow, no exp
+            double thK = friction.threadKinetic();
+            double floor = friction.prevailingNm(joint.prevailingTorqueNm(), thK)
+                    + geometry.torqueNm(f, thK, friction.headKinetic(), reverse);
+            if (trainNm <= floor) {
+                restS += h;
+                relax(h);
+                return;
+            }
+            double th = Math.max(thK, holdScale * friction.threadStaticAfter(restS));
+            double hd = Math.max(friction.headKinetic(), holdScale * friction.headStaticAfter(restS));
+            double hold = friction.prevailingNm(joint.prevailingTorqueNm(), th) + geometry.torqueNm(f, th, hd, reverse);
+            if (trainNm <= hold) {
+                restS += h;
+                relax(h);
+                return;
+            }
+            friction.breakAway(th, hd);
+            slipRad = 0;
+            stuck = false;
+        }
+        double th = friction.threadTurning(speed, slipRad);
+        double running = friction.prevailingNm(joint.prevailingTorqueNm(), th)
+                + geometry.torqueNm(f, th, friction.headTurning(speed, slipRad), reverse);
+        speed += h * (trainNm - running) * invInertia;
+        if (speed <= 0) {
+            speed = 0;
+            stuck = true;
+            restS = 0;
+            drawHold();
+            return;
+        }
+        double turned = h * speed;
+        angle += reverse ? -turned : turned;
+        slipRad += turned;
+        jointWorkJ += running * turned;
         if (!reverse) {
             yieldBolt();
         }
@@ -178,9 +259,40 @@ final class Fastener {
         return reverse;
     }
 
-    /** Torque to start the fastener turning further now (first movement), N·m. */
+    /**
+     * Residual torque, N·m. Under a friction law: what a breakaway audit reads (docs/simulator.md, "Residual
+     * torque"): the torque at first movement in the tightening direction, static friction of thread and bearing
+     * face after {@link FrictionSpec#AUDIT_DWELL_S} of rest (or the rest so far, if longer), at the clamp load
+     * left once embedding has run its course. Without one: the static ratio times the running torque now.
+     */
     double residualTorqueNm() {
-        return joint.staticFrictionRatio() * runningTorqueNm();
+        if (!modelled) {
+            return joint.staticFrictionRatio() * runningTorqueNm();
+        }
+        double dwell = Math.max(restS, FrictionSpec.AUDIT_DWELL_S);
+        double th = friction.threadStaticAfter(dwell);
+        return friction.prevailingNm(joint.prevailingTorqueNm(), th)
+                + geometry.torqueNm(relaxedClampLoadN(), th, friction.headStaticAfter(dwell), false);
+    }
+
+    /** Clamp load once embedding has taken its full share of the elastic clamp angle, N. */
+    double relaxedClampLoadN() {
+        double elastic = angle - joint.freeAngleRad() - plasticRad;
+        if (elastic <= 0) {
+            return 0.0;
+        }
+        double embedded = Math.max(embeddedRad, joint.relaxationLoss() * elastic);
+        return Math.max(0.0, clampRate * (elastic - embedded));
+    }
+
+    /** This fastener's friction coefficients (under a friction law; meaningless without one). */
+    JointFriction friction() {
+        return friction;
+    }
+
+    /** Whether the joint names a friction law. */
+    boolean modelled() {
+        return modelled;
     }
 
     /**

@@ -21,11 +21,32 @@ package hammerstep.sim.physics;
  * @param relaxationTimeConstantMs time constant of that loss
  * @param bolt                 the bolt (size and ISO 898-1 property class) that yields; {@code null}: an
  *                             elastic bolt that never yields (a joint file without a {@code bolt} section)
+ * @param friction             the friction law of thread and bearing face with its lubrication state
+ *                             (docs/simulator.md, "Friction"); {@code null}: the single torque coefficient K with
+ *                             {@code staticFrictionRatio} and {@code frictionScatter} (a joint file that names no
+ *                             {@code friction.model}). With a law, {@code kFactor} still sets the joint's clamp
+ *                             rate (full torque at K), but torque follows the drawn coefficients.
  */
 public record JointSpec(String name, double prevailingTorqueNm, double freeAngleRad, double fullTorqueNm,
                         double angleToFullRad, double staticFrictionRatio, double frictionScatter, double blowScatter,
                         double kFactor, double diameterM, double relaxationLoss, double relaxationTimeConstantMs,
-                        Bolt bolt) {
+                        Bolt bolt, FrictionSpec friction) {
+
+    /** A joint with the single torque coefficient (no friction law). */
+    public JointSpec(String name, double prevailingTorqueNm, double freeAngleRad, double fullTorqueNm,
+                     double angleToFullRad, double staticFrictionRatio, double frictionScatter, double blowScatter,
+                     double kFactor, double diameterM, double relaxationLoss, double relaxationTimeConstantMs,
+                     Bolt bolt) {
+        this(name, prevailingTorqueNm, freeAngleRad, fullTorqueNm, angleToFullRad, staticFrictionRatio, frictionScatter,
+                blowScatter, kFactor, diameterM, relaxationLoss, relaxationTimeConstantMs, bolt, null);
+    }
+
+    /** This joint under another friction law ({@code null}: the single torque coefficient), named {@code newName}. */
+    public JointSpec withFriction(String newName, FrictionSpec law) {
+        return new JointSpec(newName, prevailingTorqueNm, freeAngleRad, fullTorqueNm, angleToFullRad,
+                staticFrictionRatio, frictionScatter, blowScatter, kFactor, diameterM, relaxationLoss,
+                relaxationTimeConstantMs, bolt, law);
+    }
 
     /** Clamp load per radian past the snug point while the bolt is elastic, N/rad (from T = K·F·d). */
     public double clampRateNPerRad() {

@@ -156,6 +156,7 @@ final class PresetReaders {
         double ratio = f.number("static_ratio", 1.1, 1, 3);
         double scatter = f.number("scatter", 0.0, 0, 0.3);
         double blow = f.number("blow_scatter", 0.0, 0, 0.2);
+        FrictionSpec law = frictionLaw(f);
         f.finish();
         MapReader t = r.map("thread");
         double d = t.requiredNumber("diameter_mm", 1, 200) * 1e-3;
@@ -170,7 +171,40 @@ final class PresetReaders {
             tau = x.number("time_constant_ms", 100, 1, 1e6);
             x.finish();
         }
-        return new JointSpec(name, prevailing, free, full, toFull, ratio, scatter, blow, k, d, loss, tau, bolt);
+        JointSpec joint = new JointSpec(name, prevailing, free, full, toFull, ratio, scatter, blow, k, d, loss, tau, bolt, law);
+        if (law != null && !Double.isNaN(d) && ThreadGeometry.of(joint) == null) {
+            f.problem("model", "'" + f.path("model") + "': a friction law needs an ISO metric size M6 to M30 (thread.diameter_mm)");
+        }
+        return joint;
+    }
+
+    /**
+     * {@code friction: { model: stribeck, lubrication: oiled }}; null when no model is named (the single torque
+     * coefficient). A model replaces {@code static_ratio} and {@code scatter}, so they may not stand beside it.
+     */
+    private static FrictionSpec frictionLaw(MapReader f) {
+        if (!f.has("model")) {
+            if (f.has("lubrication")) {
+                f.problem("lubrication", "'" + f.path("lubrication") + "' needs a 'model' beside it: expected one of "
+                        + String.join(", ", FrictionSpec.MODEL_KEYS));
+            }
+            return null;
+        }
+        String model = f.choice("model", "", FrictionSpec.MODEL_KEYS);
+        String lubrication = f.choice("lubrication", "", FrictionSpec.LUBRICATION_KEYS);
+        if (!f.has("lubrication")) {
+            f.problem("lubrication", "missing key '" + f.path("lubrication") + "': a friction model needs one of "
+                    + String.join(", ", FrictionSpec.LUBRICATION_KEYS));
+        }
+        for (String replaced : new String[] {"static_ratio", "scatter"}) {
+            if (f.has(replaced)) {
+                f.problem(replaced, "'" + f.path(replaced) + "' applies without a friction model only: the model draws"
+                        + " static and kinetic coefficients itself");
+            }
+        }
+        FrictionSpec.Model m = FrictionSpec.Model.of(model);
+        FrictionSpec.Lubrication l = FrictionSpec.Lubrication.of(lubrication);
+        return m == null || l == null ? null : new FrictionSpec(m, l);
     }
 
     /** {@code bolt: { size: M16, property_class: 10.9 }} or {@code size: M14x1.5}; null when absent. */

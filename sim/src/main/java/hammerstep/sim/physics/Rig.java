@@ -61,6 +61,8 @@ public final class Rig {
     private double blowPeakNm;
     private long blowPeakStep;
     private double blowPeakTurns;
+    /** The nut's angle (tool's sense) when the open blow's episode began, rad. */
+    private double blowOpenRad;
     private double blowLowNm;
     private long blowLowStep;
     /** The open blow reached the threshold backwards first: a back contact, never a blow. */
@@ -69,6 +71,7 @@ public final class Rig {
     private final double[] blowTimesS = new double[MAX_BLOWS];
     private final double[] blowTurns = new double[MAX_BLOWS];
     private final boolean[] blowCutShort = new boolean[MAX_BLOWS];
+    private final double[] blowTurnedRad = new double[MAX_BLOWS];
     private int closedBlows;
     private final double[] backPeaksNm = new double[MAX_BACK_CONTACTS];
     private final double[] backTimesS = new double[MAX_BACK_CONTACTS];
@@ -188,6 +191,7 @@ public final class Rig {
             if (!blowOpen) {
                 blowOpen = true;
                 blowStartStep = steps;
+                blowOpenRad = toolSense(fastener.angleRad());
                 blowPeakNm = 0;
                 blowLowNm = 0;
                 backFirst = false;
@@ -234,6 +238,7 @@ public final class Rig {
                 blowTimesS[closedBlows] = blowPeakStep * h;
                 blowTurns[closedBlows] = blowPeakTurns;
                 blowCutShort[closedBlows] = openCutShort;
+                blowTurnedRad[closedBlows] = toolSense(fastener.angleRad()) - blowOpenRad;
             }
             closedBlows++;
         }
@@ -365,6 +370,15 @@ public final class Rig {
     /** Turns of the mechanism's input relative to the fastener at blow {@code i}'s peak (see {@link #relativeTurns()}). */
     public double blowTurns(int i) {
         return i == closedBlows ? blowPeakTurns : blowTurns[i];
+    }
+
+    /**
+     * Angle the nut turned during blow {@code i} (from its episode's first touch to its close, in the tool's
+     * sense), degrees: zero for a blow that did not turn the nut. The open blow's so far.
+     */
+    public double blowTurnedDeg(int i) {
+        double rad = i == closedBlows ? toolSense(fastener.angleRad()) - blowOpenRad : blowTurnedRad[i];
+        return Math.toDegrees(rad);
     }
 
     /**
