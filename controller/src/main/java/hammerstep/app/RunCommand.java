@@ -251,7 +251,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
     private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id) {
         try {
             WebView web = WebView.start(settings, board, id.site() + "/" + id.line() + "/" + id.station());
-            LOG.info("web view on http://{}:{}/ ({})", settings.bind(), web.port(),
+            LOG.info("web view on {}://{}:{}/ ({})", settings.scheme(), settings.bind(), web.port(),
                     web.open() ? "loopback, no login" : "accounts of " + settings.usersFile());
             return web;
         } catch (java.io.IOException | Accounts.AccountsException e) {

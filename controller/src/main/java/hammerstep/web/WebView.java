@@ -4,6 +4,10 @@ import com.sun.net.httpserver.Authenticator;
 import com.sun.net.httpserver.HttpExchange;
 import com.sun.net.httpserver.HttpPrincipal;
 import com.sun.net.httpserver.HttpServer;
+import com.sun.net.httpserver.HttpsConfigurator;
+import com.sun.net.httpserver.HttpsParameters;
+import com.sun.net.httpserver.HttpsServer;
+import hammerstep.mqtt.PemFiles;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -17,6 +21,8 @@ import java.net.URI;
 import java.net.URLDecoder;
 import java.nio.charset.StandardCharsets;
 import java.util.Base64;
+import javax.net.ssl.SSLContext;
+import javax.net.ssl.SSLParameters;
 import java.util.HashMap;
 import java.util.Map;
 import java.util.concurrent.ExecutorService;
@@ -33,6 +39,9 @@ import java.util.concurrent.atomic.AtomicInteger;
  * PBKDF2 hashes; send it over TLS or a trusted network only); without one (allowed on loopback
  * only) every request is a viewer and the Host header must name the loopback, so a web page
  * elsewhere cannot reach the view through a rebound DNS name.
+ *
+ * <p>With {@code cert_file} and {@code key_file} in the settings the server speaks HTTPS only,
+ * TLS 1.3 or 1.2, with the station's certificate.
  */
 public final class WebView implements AutoCloseable {
 
@@ -71,7 +80,8 @@ public final class WebView implements AutoCloseable {
         if (accounts == null && !settings.loopbackOnly()) {
             throw new IllegalArgumentException("an open web view is for loopback only, not " + settings.bind());
         }
-        HttpServer server = HttpServer.create(new InetSocketAddress(settings.bind(), settings.port()), 32);
+        HttpServer server = settings.tls() ? https(settings) : HttpServer.create();
+        server.bind(new InetSocketAddress(settings.bind(), settings.port()), 32);
         AtomicInteger n = new AtomicInteger();
         ExecutorService pool = Executors.newFixedThreadPool(4, r -> {
             Thread t = new Thread(r, "web-" + n.incrementAndGet());
@@ -85,6 +95,23 @@ public final class WebView implements AutoCloseable {
         server.start();
         view.feedThread.start();
         return view;
+    }
+
+    /** TLS versions the view speaks; older ones are refused at the handshake. */
+    static final String[] PROTOCOLS = {"TLSv1.3", "TLSv1.2"};
+
+    private static HttpsServer https(WebSettings settings) throws IOException {
+        SSLContext ctx = PemFiles.serverContext(settings.certFile(), settings.keyFile());
+        HttpsServer server = HttpsServer.create();
+        server.setHttpsConfigurator(new HttpsConfigurator(ctx) {
+            @Override
+            public void configure(HttpsParameters params) {
+                SSLParameters p = ctx.getDefaultSSLParameters();
+                p.setProtocols(PROTOCOLS);
+                params.setSSLParameters(p);
+            }
+        });
+        return server;
     }
 
     /** The port served (the one asked for, or the one the system chose for port 0). */
