@@ -25,6 +25,7 @@ import hammerstep.web.Accounts;
 import hammerstep.web.LiveBoard;
 import hammerstep.web.ResultLog;
 import hammerstep.web.WebSettings;
+import hammerstep.web.WebStation;
 import hammerstep.web.WebView;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
@@ -148,7 +149,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         if (td.calibrationDue(java.time.LocalDate.now())) {
             LOG.warn("transducer {} calibration was due on {}", td.serial(), td.calibrationDue());
         }
-        WebView web = board == null ? null : startWeb(webSettings, board, id);
+        WebView web = board == null ? null : startWeb(webSettings, board, id, webStation(station, parts));
         try (StationRunner stationRunner = new StationRunner(agent)) {
             AgentRunner.startOnThread(acquisitionRunner);
             stationRunner.start();
@@ -248,9 +249,15 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
 
 
     /** Serves the web view as the station file's {@code web} section says; a port it cannot bind stops the start. */
-    private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id) {
+    /** What the web view knows of the station's files: its stored traces and its patterns. */
+    private WebStation webStation(StationConfig station, PartsSection.Parts parts) {
+        hammerstep.trace.TracesSection.Traces traces = station.get(hammerstep.trace.TracesSection.INSTANCE);
+        return new WebStation(traces == null ? null : traces.dir(), parts.byModel(), null);
+    }
+
+    private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id, WebStation files) {
         try {
-            WebView web = WebView.start(settings, board, id.site() + "/" + id.line() + "/" + id.station());
+            WebView web = WebView.start(settings, board, id.site() + "/" + id.line() + "/" + id.station(), files);
             LOG.info("web view on http://{}:{}/ ({})", settings.bind(), web.port(),
                     web.open() ? "loopback, no login" : "accounts of " + settings.usersFile());
             return web;

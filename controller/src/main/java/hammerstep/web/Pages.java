@@ -341,18 +341,24 @@ final class Pages {
         b.append("<td class=\"num").append(low ? " low" : "").append("\">").append(Html.num(v, decimals)).append("</td>");
     }
 
+    /** A page refused to this account (403). */
+    Reply refused(String why) {
+        return new Reply(403, head("Not for this account") + "<p class=\"error\" id=\"refused\">" + Html.esc(why)
+                + "</p>" + foot());
+    }
+
     // ---- frame -----------------------------------------------------------------------------------
 
-    private String head(String title) {
+    String head(String title) {
         return "<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" "
                 + "content=\"width=device-width, initial-scale=1\"><title>" + Html.esc(title) + " · "
                 + Html.esc(station) + "</title><link rel=\"stylesheet\" href=\"/style.css\"></head><body><header>"
                 + "<strong>" + Html.esc(station) + "</strong><nav><a href=\"/\">Station</a><a href=\"/results\">Results</a>"
-                + "<a href=\"/capability\">Capability</a></nav></header><main><h1>" + Html.esc(title) + "</h1>"
+                + "<a href=\"/capability\">Capability</a><a href=\"/programs\">Programs</a><a href=\"/whatif\">What-if</a></nav></header><main><h1>" + Html.esc(title) + "</h1>"
                 + (open ? OPEN_NOTE : "");
     }
 
-    private static String foot() {
+    static String foot() {
         return "</main></body></html>";
     }
 }

@@ -45,16 +45,19 @@ public final class WebView implements AutoCloseable {
     private final LiveFeed feed;
     private final Thread feedThread;
     private final Pages pages;
+    private final WhatIfPages whatIf;
     private final Accounts accounts;
     private final boolean open;
 
-    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station) {
+    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station,
+                    WebStation files) {
         this.server = server;
         this.pool = pool;
         this.accounts = accounts;
         this.open = accounts == null;
         this.feed = new LiveFeed(board);
         this.pages = new Pages(board, station, open);
+        this.whatIf = new WhatIfPages(pages, board, files);
         this.feedThread = new Thread(feed, "web-live");
         this.feedThread.setDaemon(true);
     }
@@ -67,6 +70,15 @@ public final class WebView implements AutoCloseable {
      */
     public static WebView start(WebSettings settings, LiveBoard board, String station)
             throws IOException, Accounts.AccountsException {
+        return start(settings, board, station, WebStation.none());
+    }
+
+    /**
+     * Starts serving, with the station's files for the what-if and programs pages; returns once the
+     * port is bound.
+     */
+    public static WebView start(WebSettings settings, LiveBoard board, String station, WebStation files)
+            throws IOException, Accounts.AccountsException {
         Accounts accounts = settings.usersFile() == null ? null : Accounts.read(settings.usersFile());
         if (accounts == null && !settings.loopbackOnly()) {
             throw new IllegalArgumentException("an open web view is for loopback only, not " + settings.bind());
@@ -78,7 +90,7 @@ public final class WebView implements AutoCloseable {
             t.setDaemon(true);
             return t;
         });
-        WebView view = new WebView(server, pool, board, accounts, station);
+        WebView view = new WebView(server, pool, board, accounts, station, files);
         var context = server.createContext("/", view::handle);
         context.setAuthenticator(view.new Login());
         server.setExecutor(pool);
@@ -106,6 +118,7 @@ public final class WebView implements AutoCloseable {
     public void close() {
         feed.stop();
         feedThread.interrupt();
+        whatIf.close();
         server.stop(0);
         pool.shutdownNow();
     }
@@ -173,14 +186,26 @@ public final class WebView implements AutoCloseable {
         boolean stream = false;
         try {
             String method = ex.getRequestMethod();
-            if (!method.equals("GET") && !method.equals("HEAD")) {
-                ex.getResponseHeaders().set("Allow", "GET, HEAD");
-                send(ex, 405, "text/plain", "this view is read-only: GET and HEAD only\n");
+            URI uri = ex.getRequestURI();
+            String path = uri.getPath();
+            boolean post = method.equals("POST");
+            if (!method.equals("GET") && !method.equals("HEAD") && !(post && FORMS.contains(path))) {
+                ex.getResponseHeaders().set("Allow", FORMS.contains(path) ? "GET, HEAD, POST" : "GET, HEAD");
+                send(ex, 405, "text/plain", FORMS.contains(path) ? "GET, HEAD or POST only\n"
+                        : "this page is read-only: GET and HEAD only\n");
                 return;
             }
-            URI uri = ex.getRequestURI();
+            Role role = (Role) ex.getAttribute(ROLE);
+            if (path.startsWith("/whatif") && (role == null || !role.covers(Role.ENGINEER))) {
+                page(ex, pages.refused("The what-if needs an engineer's account; "
+                        + (open ? "this open view is a viewer's." : "yours is a viewer's.")));
+                return;
+            }
+            if (post) {
+                post(ex, path);
+                return;
+            }
             Map<String, String> q = query(uri.getRawQuery());
-            String path = uri.getPath();
             switch (path) {
                 case "/" -> asset(ex, "live.html", "text/html");
                 case "/live.js" -> asset(ex, "live.js", "text/javascript");
@@ -191,6 +216,8 @@ public final class WebView implements AutoCloseable {
                 case "/joint" -> page(ex, pages.joint(q.getOrDefault("id", "")));
                 case "/part" -> page(ex, pages.part(q.getOrDefault("serial", "")));
                 case "/capability" -> page(ex, pages.capability(q));
+                case "/whatif" -> page(ex, whatIf.page(""));
+                case "/whatif/joint" -> page(ex, whatIf.joint(q.getOrDefault("n", "")));
                 default -> send(ex, 404, "text/plain", "no such page: " + path + "\n");
             }
         } catch (RuntimeException e) {
@@ -203,6 +230,46 @@ public final class WebView implements AutoCloseable {
                 ex.close();
             }
         }
+    }
+
+    /** Paths that take a POST: every one a form protected against cross-site requests. */
+    private static final java.util.Set<String> FORMS = java.util.Set.of("/whatif");
+
+    /** A form sent: its body read within {@link WhatIfPages#MAX_FORM_BYTES}, then handed to its page. */
+    private void post(HttpExchange ex, String path) throws IOException {
+        String length = ex.getRequestHeaders().getFirst("Content-Length");
+        long declared;
+        try {
+            declared = length == null ? -1 : Long.parseLong(length.strip());
+        } catch (NumberFormatException e) {
+            declared = -1;
+        }
+        byte[] body = declared > WhatIfPages.MAX_FORM_BYTES ? new byte[0]
+                : ex.getRequestBody().readNBytes(WhatIfPages.MAX_FORM_BYTES + 1);
+        if (declared > WhatIfPages.MAX_FORM_BYTES || body.length > WhatIfPages.MAX_FORM_BYTES) {
+            // read (and drop) a little more so the browser sees the answer, not a connection reset
+            long left = 4L * WhatIfPages.MAX_FORM_BYTES;
+            InputStream in = ex.getRequestBody();
+            while (left > 0 && in.read() >= 0) {
+                left--;
+            }
+            send(ex, 413, "text/plain", "a form of at most " + WhatIfPages.MAX_FORM_BYTES / 1024 + " KiB is taken\n");
+            return;
+        }
+        Map<String, FormBody.Field> form;
+        try {
+            form = FormBody.parse(ex.getRequestHeaders().getFirst("Content-Type"), body);
+        } catch (FormBody.BadForm e) {
+            send(ex, 400, "text/plain", e.getMessage() + "\n");
+            return;
+        }
+        String who = ex.getPrincipal() == null ? "?" : ex.getPrincipal().getUsername();
+        page(ex, whatIf.start(form, who, ""));
+    }
+
+    /** Waits until the what-if under way (if any) has ended; for tests. */
+    public void awaitWhatIf(java.time.Duration timeout) throws Exception {
+        whatIf.awaitIdle(timeout.toMillis());
     }
 
     /** Opens a page's event stream; true when the feed took it (the exchange then stays open). */
@@ -245,6 +312,11 @@ public final class WebView implements AutoCloseable {
     }
 
     private static void page(HttpExchange ex, Pages.Reply reply) throws IOException {
+        if (reply.status() == 303) {
+            ex.getResponseHeaders().set("Location", reply.html());
+            send(ex, 303, "text/plain", "see " + reply.html() + "\n");
+            return;
+        }
         send(ex, reply.status(), "text/html", reply.html());
     }
 
