@@ -15,6 +15,10 @@ import java.io.Writer;
 import java.net.InetSocketAddress;
 import java.net.URI;
 import java.net.URLDecoder;
+import java.security.GeneralSecurityException;
+import java.security.MessageDigest;
+import javax.crypto.Mac;
+import javax.crypto.spec.SecretKeySpec;
 import java.nio.charset.StandardCharsets;
 import java.util.Base64;
 import java.util.HashMap;
@@ -48,6 +52,8 @@ public final class WebView implements AutoCloseable {
     private final WhatIfPages whatIf;
     private final Accounts accounts;
     private final boolean open;
+    /** The key of this run's cross-site tokens: random at each start, never stored or shown. */
+    private final byte[] tokenKey = new byte[32];
 
     private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station,
                     WebStation files) {
@@ -55,6 +61,7 @@ public final class WebView implements AutoCloseable {
         this.pool = pool;
         this.accounts = accounts;
         this.open = accounts == null;
+        new java.security.SecureRandom().nextBytes(tokenKey);
         this.feed = new LiveFeed(board);
         this.pages = new Pages(board, station, open);
         this.whatIf = new WhatIfPages(pages, board, files);
@@ -125,7 +132,9 @@ public final class WebView implements AutoCloseable {
 
     /** Checks the account of every request, or the Host header of an open view. */
     private final class Login extends Authenticator {
-        private final Map<String, Role> recent = new java.util.concurrent.ConcurrentHashMap<>();
+        private record Known(String user, Role role) { }
+
+        private final Map<String, Known> recent = new java.util.concurrent.ConcurrentHashMap<>();
 
         @Override
         public Result authenticate(HttpExchange ex) {
@@ -139,8 +148,9 @@ public final class WebView implements AutoCloseable {
             }
             String header = ex.getRequestHeaders().getFirst("Authorization");
             if (header != null && header.regionMatches(true, 0, "Basic ", 0, 6) && header.length() < 1024) {
-                Role role = recent.get(header);
-                String user = null;
+                Known known = recent.get(header);
+                Role role = known == null ? null : known.role();
+                String user = known == null ? null : known.user();
                 if (role == null) {
                     String decoded;
                     try {
@@ -157,7 +167,7 @@ public final class WebView implements AutoCloseable {
                             if (recent.size() > 64) {
                                 recent.clear();
                             }
-                            recent.put(header, role);
+                            recent.put(header, new Known(user, role));
                         }
                     }
                 }
@@ -216,7 +226,7 @@ public final class WebView implements AutoCloseable {
                 case "/joint" -> page(ex, pages.joint(q.getOrDefault("id", "")));
                 case "/part" -> page(ex, pages.part(q.getOrDefault("serial", "")));
                 case "/capability" -> page(ex, pages.capability(q));
-                case "/whatif" -> page(ex, whatIf.page(""));
+                case "/whatif" -> page(ex, whatIf.page(token(ex)));
                 case "/whatif/joint" -> page(ex, whatIf.joint(q.getOrDefault("n", "")));
                 default -> send(ex, 404, "text/plain", "no such page: " + path + "\n");
             }
@@ -232,11 +242,60 @@ public final class WebView implements AutoCloseable {
         }
     }
 
+    /** The name of the hidden field that carries the cross-site token in every form. */
+    static final String TOKEN_FIELD = "csrf";
+
+    /**
+     * The cross-site token of this request's account: HMAC-SHA256, under a key drawn at the view's
+     * start, of the account's name and role. A page of another site can make a browser send a form
+     * (with the account's cached login) but cannot read this view's pages, so it cannot know the token.
+     */
+    String token(HttpExchange ex) {
+        String who = ex.getPrincipal() == null ? "" : ex.getPrincipal().getUsername();
+        Role role = (Role) ex.getAttribute(ROLE);
+        try {
+            Mac mac = Mac.getInstance("HmacSHA256");
+            mac.init(new SecretKeySpec(tokenKey, "HmacSHA256"));
+            byte[] t = mac.doFinal(("csrf\u0000" + who + "\u0000" + (role == null ? "" : role.label()))
+                    .getBytes(StandardCharsets.UTF_8));
+            return Base64.getUrlEncoder().withoutPadding().encodeToString(t);
+        } catch (GeneralSecurityException e) {
+            throw new IllegalStateException("HmacSHA256 missing from this Java runtime", e);
+        }
+    }
+
+    /**
+     * True when a state-changing request may come from where its Origin (else its Referer) header
+     * says: from this view's own address (scheme aside, as TLS may end in front of it). A request
+     * with neither header is judged by its token alone.
+     */
+    static boolean sameOrigin(String host, String origin, String referer) {
+        String from = origin != null ? origin : referer;
+        if (from == null) {
+            return true;
+        }
+        if (host == null || from.strip().equals("null")) {
+            return false;
+        }
+        try {
+            URI u = new URI(from.strip());
+            String authority = u.getRawAuthority();
+            return authority != null && authority.equalsIgnoreCase(host.strip());
+        } catch (java.net.URISyntaxException e) {
+            return false;
+        }
+    }
+
     /** Paths that take a POST: every one a form protected against cross-site requests. */
     private static final java.util.Set<String> FORMS = java.util.Set.of("/whatif");
 
     /** A form sent: its body read within {@link WhatIfPages#MAX_FORM_BYTES}, then handed to its page. */
     private void post(HttpExchange ex, String path) throws IOException {
+        var h = ex.getRequestHeaders();
+        if (!sameOrigin(h.getFirst("Host"), h.getFirst("Origin"), h.getFirst("Referer"))) {
+            send(ex, 403, "text/plain", "refused: the form was sent from another site's page\n");
+            return;
+        }
         String length = ex.getRequestHeaders().getFirst("Content-Length");
         long declared;
         try {
@@ -263,8 +322,14 @@ public final class WebView implements AutoCloseable {
             send(ex, 400, "text/plain", e.getMessage() + "\n");
             return;
         }
+        FormBody.Field sent = form.get(TOKEN_FIELD);
+        if (sent == null || !MessageDigest.isEqual(sent.value(), token(ex).getBytes(StandardCharsets.UTF_8))) {
+            send(ex, 403, "text/plain", "refused: the form came without this page's token (a form from another site,"
+                    + " or a page from before the station's view restarted: reload the page and send it again)\n");
+            return;
+        }
         String who = ex.getPrincipal() == null ? "?" : ex.getPrincipal().getUsername();
-        page(ex, whatIf.start(form, who, ""));
+        page(ex, whatIf.start(form, who, token(ex)));
     }
 
     /** Waits until the what-if under way (if any) has ended; for tests. */

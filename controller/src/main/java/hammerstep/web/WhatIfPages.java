@@ -62,15 +62,20 @@ final class WhatIfPages {
     private final java.util.concurrent.Semaphore traceLoads = new java.util.concurrent.Semaphore(1);
 
     WhatIfPages(Pages pages, LiveBoard board, WebStation station) {
-        this.pages = pages;
-        this.board = board;
-        this.station = station;
-        this.worker = new ThreadPoolExecutor(1, 1, 0, TimeUnit.SECONDS, new SynchronousQueue<>(), r -> {
+        this(pages, board, station, new ThreadPoolExecutor(1, 1, 0, TimeUnit.SECONDS, new SynchronousQueue<>(), r -> {
             Thread t = new Thread(r, "web-whatif");
             t.setDaemon(true);
             t.setPriority(Thread.MIN_PRIORITY);
             return t;
-        });
+        }));
+    }
+
+    /** With the worker given (a test holds the what-if under way with one that does not run it). */
+    WhatIfPages(Pages pages, LiveBoard board, WebStation station, ExecutorService worker) {
+        this.pages = pages;
+        this.board = board;
+        this.station = station;
+        this.worker = worker;
     }
 
     void close() {
