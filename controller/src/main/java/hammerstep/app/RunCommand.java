@@ -252,7 +252,18 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
     /** What the web view knows of the station's files: its stored traces and its patterns. */
     private WebStation webStation(StationConfig station, PartsSection.Parts parts) {
         hammerstep.trace.TracesSection.Traces traces = station.get(hammerstep.trace.TracesSection.INSTANCE);
-        return new WebStation(traces == null ? null : traces.dir(), parts.byModel(), null);
+        java.nio.file.Path file = hardware.config;
+        return new WebStation(traces == null ? null : traces.dir(), parts.byModel(), () -> checkLines(file));
+    }
+
+    /** What {@code hammerstep check} prints for the station file (and the files it names), one line a problem. */
+    static java.util.List<String> checkLines(java.nio.file.Path stationFile) {
+        try {
+            ConfigFiles.check(stationFile);
+            return java.util.List.of();
+        } catch (hammerstep.config.ConfigException e) {
+            return e.problems().stream().map(p -> hammerstep.config.InputFiles.errorLine(p.toString())).toList();
+        }
     }
 
     private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id, WebStation files) {

@@ -50,6 +50,7 @@ public final class WebView implements AutoCloseable {
     private final Thread feedThread;
     private final Pages pages;
     private final WhatIfPages whatIf;
+    private final WebStation files;
     private final Accounts accounts;
     private final boolean open;
     /** The key of this run's cross-site tokens: random at each start, never stored or shown. */
@@ -65,6 +66,7 @@ public final class WebView implements AutoCloseable {
         this.feed = new LiveFeed(board);
         this.pages = new Pages(board, station, open);
         this.whatIf = new WhatIfPages(pages, board, files);
+        this.files = files;
         this.feedThread = new Thread(feed, "web-live");
         this.feedThread.setDaemon(true);
     }
@@ -227,6 +229,7 @@ public final class WebView implements AutoCloseable {
                 case "/part" -> page(ex, pages.part(q.getOrDefault("serial", "")));
                 case "/capability" -> page(ex, pages.capability(q));
                 case "/whatif" -> page(ex, whatIf.page(token(ex)));
+                case "/programs" -> page(ex, ProgramsPage.of(pages, files));
                 case "/whatif/joint" -> page(ex, whatIf.joint(q.getOrDefault("n", "")));
                 default -> send(ex, 404, "text/plain", "no such page: " + path + "\n");
             }
