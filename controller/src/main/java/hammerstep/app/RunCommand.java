@@ -25,6 +25,7 @@ import hammerstep.web.Accounts;
 import hammerstep.web.LiveBoard;
 import hammerstep.web.ResultLog;
 import hammerstep.web.WebSettings;
+import hammerstep.web.JournalRows;
 import hammerstep.web.WebStation;
 import hammerstep.web.WebView;
 import hammerstep.station.loop.StationPorts;
@@ -119,6 +120,12 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         WebSettings webSettings = station.get(WebSettings.SECTION);
         LiveBoard board = webSettings == null ? null
                 : new LiveBoard(hw.adc().rateHz(), new ResultLog(ResultLog.DEFAULT_JOINTS));
+        if (board != null) {
+            // the results stored before this start, so the view's results and capability show them
+            JournalRows.Restored back = JournalRows.restore(board.log(), delivery.outbox(), parts.byModel());
+            LOG.info("web view: {} joints and {} parts read back from the journal{}", back.joints(), back.parts(),
+                    back.skipped() > 0 ? ", " + back.skipped() + " unreadable messages skipped" : "");
+        }
         StationAgent agent = new StationAgent(clock, ports, delivery.journal(), sequence, parts.byModel(),
                 conditioning(td).withMains(station.get(MainsSection.INSTANCE).frequencyHz()),
                 (long) (timing.blinkPeriodMs() * 1e6), board == null ? StationListener.NONE : board, t -> {

@@ -176,7 +176,21 @@ final class Pages {
         } else {
             note = "no trace stored for this joint: blow peaks only";
         }
-        b.append("<figure>").append(TraceSvg.of(r, trace));
+        JointResult drawn = r;
+        if (board.log().restored(id)) {
+            // read back from the journal: no blow times; the stored trace judged again gives them
+            JointResult again = trace == null ? null : judgeAgain(Path.of(j.tracePath()), trace, p);
+            if (again != null) {
+                drawn = again;
+                note = (note.isEmpty() ? "" : note + "; ") + "read back from the journal after a restart: its stored"
+                        + " trace judged again with its program";
+            } else {
+                trace = null;
+                note = (note.isEmpty() ? "" : note + "; ") + "read back from the journal after a restart, which keeps"
+                        + " no blow times: the peaks drawn in order over the rundown's duration";
+            }
+        }
+        b.append("<figure>").append(TraceSvg.of(drawn, trace));
         if (!note.isEmpty()) {
             b.append("<figcaption>").append(Html.esc(note)).append("</figcaption>");
         }
@@ -210,6 +224,22 @@ final class Pages {
         field(b, "blow peaks, N·m", peaks.toString());
         b.append("</table>");
         return new Reply(200, b.append(foot()).toString());
+    }
+
+    /** The stored trace judged again with {@code program} (null when it cannot be: a program known by its limits only). */
+    private static JointResult judgeAgain(Path path, StoredTrace.Loaded trace, JointProgram program) {
+        if (!Double.isFinite(program.rundown().startAboveNm()) || !Double.isFinite(program.blows().countAboveNm())) {
+            return null;
+        }
+        List<JointResult> rundowns = new ArrayList<>();
+        hammerstep.joint.JointEvents collect = rundowns::add;
+        try {
+            hammerstep.trace.StationReplay.replay(path, trace, program, java.util.function.UnaryOperator.identity(),
+                    4096, collect, w -> { });
+        } catch (TraceException | RuntimeException e) {
+            return null;
+        }
+        return WhatIfRun.theJoint(rundowns);
     }
 
     private static void field(StringBuilder b, String name, String value) {
