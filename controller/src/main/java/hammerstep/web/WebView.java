@@ -19,6 +19,10 @@ import java.io.Writer;
 import java.net.InetSocketAddress;
 import java.net.URI;
 import java.net.URLDecoder;
+import java.security.GeneralSecurityException;
+import java.security.MessageDigest;
+import javax.crypto.Mac;
+import javax.crypto.spec.SecretKeySpec;
 import java.nio.charset.StandardCharsets;
 import java.util.Base64;
 import javax.net.ssl.SSLContext;
@@ -54,16 +58,24 @@ public final class WebView implements AutoCloseable {
     private final LiveFeed feed;
     private final Thread feedThread;
     private final Pages pages;
+    private final WhatIfPages whatIf;
+    private final WebStation files;
     private final Accounts accounts;
     private final boolean open;
+    /** The key of this run's cross-site tokens: random at each start, never stored or shown. */
+    private final byte[] tokenKey = new byte[32];
 
-    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station) {
+    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station,
+                    WebStation files) {
         this.server = server;
         this.pool = pool;
         this.accounts = accounts;
         this.open = accounts == null;
+        new java.security.SecureRandom().nextBytes(tokenKey);
         this.feed = new LiveFeed(board);
         this.pages = new Pages(board, station, open);
+        this.whatIf = new WhatIfPages(pages, board, files);
+        this.files = files;
         this.feedThread = new Thread(feed, "web-live");
         this.feedThread.setDaemon(true);
     }
@@ -75,6 +87,15 @@ public final class WebView implements AutoCloseable {
      * @throws IOException when the address cannot be bound (in use, not this host's)
      */
     public static WebView start(WebSettings settings, LiveBoard board, String station)
+            throws IOException, Accounts.AccountsException {
+        return start(settings, board, station, WebStation.none());
+    }
+
+    /**
+     * Starts serving, with the station's files for the what-if and programs pages; returns once the
+     * port is bound.
+     */
+    public static WebView start(WebSettings settings, LiveBoard board, String station, WebStation files)
             throws IOException, Accounts.AccountsException {
         Accounts accounts = settings.usersFile() == null ? null : Accounts.read(settings.usersFile());
         if (accounts == null && !settings.loopbackOnly()) {
@@ -88,7 +109,7 @@ public final class WebView implements AutoCloseable {
             t.setDaemon(true);
             return t;
         });
-        WebView view = new WebView(server, pool, board, accounts, station);
+        WebView view = new WebView(server, pool, board, accounts, station, files);
         var context = server.createContext("/", view::handle);
         context.setAuthenticator(view.new Login());
         server.setExecutor(pool);
@@ -133,13 +154,16 @@ public final class WebView implements AutoCloseable {
     public void close() {
         feed.stop();
         feedThread.interrupt();
+        whatIf.close();
         server.stop(0);
         pool.shutdownNow();
     }
 
     /** Checks the account of every request, or the Host header of an open view. */
     private final class Login extends Authenticator {
-        private final Map<String, Role> recent = new java.util.concurrent.ConcurrentHashMap<>();
+        private record Known(String user, Role role) { }
+
+        private final Map<String, Known> recent = new java.util.concurrent.ConcurrentHashMap<>();
 
         @Override
         public Result authenticate(HttpExchange ex) {
@@ -153,8 +177,9 @@ public final class WebView implements AutoCloseable {
             }
             String header = ex.getRequestHeaders().getFirst("Authorization");
             if (header != null && header.regionMatches(true, 0, "Basic ", 0, 6) && header.length() < 1024) {
-                Role role = recent.get(header);
-                String user = null;
+                Known known = recent.get(header);
+                Role role = known == null ? null : known.role();
+                String user = known == null ? null : known.user();
                 if (role == null) {
                     String decoded;
                     try {
@@ -171,7 +196,7 @@ public final class WebView implements AutoCloseable {
                             if (recent.size() > 64) {
                                 recent.clear();
                             }
-                            recent.put(header, role);
+                            recent.put(header, new Known(user, role));
                         }
                     }
                 }
@@ -200,14 +225,26 @@ public final class WebView implements AutoCloseable {
         boolean stream = false;
         try {
             String method = ex.getRequestMethod();
-            if (!method.equals("GET") && !method.equals("HEAD")) {
-                ex.getResponseHeaders().set("Allow", "GET, HEAD");
-                send(ex, 405, "text/plain", "this view is read-only: GET and HEAD only\n");
+            URI uri = ex.getRequestURI();
+            String path = uri.getPath();
+            boolean post = method.equals("POST");
+            if (!method.equals("GET") && !method.equals("HEAD") && !(post && FORMS.contains(path))) {
+                ex.getResponseHeaders().set("Allow", FORMS.contains(path) ? "GET, HEAD, POST" : "GET, HEAD");
+                send(ex, 405, "text/plain", FORMS.contains(path) ? "GET, HEAD or POST only\n"
+                        : "this page is read-only: GET and HEAD only\n");
                 return;
             }
-            URI uri = ex.getRequestURI();
+            Role role = (Role) ex.getAttribute(ROLE);
+            if (path.startsWith("/whatif") && (role == null || !role.covers(Role.ENGINEER))) {
+                page(ex, pages.refused("The what-if needs an engineer's account; "
+                        + (open ? "this open view is a viewer's." : "yours is a viewer's.")));
+                return;
+            }
+            if (post) {
+                post(ex, path);
+                return;
+            }
             Map<String, String> q = query(uri.getRawQuery());
-            String path = uri.getPath();
             switch (path) {
                 case "/" -> asset(ex, "live.html", "text/html");
                 case "/live.js" -> asset(ex, "live.js", "text/javascript");
@@ -218,6 +255,9 @@ public final class WebView implements AutoCloseable {
                 case "/joint" -> page(ex, pages.joint(q.getOrDefault("id", "")));
                 case "/part" -> page(ex, pages.part(q.getOrDefault("serial", "")));
                 case "/capability" -> page(ex, pages.capability(q));
+                case "/whatif" -> page(ex, whatIf.page(token(ex)));
+                case "/programs" -> page(ex, ProgramsPage.of(pages, files));
+                case "/whatif/joint" -> page(ex, whatIf.joint(q.getOrDefault("n", "")));
                 default -> send(ex, 404, "text/plain", "no such page: " + path + "\n");
             }
         } catch (RuntimeException e) {
@@ -230,6 +270,101 @@ public final class WebView implements AutoCloseable {
                 ex.close();
             }
         }
+    }
+
+    /** The name of the hidden field that carries the cross-site token in every form. */
+    static final String TOKEN_FIELD = "csrf";
+
+    /**
+     * The cross-site token of this request's account: HMAC-SHA256, under a key drawn at the view's
+     * start, of the account's name and role. A page of another site can make a browser send a form
+     * (with the account's cached login) but cannot read this view's pages, so it cannot know the token.
+     */
+    String token(HttpExchange ex) {
+        String who = ex.getPrincipal() == null ? "" : ex.getPrincipal().getUsername();
+        Role role = (Role) ex.getAttribute(ROLE);
+        try {
+            Mac mac = Mac.getInstance("HmacSHA256");
+            mac.init(new SecretKeySpec(tokenKey, "HmacSHA256"));
+            byte[] t = mac.doFinal(("csrf\u0000" + who + "\u0000" + (role == null ? "" : role.label()))
+                    .getBytes(StandardCharsets.UTF_8));
+            return Base64.getUrlEncoder().withoutPadding().encodeToString(t);
+        } catch (GeneralSecurityException e) {
+            throw new IllegalStateException("HmacSHA256 missing from this Java runtime", e);
+        }
+    }
+
+    /**
+     * True when a state-changing request may come from where its Origin (else its Referer) header
+     * says: from this view's own address (scheme aside, as TLS may end in front of it). A request
+     * with neither header is judged by its token alone.
+     */
+    static boolean sameOrigin(String host, String origin, String referer) {
+        String from = origin != null ? origin : referer;
+        if (from == null) {
+            return true;
+        }
+        if (host == null || from.strip().equals("null")) {
+            return false;
+        }
+        try {
+            URI u = new URI(from.strip());
+            String authority = u.getRawAuthority();
+            return authority != null && authority.equalsIgnoreCase(host.strip());
+        } catch (java.net.URISyntaxException e) {
+            return false;
+        }
+    }
+
+    /** Paths that take a POST: every one a form protected against cross-site requests. */
+    private static final java.util.Set<String> FORMS = java.util.Set.of("/whatif");
+
+    /** A form sent: its body read within {@link WhatIfPages#MAX_FORM_BYTES}, then handed to its page. */
+    private void post(HttpExchange ex, String path) throws IOException {
+        var h = ex.getRequestHeaders();
+        if (!sameOrigin(h.getFirst("Host"), h.getFirst("Origin"), h.getFirst("Referer"))) {
+            send(ex, 403, "text/plain", "refused: the form was sent from another site's page\n");
+            return;
+        }
+        String length = ex.getRequestHeaders().getFirst("Content-Length");
+        long declared;
+        try {
+            declared = length == null ? -1 : Long.parseLong(length.strip());
+        } catch (NumberFormatException e) {
+            declared = -1;
+        }
+        byte[] body = declared > WhatIfPages.MAX_FORM_BYTES ? new byte[0]
+                : ex.getRequestBody().readNBytes(WhatIfPages.MAX_FORM_BYTES + 1);
+        if (declared > WhatIfPages.MAX_FORM_BYTES || body.length > WhatIfPages.MAX_FORM_BYTES) {
+            // read (and drop) a little more so the browser sees the answer, not a connection reset
+            long left = 4L * WhatIfPages.MAX_FORM_BYTES;
+            InputStream in = ex.getRequestBody();
+            while (left > 0 && in.read() >= 0) {
+                left--;
+            }
+            send(ex, 413, "text/plain", "a form of at most " + WhatIfPages.MAX_FORM_BYTES / 1024 + " KiB is taken\n");
+            return;
+        }
+        Map<String, FormBody.Field> form;
+        try {
+            form = FormBody.parse(ex.getRequestHeaders().getFirst("Content-Type"), body);
+        } catch (FormBody.BadForm e) {
+            send(ex, 400, "text/plain", e.getMessage() + "\n");
+            return;
+        }
+        FormBody.Field sent = form.get(TOKEN_FIELD);
+        if (sent == null || !MessageDigest.isEqual(sent.value(), token(ex).getBytes(StandardCharsets.UTF_8))) {
+            send(ex, 403, "text/plain", "refused: the form came without this page's token (a form from another site,"
+                    + " or a page from before the station's view restarted: reload the page and send it again)\n");
+            return;
+        }
+        String who = ex.getPrincipal() == null ? "?" : ex.getPrincipal().getUsername();
+        page(ex, whatIf.start(form, who, token(ex)));
+    }
+
+    /** Waits until the what-if under way (if any) has ended; for tests. */
+    public void awaitWhatIf(java.time.Duration timeout) throws Exception {
+        whatIf.awaitIdle(timeout.toMillis());
     }
 
     /** Opens a page's event stream; true when the feed took it (the exchange then stays open). */
@@ -272,6 +407,11 @@ public final class WebView implements AutoCloseable {
     }
 
     private static void page(HttpExchange ex, Pages.Reply reply) throws IOException {
+        if (reply.status() == 303) {
+            ex.getResponseHeaders().set("Location", reply.html());
+            send(ex, 303, "text/plain", "see " + reply.html() + "\n");
+            return;
+        }
         send(ex, reply.status(), "text/html", reply.html());
     }
 
