@@ -188,7 +188,7 @@ public final class DemoRunner {
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener, errors::add);
         if (board != null) {
-            web = startWeb(board, id);
+            web = startWeb(board, id, new hammerstep.web.WebStation(options.tracesDir(), patterns, null));
         }
         StationExtras.attach(station.agent(), config, sim.rateHz());
         station.agent().takeCommands(desk);
@@ -247,10 +247,10 @@ public final class DemoRunner {
         return exit;
     }
 
-    private WebView startWeb(LiveBoard board, StationId id) {
+    private WebView startWeb(LiveBoard board, StationId id, hammerstep.web.WebStation files) {
         try {
             WebView v = WebView.start(WebSettings.loopback(webPort), board,
-                    id.site() + "/" + id.line() + "/" + id.station() + " (simulated)");
+                    id.site() + "/" + id.line() + "/" + id.station() + " (simulated)", files);
             out.println("web view: http://127.0.0.1:" + v.port() + "/ (bound to loopback: open on this computer,"
                     + " no login asked)");
             return v;
