@@ -337,10 +337,12 @@ public final class WebView implements AutoCloseable {
                 : ex.getRequestBody().readNBytes(WhatIfPages.MAX_FORM_BYTES + 1);
         if (declared > WhatIfPages.MAX_FORM_BYTES || body.length > WhatIfPages.MAX_FORM_BYTES) {
             // read (and drop) a little more so the browser sees the answer, not a connection reset
-            long left = 4L * WhatIfPages.MAX_FORM_BYTES;
             InputStream in = ex.getRequestBody();
-            while (left > 0 && in.read() >= 0) {
-                left--;
+            byte[] drop = new byte[8192];
+            long left = 4L * WhatIfPages.MAX_FORM_BYTES;
+            int n;
+            while (left > 0 && (n = in.read(drop, 0, (int) Math.min(drop.length, left))) > 0) {
+                left -= n;
             }
             send(ex, 413, "text/plain", "a form of at most " + WhatIfPages.MAX_FORM_BYTES / 1024 + " KiB is taken\n");
             return;
