@@ -25,6 +25,8 @@ import hammerstep.web.Accounts;
 import hammerstep.web.LiveBoard;
 import hammerstep.web.ResultLog;
 import hammerstep.web.WebSettings;
+import hammerstep.web.JournalRows;
+import hammerstep.web.WebStation;
 import hammerstep.web.WebView;
 import hammerstep.station.loop.StationPorts;
 import hammerstep.station.loop.StationRunner;
@@ -118,6 +120,12 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         WebSettings webSettings = station.get(WebSettings.SECTION);
         LiveBoard board = webSettings == null ? null
                 : new LiveBoard(hw.adc().rateHz(), new ResultLog(ResultLog.DEFAULT_JOINTS));
+        if (board != null) {
+            // the results stored before this start, so the view's results and capability show them
+            JournalRows.Restored back = JournalRows.restore(board.log(), delivery.outbox(), parts.byModel());
+            LOG.info("web view: {} joints and {} parts read back from the journal{}", back.joints(), back.parts(),
+                    back.skipped() > 0 ? ", " + back.skipped() + " unreadable messages skipped" : "");
+        }
         StationAgent agent = new StationAgent(clock, ports, delivery.journal(), sequence, parts.byModel(),
                 conditioning(td).withMains(station.get(MainsSection.INSTANCE).frequencyHz()),
                 (long) (timing.blinkPeriodMs() * 1e6), board == null ? StationListener.NONE : board, t -> {
@@ -148,7 +156,7 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
         if (td.calibrationDue(java.time.LocalDate.now())) {
             LOG.warn("transducer {} calibration was due on {}", td.serial(), td.calibrationDue());
         }
-        WebView web = board == null ? null : startWeb(webSettings, board, id);
+        WebView web = board == null ? null : startWeb(webSettings, board, id, webStation(station, parts));
         try (StationRunner stationRunner = new StationRunner(agent)) {
             AgentRunner.startOnThread(acquisitionRunner);
             stationRunner.start();
@@ -247,11 +255,28 @@ public final class RunCommand implements java.util.concurrent.Callable<Integer> 
     }
 
 
-    /** Serves the web view as the station file's {@code web} section says; a port it cannot bind stops the start. */
-    private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id) {
+    /** What the web view knows of the station's files: its stored traces and its patterns. */
+    private WebStation webStation(StationConfig station, PartsSection.Parts parts) {
+        hammerstep.trace.TracesSection.Traces traces = station.get(hammerstep.trace.TracesSection.INSTANCE);
+        java.nio.file.Path file = hardware.config;
+        return new WebStation(traces == null ? null : traces.dir(), parts.byModel(), () -> checkLines(file));
+    }
+
+    /** What {@code hammerstep check} prints for the station file (and the files it names), one line a problem. */
+    static java.util.List<String> checkLines(java.nio.file.Path stationFile) {
         try {
-            WebView web = WebView.start(settings, board, id.site() + "/" + id.line() + "/" + id.station());
-            LOG.info("web view on http://{}:{}/ ({})", settings.bind(), web.port(),
+            ConfigFiles.check(stationFile);
+            return java.util.List.of();
+        } catch (hammerstep.config.ConfigException e) {
+            return e.problems().stream().map(p -> hammerstep.config.InputFiles.errorLine(p.toString())).toList();
+        }
+    }
+
+    /** Serves the web view as the station file's {@code web} section says; a port it cannot bind stops the start. */
+    private static WebView startWeb(WebSettings settings, LiveBoard board, StationId id, WebStation files) {
+        try {
+            WebView web = WebView.start(settings, board, id.site() + "/" + id.line() + "/" + id.station(), files);
+            LOG.info("web view on {}://{}:{}/ ({})", settings.scheme(), settings.bind(), web.port(),
                     web.open() ? "loopback, no login" : "accounts of " + settings.usersFile());
             return web;
         } catch (java.io.IOException | Accounts.AccountsException e) {

@@ -115,12 +115,6 @@ public record BrokerSettings(
                 r.problem(key, "'" + r.path(key) + "' is for ssl:// brokers; the url is " + url);
             }
         }
-        if ((certFile == null) != (keyFile == null)) {
-            String has = certFile != null ? "cert_file" : "key_file";
-            r.problem(has, "'" + r.path(has) + "' needs '" + (certFile != null ? "key_file" : "cert_file")
-                    + "' beside it: a client certificate and its private key go together");
-        }
-        boolean certReadable = false;
         if (caFile != null) {
             Path ca = base.resolve(caFile).normalize();
             String why = java.nio.file.Files.isRegularFile(ca) ? PemFiles.certificateProblem(ca) : "no such file " + ca;
@@ -128,25 +122,7 @@ public record BrokerSettings(
                 r.problem("ca_file", "'" + r.path("ca_file") + "': " + why);
             }
         }
-        if (certFile != null) {
-            Path cert = base.resolve(certFile).normalize();
-            String why = java.nio.file.Files.isRegularFile(cert) ? PemFiles.certificateProblem(cert)
-                    : "no such file " + cert;
-            if (why != null) {
-                r.problem("cert_file", "'" + r.path("cert_file") + "': " + why);
-            }
-            certReadable = why == null;
-        }
-        if (keyFile != null) {
-            Path key = base.resolve(keyFile).normalize();
-            String why = PasswordFile.problem(key);
-            if (why == null && certReadable) {
-                why = PemFiles.keyProblem(key, base.resolve(certFile).normalize());
-            }
-            if (why != null) {
-                r.problem("key_file", "'" + r.path("key_file") + "': " + why);
-            }
-        }
+        PemFiles.checkCertificateAndKey(r, base, certFile, keyFile, "a client certificate");
         if (passwordFile != null) {
             String why = PasswordFile.problem(base.resolve(passwordFile));
             if (why != null) {

@@ -1,5 +1,7 @@
 package hammerstep.mqtt;
 
+import hammerstep.config.MapReader;
+
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
@@ -7,6 +9,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.security.GeneralSecurityException;
 import java.security.KeyFactory;
+import java.security.KeyStore;
 import java.security.PrivateKey;
 import java.security.PublicKey;
 import java.security.Signature;
@@ -17,10 +20,12 @@ import java.security.spec.PKCS8EncodedKeySpec;
 import java.util.Arrays;
 import java.util.Base64;
 import java.util.Collection;
+import javax.net.ssl.KeyManagerFactory;
+import javax.net.ssl.SSLContext;
 
 /**
- * Checks of the broker's TLS files as the station file is read, so that {@code hammerstep check}
- * refuses what a connection could never use: a CA or client certificate file that holds no PEM
+ * The station's TLS files, for the broker link and the web view alike. Checks them as the station
+ * file is read, so that {@code hammerstep check} refuses what a connection could never use: a CA or client certificate file that holds no PEM
  * certificate, a key that is not an unencrypted PKCS#8 RSA, EC or Ed25519 key, a key that does not
  * belong to the client certificate. Never puts a key's bytes into a message.
  */
@@ -30,6 +35,72 @@ public final class PemFiles {
     private static final String END_KEY = "-----END PRIVATE KEY-----";
 
     private PemFiles() {
+    }
+
+    /**
+     * Reports the {@code cert_file} and {@code key_file} keys of a section (either may be null when
+     * absent): both or neither, the certificate a readable PEM file, the key private to its owner
+     * ({@link PasswordFile#problem}), unencrypted PKCS#8, and the certificate's own key.
+     *
+     * @param what what the pair is, for the message when one comes alone ("a client certificate")
+     */
+    public static void checkCertificateAndKey(MapReader r, Path base, String certFile, String keyFile, String what) {
+        if ((certFile == null) != (keyFile == null)) {
+            String has = certFile != null ? "cert_file" : "key_file";
+            r.problem(has, "'" + r.path(has) + "' needs '" + (certFile != null ? "key_file" : "cert_file")
+                    + "' beside it: " + what + " and its private key go together");
+        }
+        boolean certReadable = false;
+        if (certFile != null) {
+            Path cert = base.resolve(certFile).normalize();
+            String why = Files.isRegularFile(cert) ? certificateProblem(cert) : "no such file " + cert;
+            if (why != null) {
+                r.problem("cert_file", "'" + r.path("cert_file") + "': " + why);
+            }
+            certReadable = why == null;
+        }
+        if (keyFile != null) {
+            Path key = base.resolve(keyFile).normalize();
+            String why = PasswordFile.problem(key);
+            if (why == null && certReadable) {
+                why = keyProblem(key, base.resolve(certFile).normalize());
+            }
+            if (why != null) {
+                r.problem("key_file", "'" + r.path("key_file") + "': " + why);
+            }
+        }
+    }
+
+    /**
+     * A TLS context that presents the certificate (PEM, its chain may follow it) with its private
+     * key (unencrypted PKCS#8) and trusts the JVM's CAs; for a server (the web view). The files are
+     * read once, now.
+     *
+     * @throws IOException when a file cannot be read or used; the message names the file, never the key
+     */
+    public static SSLContext serverContext(Path certFile, Path keyFile) throws IOException {
+        String why = PasswordFile.problem(keyFile);
+        if (why != null) {
+            throw new IOException(why);
+        }
+        Certificate[] chain = certificates(certFile).toArray(new Certificate[0]);
+        PrivateKey key = privateKey(keyFile);
+        if (!belongTogether(key, chain[0].getPublicKey())) {
+            throw new IOException(keyFile + " is not the key of the certificate in " + certFile);
+        }
+        char[] none = new char[0];
+        try {
+            KeyStore store = KeyStore.getInstance("PKCS12");
+            store.load(null, null);
+            store.setKeyEntry("station", key, none, chain);
+            KeyManagerFactory kmf = KeyManagerFactory.getInstance(KeyManagerFactory.getDefaultAlgorithm());
+            kmf.init(store, none);
+            SSLContext ctx = SSLContext.getInstance("TLS");
+            ctx.init(kmf.getKeyManagers(), null, null);
+            return ctx;
+        } catch (GeneralSecurityException e) {
+            throw new IOException("cannot set up TLS with " + certFile + ": " + e.getMessage());
+        }
     }
 
     /** Why {@code file} holds no usable PEM certificate, or null when it holds at least one. */

@@ -79,6 +79,11 @@ final class DeliveryView implements Outbox {
     }
 
     @Override
+    public List<Entry> storedAtOpen(MessageKind kind) {
+        return outbox.storedAtOpen(kind);
+    }
+
+    @Override
     public List<Entry> unfinishedPartJoints() {
         return outbox.unfinishedPartJoints();
     }

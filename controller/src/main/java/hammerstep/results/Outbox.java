@@ -166,4 +166,13 @@ public interface Outbox extends AutoCloseable {
     /** Releases files; pending records stay for the next start. */
     @Override
     void close();
+
+    /**
+     * The results of {@code kind} (joints or parts) the store held when it was opened, delivered
+     * or not, oldest first, within a bound of the store's; handed over once. None for a store
+     * that keeps nothing across a restart.
+     */
+    default List<Entry> storedAtOpen(MessageKind kind) {
+        return List.of();
+    }
 }

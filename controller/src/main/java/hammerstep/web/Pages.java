@@ -176,7 +176,21 @@ final class Pages {
         } else {
             note = "no trace stored for this joint: blow peaks only";
         }
-        b.append("<figure>").append(TraceSvg.of(r, trace));
+        JointResult drawn = r;
+        if (board.log().restored(id)) {
+            // read back from the journal: no blow times; the stored trace judged again gives them
+            JointResult again = trace == null ? null : judgeAgain(Path.of(j.tracePath()), trace, p);
+            if (again != null) {
+                drawn = again;
+                note = (note.isEmpty() ? "" : note + "; ") + "read back from the journal after a restart: its stored"
+                        + " trace judged again with its program";
+            } else {
+                trace = null;
+                note = (note.isEmpty() ? "" : note + "; ") + "read back from the journal after a restart, which keeps"
+                        + " no blow times: the peaks drawn in order over the rundown's duration";
+            }
+        }
+        b.append("<figure>").append(TraceSvg.of(drawn, trace));
         if (!note.isEmpty()) {
             b.append("<figcaption>").append(Html.esc(note)).append("</figcaption>");
         }
@@ -210,6 +224,22 @@ final class Pages {
         field(b, "blow peaks, N·m", peaks.toString());
         b.append("</table>");
         return new Reply(200, b.append(foot()).toString());
+    }
+
+    /** The stored trace judged again with {@code program} (null when it cannot be: a program known by its limits only). */
+    private static JointResult judgeAgain(Path path, StoredTrace.Loaded trace, JointProgram program) {
+        if (!Double.isFinite(program.rundown().startAboveNm()) || !Double.isFinite(program.blows().countAboveNm())) {
+            return null;
+        }
+        List<JointResult> rundowns = new ArrayList<>();
+        hammerstep.joint.JointEvents collect = rundowns::add;
+        try {
+            hammerstep.trace.StationReplay.replay(path, trace, program, java.util.function.UnaryOperator.identity(),
+                    4096, collect, w -> { });
+        } catch (TraceException | RuntimeException e) {
+            return null;
+        }
+        return WhatIfRun.theJoint(rundowns);
     }
 
     private static void field(StringBuilder b, String name, String value) {
@@ -341,18 +371,24 @@ final class Pages {
         b.append("<td class=\"num").append(low ? " low" : "").append("\">").append(Html.num(v, decimals)).append("</td>");
     }
 
+    /** A page refused to this account (403). */
+    Reply refused(String why) {
+        return new Reply(403, head("Not for this account") + "<p class=\"error\" id=\"refused\">" + Html.esc(why)
+                + "</p>" + foot());
+    }
+
     // ---- frame -----------------------------------------------------------------------------------
 
-    private String head(String title) {
+    String head(String title) {
         return "<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" "
                 + "content=\"width=device-width, initial-scale=1\"><title>" + Html.esc(title) + " · "
                 + Html.esc(station) + "</title><link rel=\"stylesheet\" href=\"/style.css\"></head><body><header>"
                 + "<strong>" + Html.esc(station) + "</strong><nav><a href=\"/\">Station</a><a href=\"/results\">Results</a>"
-                + "<a href=\"/capability\">Capability</a></nav></header><main><h1>" + Html.esc(title) + "</h1>"
+                + "<a href=\"/capability\">Capability</a><a href=\"/programs\">Programs</a><a href=\"/whatif\">What-if</a></nav></header><main><h1>" + Html.esc(title) + "</h1>"
                 + (open ? OPEN_NOTE : "");
     }
 
-    private static String foot() {
+    static String foot() {
         return "</main></body></html>";
     }
 }

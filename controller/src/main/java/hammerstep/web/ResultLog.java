@@ -40,6 +40,20 @@ public final class ResultLog {
         joints.add(new JointRow(receipt.id(), receipt.seq(), joint));
     }
 
+    /** Ids of the joints read back from the journal at start (their blows' times are not known). */
+    private final java.util.Set<String> restored = java.util.concurrent.ConcurrentHashMap.newKeySet();
+
+    /** A joint read back from the journal at start, before the station stores anything new. */
+    void restoredJoint(JointOutcome joint, ResultSink.Receipt receipt) {
+        restored.add(receipt.id());
+        joints.add(new JointRow(receipt.id(), receipt.seq(), joint));
+    }
+
+    /** True when the joint with this id was read back from the journal at start. */
+    public boolean restored(String id) {
+        return restored.contains(id);
+    }
+
     void part(PartOutcome part, ResultSink.Receipt receipt) {
         parts.add(new PartRow(receipt.id(), receipt.seq(), part));
     }

@@ -25,10 +25,26 @@ final class TraceSvg {
 
     /** The picture of {@code r}; {@code trace} may be null. */
     static String of(JointResult r, StoredTrace.Loaded trace) {
-        JointProgram p = r.program();
+        return picture(r, trace, r.program(), null);
+    }
+
+    /**
+     * A what-if's picture of {@code r} (the joint as the changed program judges it): the stored
+     * program's window shaded as usual (none when {@code stored} is null) and the changed program's
+     * window, target and shut-off as blue dashed lines.
+     */
+    static String compare(JointResult r, StoredTrace.Loaded trace, JointProgram stored, JointProgram changed) {
+        return picture(r, trace, stored, changed);
+    }
+
+    private static String picture(JointResult r, StoredTrace.Loaded trace, JointProgram stored, JointProgram changed) {
+        JointProgram p = stored != null ? stored : changed;
         long fromNs = r.startNs() - LEAD_NS;
         long toNs = Math.max(r.endNs(), r.startNs() + 1_000_000L) + TAIL_NS;
         double hi = Math.max(p.torque().maxNm(), p.hasShutoff() ? p.shutoffAtNm() : 0);
+        if (changed != null) {
+            hi = Math.max(hi, Math.max(changed.torque().maxNm(), changed.hasShutoff() ? changed.shutoffAtNm() : 0));
+        }
         double lo = 0;
         for (double v : r.peaksNm()) {
             hi = Math.max(hi, v);
@@ -44,14 +60,27 @@ final class TraceSvg {
         }
         double startMs = -LEAD_NS * 1e-6;
         double endMs = (toNs - r.startNs()) * 1e-6;
-        Svg s = new Svg(WIDTH, HEIGHT, startMs, endMs, lo, hi * 1.08, "torque over time of joint")
-                .band(p.torque().minNm(), p.torque().maxNm(), "window")
-                .axes("time from rundown start, ms", "torque, N·m")
-                .hline(p.torque().minNm(), "limit", "min " + Html.num(p.torque().minNm(), 1))
-                .hline(p.torque().maxNm(), "limit", "max " + Html.num(p.torque().maxNm(), 1))
-                .hline(p.torque().targetNm(), "target", "target " + Html.num(p.torque().targetNm(), 1));
-        if (p.hasShutoff()) {
-            s.hline(p.shutoffAtNm(), "shutoff", "shut-off " + Html.num(p.shutoffAtNm(), 1));
+        Svg s = new Svg(WIDTH, HEIGHT, startMs, endMs, lo, hi * 1.08, "torque over time of joint");
+        if (stored != null) {
+            s.band(p.torque().minNm(), p.torque().maxNm(), "window");
+        }
+        s.axes("time from rundown start, ms", "torque, N·m");
+        if (stored != null) {
+            s.hline(p.torque().minNm(), "limit", "min " + Html.num(p.torque().minNm(), 1))
+                    .hline(p.torque().maxNm(), "limit", "max " + Html.num(p.torque().maxNm(), 1));
+            if (Double.isFinite(p.torque().targetNm())) {
+                s.hline(p.torque().targetNm(), "target", "target " + Html.num(p.torque().targetNm(), 1));
+            }
+            if (p.hasShutoff()) {
+                s.hline(p.shutoffAtNm(), "shutoff", "shut-off " + Html.num(p.shutoffAtNm(), 1));
+            }
+        }
+        if (changed != null) {
+            s.hline(changed.torque().minNm(), "limit-new", "new min " + Html.num(changed.torque().minNm(), 1))
+                    .hline(changed.torque().maxNm(), "limit-new", "new max " + Html.num(changed.torque().maxNm(), 1));
+            if (changed.hasShutoff()) {
+                s.hline(changed.shutoffAtNm(), "limit-new", "new shut-off " + Html.num(changed.shutoffAtNm(), 1));
+            }
         }
         if (r.shutoffReached()) {
             s.vline((r.shutoffAtNs() - r.startNs()) * 1e-6, "shutoff", "tool off");

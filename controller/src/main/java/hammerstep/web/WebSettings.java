@@ -2,6 +2,7 @@ package hammerstep.web;
 
 import hammerstep.config.MapReader;
 import hammerstep.mqtt.PasswordFile;
+import hammerstep.mqtt.PemFiles;
 import hammerstep.config.StationSection;
 
 import java.net.InetAddress;
@@ -17,14 +18,25 @@ import java.nio.file.Path;
  *   bind: 127.0.0.1                          # default: loopback only
  *   port: 8080                               # default 8080
  *   users_file: /etc/hammerstep/web.users    # name:role:hash lines (hammerstep web-user); chmod 600
+ *   cert_file: /etc/hammerstep/station.pem   # optional: serve https with this certificate (PEM, chain allowed)
+ *   key_file: /etc/hammerstep/station.key    # its private key: PEM, unencrypted PKCS#8; chmod 600
  * </pre>
  *
  * Bound to loopback, {@code users_file} may be left out: the view is then open, as a viewer, to
  * whoever can reach the station's own loopback. Bound anywhere else it is required.
+ * {@code cert_file} and {@code key_file} are the broker section's keys with the same formats and
+ * the same checks; with them the view speaks HTTPS only (TLS 1.2 or 1.3).
  *
  * @param usersFile the accounts file, or null for an open loopback view
+ * @param certFile  the server certificate for HTTPS, or null for plain HTTP
+ * @param keyFile   its private key, or null
  */
-public record WebSettings(String bind, int port, Path usersFile) {
+public record WebSettings(String bind, int port, Path usersFile, Path certFile, Path keyFile) {
+
+    /** Plain HTTP settings. */
+    public WebSettings(String bind, int port, Path usersFile) {
+        this(bind, port, usersFile, null, null);
+    }
 
     /** The section as a station file section; registered in {@code hammerstep.app.StationSections}. */
     public static final StationSection<WebSettings> SECTION = new StationSection<>() {
@@ -47,6 +59,16 @@ public record WebSettings(String bind, int port, Path usersFile) {
     /** An open view on loopback at {@code port} (the demo's {@code --web}). */
     public static WebSettings loopback(int port) {
         return new WebSettings("127.0.0.1", port, null);
+    }
+
+    /** True when the view speaks HTTPS. */
+    public boolean tls() {
+        return certFile != null;
+    }
+
+    /** {@code https} or {@code http}. */
+    public String scheme() {
+        return tls() ? "https" : "http";
     }
 
     /** True when the address is a loopback address (127.0.0.0/8, ::1, localhost). */
@@ -72,6 +94,8 @@ public record WebSettings(String bind, int port, Path usersFile) {
         String bind = r.string("bind", "127.0.0.1");
         int port = r.integer("port", 8080, 1, 65535);
         String users = r.has("users_file") ? r.string("users_file") : null;
+        String cert = r.has("cert_file") ? r.string("cert_file") : null;
+        String key = r.has("key_file") ? r.string("key_file") : null;
         r.finish();
         boolean literal = bind.matches("[0-9.]+|[0-9A-Fa-f:]+") && !bind.isEmpty();
         boolean bindOk = true;
@@ -104,6 +128,8 @@ public record WebSettings(String bind, int port, Path usersFile) {
                 }
             }
         }
-        return new WebSettings(bind, port, usersFile);
+        PemFiles.checkCertificateAndKey(r, base, cert, key, "the view's certificate");
+        return new WebSettings(bind, port, usersFile, cert == null ? null : base.resolve(cert).normalize(),
+                key == null ? null : base.resolve(key).normalize());
     }
 }

@@ -4,6 +4,10 @@ import com.sun.net.httpserver.Authenticator;
 import com.sun.net.httpserver.HttpExchange;
 import com.sun.net.httpserver.HttpPrincipal;
 import com.sun.net.httpserver.HttpServer;
+import com.sun.net.httpserver.HttpsConfigurator;
+import com.sun.net.httpserver.HttpsParameters;
+import com.sun.net.httpserver.HttpsServer;
+import hammerstep.mqtt.PemFiles;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -15,8 +19,14 @@ import java.io.Writer;
 import java.net.InetSocketAddress;
 import java.net.URI;
 import java.net.URLDecoder;
+import java.security.GeneralSecurityException;
+import java.security.MessageDigest;
+import javax.crypto.Mac;
+import javax.crypto.spec.SecretKeySpec;
 import java.nio.charset.StandardCharsets;
 import java.util.Base64;
+import javax.net.ssl.SSLContext;
+import javax.net.ssl.SSLParameters;
 import java.util.HashMap;
 import java.util.Map;
 import java.util.concurrent.ExecutorService;
@@ -33,6 +43,9 @@ import java.util.concurrent.atomic.AtomicInteger;
  * PBKDF2 hashes; send it over TLS or a trusted network only); without one (allowed on loopback
  * only) every request is a viewer and the Host header must name the loopback, so a web page
  * elsewhere cannot reach the view through a rebound DNS name.
+ *
+ * <p>With {@code cert_file} and {@code key_file} in the settings the server speaks HTTPS only,
+ * TLS 1.3 or 1.2, with the station's certificate.
  */
 public final class WebView implements AutoCloseable {
 
@@ -45,16 +58,24 @@ public final class WebView implements AutoCloseable {
     private final LiveFeed feed;
     private final Thread feedThread;
     private final Pages pages;
+    private final WhatIfPages whatIf;
+    private final WebStation files;
     private final Accounts accounts;
     private final boolean open;
+    /** The key of this run's cross-site tokens: random at each start, never stored or shown. */
+    private final byte[] tokenKey = new byte[32];
 
-    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station) {
+    private WebView(HttpServer server, ExecutorService pool, LiveBoard board, Accounts accounts, String station,
+                    WebStation files) {
         this.server = server;
         this.pool = pool;
         this.accounts = accounts;
         this.open = accounts == null;
+        new java.security.SecureRandom().nextBytes(tokenKey);
         this.feed = new LiveFeed(board);
         this.pages = new Pages(board, station, open);
+        this.whatIf = new WhatIfPages(pages, board, files);
+        this.files = files;
         this.feedThread = new Thread(feed, "web-live");
         this.feedThread.setDaemon(true);
     }
@@ -67,24 +88,51 @@ public final class WebView implements AutoCloseable {
      */
     public static WebView start(WebSettings settings, LiveBoard board, String station)
             throws IOException, Accounts.AccountsException {
+        return start(settings, board, station, WebStation.none());
+    }
+
+    /**
+     * Starts serving, with the station's files for the what-if and programs pages; returns once the
+     * port is bound.
+     */
+    public static WebView start(WebSettings settings, LiveBoard board, String station, WebStation files)
+            throws IOException, Accounts.AccountsException {
         Accounts accounts = settings.usersFile() == null ? null : Accounts.read(settings.usersFile());
         if (accounts == null && !settings.loopbackOnly()) {
             throw new IllegalArgumentException("an open web view is for loopback only, not " + settings.bind());
         }
-        HttpServer server = HttpServer.create(new InetSocketAddress(settings.bind(), settings.port()), 32);
+        HttpServer server = settings.tls() ? https(settings) : HttpServer.create();
+        server.bind(new InetSocketAddress(settings.bind(), settings.port()), 32);
         AtomicInteger n = new AtomicInteger();
         ExecutorService pool = Executors.newFixedThreadPool(4, r -> {
             Thread t = new Thread(r, "web-" + n.incrementAndGet());
             t.setDaemon(true);
             return t;
         });
-        WebView view = new WebView(server, pool, board, accounts, station);
+        WebView view = new WebView(server, pool, board, accounts, station, files);
         var context = server.createContext("/", view::handle);
         context.setAuthenticator(view.new Login());
         server.setExecutor(pool);
         server.start();
         view.feedThread.start();
         return view;
+    }
+
+    /** TLS versions the view speaks; older ones are refused at the handshake. */
+    static final String[] PROTOCOLS = {"TLSv1.3", "TLSv1.2"};
+
+    private static HttpsServer https(WebSettings settings) throws IOException {
+        SSLContext ctx = PemFiles.serverContext(settings.certFile(), settings.keyFile());
+        HttpsServer server = HttpsServer.create();
+        server.setHttpsConfigurator(new HttpsConfigurator(ctx) {
+            @Override
+            public void configure(HttpsParameters params) {
+                SSLParameters p = ctx.getDefaultSSLParameters();
+                p.setProtocols(PROTOCOLS);
+                params.setSSLParameters(p);
+            }
+        });
+        return server;
     }
 
     /** The port served (the one asked for, or the one the system chose for port 0). */
@@ -106,13 +154,16 @@ public final class WebView implements AutoCloseable {
     public void close() {
         feed.stop();
         feedThread.interrupt();
+        whatIf.close();
         server.stop(0);
         pool.shutdownNow();
     }
 
     /** Checks the account of every request, or the Host header of an open view. */
     private final class Login extends Authenticator {
-        private final Map<String, Role> recent = new java.util.concurrent.ConcurrentHashMap<>();
+        private record Known(String user, Role role) { }
+
+        private final Map<String, Known> recent = new java.util.concurrent.ConcurrentHashMap<>();
 
         @Override
         public Result authenticate(HttpExchange ex) {
@@ -126,8 +177,9 @@ public final class WebView implements AutoCloseable {
             }
             String header = ex.getRequestHeaders().getFirst("Authorization");
             if (header != null && header.regionMatches(true, 0, "Basic ", 0, 6) && header.length() < 1024) {
-                Role role = recent.get(header);
-                String user = null;
+                Known known = recent.get(header);
+                Role role = known == null ? null : known.role();
+                String user = known == null ? null : known.user();
                 if (role == null) {
                     String decoded;
                     try {
@@ -144,7 +196,7 @@ public final class WebView implements AutoCloseable {
                             if (recent.size() > 64) {
                                 recent.clear();
                             }
-                            recent.put(header, role);
+                            recent.put(header, new Known(user, role));
                         }
                     }
                 }
@@ -173,14 +225,26 @@ public final class WebView implements AutoCloseable {
         boolean stream = false;
         try {
             String method = ex.getRequestMethod();
-            if (!method.equals("GET") && !method.equals("HEAD")) {
-                ex.getResponseHeaders().set("Allow", "GET, HEAD");
-                send(ex, 405, "text/plain", "this view is read-only: GET and HEAD only\n");
+            URI uri = ex.getRequestURI();
+            String path = uri.getPath();
+            boolean post = method.equals("POST");
+            if (!method.equals("GET") && !method.equals("HEAD") && !(post && FORMS.contains(path))) {
+                ex.getResponseHeaders().set("Allow", FORMS.contains(path) ? "GET, HEAD, POST" : "GET, HEAD");
+                send(ex, 405, "text/plain", FORMS.contains(path) ? "GET, HEAD or POST only\n"
+                        : "this page is read-only: GET and HEAD only\n");
                 return;
             }
-            URI uri = ex.getRequestURI();
+            Role role = (Role) ex.getAttribute(ROLE);
+            if (path.startsWith("/whatif") && (role == null || !role.covers(Role.ENGINEER))) {
+                page(ex, pages.refused("The what-if needs an engineer's account; "
+                        + (open ? "this open view is a viewer's." : "yours is a viewer's.")));
+                return;
+            }
+            if (post) {
+                post(ex, path);
+                return;
+            }
             Map<String, String> q = query(uri.getRawQuery());
-            String path = uri.getPath();
             switch (path) {
                 case "/" -> asset(ex, "live.html", "text/html");
                 case "/live.js" -> asset(ex, "live.js", "text/javascript");
@@ -191,6 +255,9 @@ public final class WebView implements AutoCloseable {
                 case "/joint" -> page(ex, pages.joint(q.getOrDefault("id", "")));
                 case "/part" -> page(ex, pages.part(q.getOrDefault("serial", "")));
                 case "/capability" -> page(ex, pages.capability(q));
+                case "/whatif" -> page(ex, whatIf.page(token(ex)));
+                case "/programs" -> page(ex, ProgramsPage.of(pages, files));
+                case "/whatif/joint" -> page(ex, whatIf.joint(q.getOrDefault("n", "")));
                 default -> send(ex, 404, "text/plain", "no such page: " + path + "\n");
             }
         } catch (RuntimeException e) {
@@ -203,6 +270,103 @@ public final class WebView implements AutoCloseable {
                 ex.close();
             }
         }
+    }
+
+    /** The name of the hidden field that carries the cross-site token in every form. */
+    static final String TOKEN_FIELD = "csrf";
+
+    /**
+     * The cross-site token of this request's account: HMAC-SHA256, under a key drawn at the view's
+     * start, of the account's name and role. A page of another site can make a browser send a form
+     * (with the account's cached login) but cannot read this view's pages, so it cannot know the token.
+     */
+    String token(HttpExchange ex) {
+        String who = ex.getPrincipal() == null ? "" : ex.getPrincipal().getUsername();
+        Role role = (Role) ex.getAttribute(ROLE);
+        try {
+            Mac mac = Mac.getInstance("HmacSHA256");
+            mac.init(new SecretKeySpec(tokenKey, "HmacSHA256"));
+            byte[] t = mac.doFinal(("csrf\u0000" + who + "\u0000" + (role == null ? "" : role.label()))
+                    .getBytes(StandardCharsets.UTF_8));
+            return Base64.getUrlEncoder().withoutPadding().encodeToString(t);
+        } catch (GeneralSecurityException e) {
+            throw new IllegalStateException("HmacSHA256 missing from this Java runtime", e);
+        }
+    }
+
+    /**
+     * True when a state-changing request may come from where its Origin (else its Referer) header
+     * says: from this view's own address (scheme aside, as TLS may end in front of it). A request
+     * with neither header is judged by its token alone.
+     */
+    static boolean sameOrigin(String host, String origin, String referer) {
+        String from = origin != null ? origin : referer;
+        if (from == null) {
+            return true;
+        }
+        if (host == null || from.strip().equals("null")) {
+            return false;
+        }
+        try {
+            URI u = new URI(from.strip());
+            String authority = u.getRawAuthority();
+            return authority != null && authority.equalsIgnoreCase(host.strip());
+        } catch (java.net.URISyntaxException e) {
+            return false;
+        }
+    }
+
+    /** Paths that take a POST: every one a form protected against cross-site requests. */
+    private static final java.util.Set<String> FORMS = java.util.Set.of("/whatif");
+
+    /** A form sent: its body read within {@link WhatIfPages#MAX_FORM_BYTES}, then handed to its page. */
+    private void post(HttpExchange ex, String path) throws IOException {
+        var h = ex.getRequestHeaders();
+        if (!sameOrigin(h.getFirst("Host"), h.getFirst("Origin"), h.getFirst("Referer"))) {
+            send(ex, 403, "text/plain", "refused: the form was sent from another site's page\n");
+            return;
+        }
+        String length = ex.getRequestHeaders().getFirst("Content-Length");
+        long declared;
+        try {
+            declared = length == null ? -1 : Long.parseLong(length.strip());
+        } catch (NumberFormatException e) {
+            declared = -1;
+        }
+        byte[] body = declared > WhatIfPages.MAX_FORM_BYTES ? new byte[0]
+                : ex.getRequestBody().readNBytes(WhatIfPages.MAX_FORM_BYTES + 1);
+        if (declared > WhatIfPages.MAX_FORM_BYTES || body.length > WhatIfPages.MAX_FORM_BYTES) {
+            // read (and drop) a little more so the browser sees the answer, not a connection reset
+            InputStream in = ex.getRequestBody();
+            byte[] drop = new byte[8192];
+            long left = 4L * WhatIfPages.MAX_FORM_BYTES;
+            int n;
+            while (left > 0 && (n = in.read(drop, 0, (int) Math.min(drop.length, left))) > 0) {
+                left -= n;
+            }
+            send(ex, 413, "text/plain", "a form of at most " + WhatIfPages.MAX_FORM_BYTES / 1024 + " KiB is taken\n");
+            return;
+        }
+        Map<String, FormBody.Field> form;
+        try {
+            form = FormBody.parse(ex.getRequestHeaders().getFirst("Content-Type"), body);
+        } catch (FormBody.BadForm e) {
+            send(ex, 400, "text/plain", e.getMessage() + "\n");
+            return;
+        }
+        FormBody.Field sent = form.get(TOKEN_FIELD);
+        if (sent == null || !MessageDigest.isEqual(sent.value(), token(ex).getBytes(StandardCharsets.UTF_8))) {
+            send(ex, 403, "text/plain", "refused: the form came without this page's token (a form from another site,"
+                    + " or a page from before the station's view restarted: reload the page and send it again)\n");
+            return;
+        }
+        String who = ex.getPrincipal() == null ? "?" : ex.getPrincipal().getUsername();
+        page(ex, whatIf.start(form, who, token(ex)));
+    }
+
+    /** Waits until the what-if under way (if any) has ended; for tests. */
+    public void awaitWhatIf(java.time.Duration timeout) throws Exception {
+        whatIf.awaitIdle(timeout.toMillis());
     }
 
     /** Opens a page's event stream; true when the feed took it (the exchange then stays open). */
@@ -245,6 +409,11 @@ public final class WebView implements AutoCloseable {
     }
 
     private static void page(HttpExchange ex, Pages.Reply reply) throws IOException {
+        if (reply.status() == 303) {
+            ex.getResponseHeaders().set("Location", reply.html());
+            send(ex, 303, "text/plain", "see " + reply.html() + "\n");
+            return;
+        }
         send(ex, reply.status(), "text/html", reply.html());
     }
 
@@ -283,7 +452,9 @@ public final class WebView implements AutoCloseable {
         h.set("Content-Type", type + "; charset=utf-8");
         h.set("X-Content-Type-Options", "nosniff");
         h.set("X-Frame-Options", "DENY");
-        h.set("Referrer-Policy", "no-referrer");
+        // same-origin, not no-referrer: under no-referrer a browser sends "Origin: null" with the view's
+        // own form posts, which the cross-site check must refuse (found by the browser tests)
+        h.set("Referrer-Policy", "same-origin");
         h.set("Content-Security-Policy", "default-src 'self'; img-src 'self' data:; style-src 'self'; "
                 + "script-src 'self'; connect-src 'self'; form-action 'self'; frame-ancestors 'none'");
         if (!type.equals("text/event-stream")) {

@@ -23,6 +23,8 @@ import hammerstep.station.SampleRing;
 import hammerstep.station.ToolEnable;
 import hammerstep.station.TowerLamp;
 import hammerstep.station.VirtualClock;
+import hammerstep.web.LiveBoard;
+import hammerstep.web.ResultLog;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -64,6 +66,10 @@ import java.util.concurrent.TimeUnit;
  * <p>{@code commands=burst} runs the same with the delivery side answering a flood of commands
  * on a thread of its own (see {@link CommandFlood}).
  *
+ * <p>{@code webClients=50} wires the station as the service does with a {@code web:} section (its
+ * {@link LiveBoard} as the station's listener) and serves the web view with 50 live pages reading
+ * its event stream ({@link LiveClients}); {@code 0} leaves the view out.
+ *
  * <p>Run: {@code mvn -q -Pbench -DskipTests package -pl controller && java -jar controller/target/benchmarks.jar ShutoffLatency}
  */
 @State(Scope.Thread)
@@ -90,7 +96,13 @@ public class ShutoffLatencyBenchmark {
     @Param({"none"})
     String commands;
 
+    /** Live pages open on the station's web view meanwhile; 0: no web view at all. */
+    @Param({"0"})
+    int webClients;
+
     private CommandFlood flood;
+    private LiveBoard board;
+    private LiveClients clients;
 
     private VirtualClock clock;
     private SampleRing ring;
@@ -171,6 +183,8 @@ public class ShutoffLatencyBenchmark {
         relay = new Relay();
         long[] ids = {0};
         StationPorts ports = new StationPorts(ring, new DarkLamps(), relay, new Idle(), scanner);
+        board = webClients > 0 ? new LiveBoard(rateHz, new ResultLog(ResultLog.DEFAULT_JOINTS)) : null;
+        StationListener listener = board == null ? StationListener.NONE : board;
         Sequence sequence = new Sequence(new Sequence.Settings("TQ", null, 0), false);
         if (journal.startsWith("file")) {
             journalDir = Files.createTempDirectory("hammerstep-bench-journal-");
@@ -180,7 +194,7 @@ public class ShutoffLatencyBenchmark {
             agent = new StationAgent(clock, ports,
                     new OutboxResultSink(fileOutbox, new StationId("b", "b", "b"), () -> "id" + ids[0]++,
                             new VirtualClock(Instant.EPOCH)), sequence, Map.of("M", pattern),
-                    JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
+                    JointMonitor.replayConditioning(program), 1_000_000_000L, listener,
                     Throwable::printStackTrace);
         } else if (journal.equals("file")) {
             JournalWriter writer = new JournalWriter(new OutboxResultSink(fileOutbox, new StationId("b", "b", "b"),
@@ -188,13 +202,13 @@ public class ShutoffLatencyBenchmark {
                     JournalWriter.DEFAULT_CAPACITY);
             writerRunner = JournalWriter.start(writer, Throwable::printStackTrace);
             agent = new StationAgent(clock, ports, writer, sequence, Map.of("M", pattern),
-                    JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
+                    JointMonitor.replayConditioning(program), 1_000_000_000L, listener,
                     Throwable::printStackTrace);
         } else {
             agent = new StationAgent(clock, ports,
                     new OutboxResultSink(new MemoryOutbox(), new StationId("b", "b", "b"), () -> "id" + ids[0]++,
                             new VirtualClock(Instant.EPOCH)), sequence, Map.of("M", pattern),
-                    JointMonitor.replayConditioning(program), 1_000_000_000L, StationListener.NONE,
+                    JointMonitor.replayConditioning(program), 1_000_000_000L, listener,
                     Throwable::printStackTrace);
         }
         quiet = new float[blockLength];
@@ -207,14 +221,20 @@ public class ShutoffLatencyBenchmark {
     }
 
     @Setup(Level.Trial)
-    public void startFlood() {
+    public void startFlood() throws Exception {
         if (commands.equals("burst")) {
             flood = CommandFlood.start();
+        }
+        if (board != null) {
+            clients = LiveClients.start(board, webClients);
         }
     }
 
     @TearDown(Level.Trial)
-    public void close() throws IOException {
+    public void close() throws Exception {
+        if (clients != null) {
+            System.out.println("web view: " + clients.stop());
+        }
         if (flood != null) {
             long answered = flood.stop();
             System.out.println("command flood: " + answered + " commands answered during the trial");

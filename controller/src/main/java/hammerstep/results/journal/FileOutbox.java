@@ -49,6 +49,11 @@ public final class FileOutbox implements Outbox {
     private final TreeMap<Long, Loc> pending = new TreeMap<>();
     private final TreeMap<Long, Loc> jointsAfterLastPart = new TreeMap<>();
     private List<Entry> unfinishedPartJoints = List.of();
+    /** Most joint and part results each kept for {@link #storedAtOpen}: the web view's ring of joints. */
+    static final int READ_BACK = 10_000;
+    /** The last joint and part results the journal held at opening (position, place), oldest first; handed over once. */
+    private java.util.ArrayDeque<Map.Entry<Long, Loc>> readBackJoints = new java.util.ArrayDeque<>();
+    private java.util.ArrayDeque<Map.Entry<Long, Loc>> readBackParts = new java.util.ArrayDeque<>();
     private final long[] nextSeq = new long[MessageKind.values().length];
     private final long[] floorSeq = new long[MessageKind.values().length];
     private final List<Loss> losses = new ArrayList<>();
@@ -241,6 +246,14 @@ public final class FileOutbox implements Outbox {
                            int payloadLength) {
             Loc loc = new Loc(seg, payloadAt, payloadLength, kind, seq, id);
             pending.put(position, loc);
+            java.util.ArrayDeque<Map.Entry<Long, Loc>> back = kind == MessageKind.JOINT ? readBackJoints
+                    : kind == MessageKind.PART ? readBackParts : null;
+            if (back != null) {
+                back.addLast(Map.entry(position, loc));
+                if (back.size() > READ_BACK) {
+                    back.removeFirst();
+                }
+            }
             if (kind == MessageKind.PART) {
                 jointsAfterLastPart.clear();
             } else if (kind == MessageKind.JOINT) {
@@ -583,6 +596,35 @@ public final class FileOutbox implements Outbox {
     @Override
     public synchronized Recovery recovery() {
         return recovery;
+    }
+
+    /**
+     * The joint or part results the journal held when it was opened, delivered or not (the last
+     * {@value #READ_BACK} of each kind, oldest first), read once: the places are forgotten after
+     * this call, so a second call returns none. A result whose segment retention deleted since is
+     * left out. For the web view, which shows the results stored before a restart.
+     */
+    @Override
+    public synchronized List<Entry> storedAtOpen(MessageKind kind) {
+        java.util.ArrayDeque<Map.Entry<Long, Loc>> back = kind == MessageKind.JOINT ? readBackJoints
+                : kind == MessageKind.PART ? readBackParts : null;
+        if (back == null || back.isEmpty()) {
+            return List.of();
+        }
+        List<Entry> out = new ArrayList<>(back.size());
+        for (Map.Entry<Long, Loc> e : back) {
+            try {
+                out.add(read(e.getKey(), e.getValue()));
+            } catch (ResultStoreException ex) {
+                // its segment is gone (retention) or unreadable: not shown
+            }
+        }
+        if (kind == MessageKind.JOINT) {
+            readBackJoints = new java.util.ArrayDeque<>();
+        } else {
+            readBackParts = new java.util.ArrayDeque<>();
+        }
+        return out;
     }
 
     @Override

@@ -241,6 +241,13 @@ final class DemoDelivery implements AutoCloseable {
         Map<String, Object> received = new LinkedHashMap<>();
         StringBuilder line = new StringBuilder("results  ");
         synchronized (this) {
+            if (resultsOut != null) {
+                try {
+                    resultsOut.flush(); // whole before the demo goes on serving its web view until Ctrl-C
+                } catch (IOException e) {
+                    throw new UserError("--results-out: " + e.getMessage(), 2);
+                }
+            }
             for (MessageKind k : MessageKind.values()) {
                 long produced = outbox.nextSeq(k) - firstSeq.get(k);
                 summary.put(k.topic() + "s", produced);

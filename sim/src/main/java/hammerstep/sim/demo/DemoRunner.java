@@ -37,6 +37,7 @@ import hammerstep.web.Accounts;
 import hammerstep.web.LiveBoard;
 import hammerstep.web.ResultLog;
 import hammerstep.web.WebSettings;
+import hammerstep.web.WebStation;
 import hammerstep.web.WebView;
 
 import java.io.PrintStream;
@@ -62,12 +63,12 @@ public final class DemoRunner {
     private final DemoOptions options;
     private final PrintStream out;
     private final DemoView view;
-    private final int webPort;
+    private final WebSettings webSettings;
     private final CountDownLatch stopServing = new CountDownLatch(1);
     private volatile WebView web;
 
     public DemoRunner(DemoOptions options, PrintStream out) {
-        this(options, out, null, 0);
+        this(options, out, null, (WebSettings) null);
     }
 
     /**
@@ -76,19 +77,28 @@ public final class DemoRunner {
      * process is interrupted.
      */
     public DemoRunner(DemoOptions options, PrintStream out, int webPort) {
-        this(options, out, null, webPort);
+        this(options, out, null, webPort > 0 ? WebSettings.loopback(webPort) : null);
+    }
+
+    /**
+     * A demo that serves the web view as {@code web} says (tests: accounts, so that an engineer can
+     * run a what-if over the demo's stored traces), and after its parts keeps serving until
+     * {@link #stopServing()}.
+     */
+    public DemoRunner(DemoOptions options, PrintStream out, WebSettings web) {
+        this(options, out, null, web);
     }
 
     /** With a view of the caller's (tests: a live view of a fixed size); null: as the options say. */
     DemoRunner(DemoOptions options, PrintStream out, DemoView view) {
-        this(options, out, view, 0);
+        this(options, out, view, null);
     }
 
-    private DemoRunner(DemoOptions options, PrintStream out, DemoView view, int webPort) {
+    private DemoRunner(DemoOptions options, PrintStream out, DemoView view, WebSettings webSettings) {
         this.options = options;
         this.out = out;
         this.view = view;
-        this.webPort = webPort;
+        this.webSettings = webSettings;
     }
 
     /** Ends the serving after the parts (the demo's Ctrl-C does it by ending the process). */
@@ -177,7 +187,7 @@ public final class DemoRunner {
         List<Throwable> errors = new ArrayList<>();
         StationListener listener = listener(tally, view, clock);
         LiveBoard board = null;
-        if (webPort > 0) {
+        if (webSettings != null) {
             board = new LiveBoard(sim.rateHz(), new ResultLog(ResultLog.DEFAULT_JOINTS));
             listener = StationListener.both(listener, board);
         }
@@ -186,7 +196,7 @@ public final class DemoRunner {
                 conditioning, timing.blinkPeriodNs(), sim.habits(), parts, options.seed(),
                 listener, errors::add);
         if (board != null) {
-            web = startWeb(board, id);
+            web = startWeb(board, id, patterns);
         }
         StationExtras.attach(station.agent(), config, sim.rateHz());
         station.agent().takeCommands(desk);
@@ -235,7 +245,8 @@ public final class DemoRunner {
         }
         if (web != null) {
             try {
-                out.println("parts done; the web view stays at http://127.0.0.1:" + web.port() + "/ until Ctrl-C");
+                out.println("parts done; the web view stays at " + webSettings.scheme() + "://" + webSettings.bind() + ":"
+                        + web.port() + "/ until Ctrl-C");
                 stopServing.await();
             } finally {
                 web.close();
@@ -245,15 +256,19 @@ public final class DemoRunner {
         return exit;
     }
 
-    private WebView startWeb(LiveBoard board, StationId id) {
+    /** The view with the demo's stored traces (--traces) and patterns, for the what-if and programs pages. */
+    private WebView startWeb(LiveBoard board, StationId id, Map<String, Pattern> patterns) {
+        int port = webSettings.port();
         try {
-            WebView v = WebView.start(WebSettings.loopback(webPort), board,
-                    id.site() + "/" + id.line() + "/" + id.station() + " (simulated)");
-            out.println("web view: http://127.0.0.1:" + v.port() + "/ (bound to loopback: open on this computer,"
-                    + " no login asked)");
+            WebView v = WebView.start(webSettings, board, id.site() + "/" + id.line() + "/" + id.station()
+                    + " (simulated)", new WebStation(options.tracesDir(), patterns, null));
+            out.println("web view: " + webSettings.scheme() + "://" + webSettings.bind() + ":" + v.port() + "/ "
+                    + (v.open() ? "(bound to loopback: open on this computer, no login asked)"
+                    : "(accounts of " + webSettings.usersFile() + ")"));
             return v;
         } catch (java.io.IOException | Accounts.AccountsException e) {
-            throw new UserError("--web " + webPort + ": cannot serve on 127.0.0.1:" + webPort + ": " + e.getMessage(), 2);
+            throw new UserError("--web " + port + ": cannot serve on " + webSettings.bind() + ":" + port + ": "
+                    + e.getMessage(), 2);
         }
     }
 
