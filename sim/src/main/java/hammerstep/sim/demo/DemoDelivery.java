@@ -27,7 +27,6 @@ import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Instant;
 import java.util.Comparator;
 import java.util.EnumMap;
 import java.util.HashSet;
@@ -86,9 +85,11 @@ final class DemoDelivery implements AutoCloseable {
      *                {@code --state} or a temporary folder
      * @param brokerSection the station file's {@code broker:} section, or null; used with {@code --broker}
      * @param commands      where the plant's commands go: the demo station's desk
+     * @param clock         the demo station's virtual clock: the sink's own events (a loss found in the
+     *                      journal, its repair) carry the station's time, as the results beside them do
      */
     static DemoDelivery open(DemoOptions o, StationId station, StorageSettings storage, BrokerSettings brokerSection,
-                             StationCommands commands) {
+                             StationCommands commands, VirtualClock clock) {
         Path state = o.stateDir();
         boolean temporary = state == null;
         FileOutbox outbox = null;
@@ -124,9 +125,9 @@ final class DemoDelivery implements AutoCloseable {
                     (topic, payload, retained, correlation) -> self[0].received(topic, payload));
             Topics topics = new Topics(station);
             BrokerSettings fixed = settings;
-            // ids are random UUIDs, so a resumed run never repeats one; the sink's own events carry a fixed time
+            // ids are random UUIDs, so a resumed run never repeats one
             JournalWriter journal = new JournalWriter(new OutboxResultSink(outbox, station,
-                    () -> UUID.randomUUID().toString(), new VirtualClock(Instant.EPOCH)), outbox,
+                    () -> UUID.randomUUID().toString(), clock), outbox,
                     JournalWriter.DEFAULT_CAPACITY);
             ResultPublisher publisher = new ResultPublisher(journal.forDelivery(), station, () -> new PahoLink(fixed),
                     commands, fixed, new SystemStationClock(), o.seed(),

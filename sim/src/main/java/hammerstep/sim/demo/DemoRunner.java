@@ -156,7 +156,7 @@ public final class DemoRunner {
                 .get(PartsSection.INSTANCE).byModel());
         DemoDelivery delivery = options.delivery()
                 ? DemoDelivery.open(options, id, config.get(StationSections.STORAGE), config.get(StationSections.BROKER),
-                desk)
+                desk, clock)
                 : null;
         try {
             return run(config, sim, id, patterns, timing, parts, clock, tool, hardware, delivery, desk, view, state);

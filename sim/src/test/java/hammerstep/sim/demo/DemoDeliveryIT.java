@@ -76,4 +76,32 @@ class DemoDeliveryIT {
         assertThat(jointSeqs(r2)).containsExactlyElementsOf(
                 LongStream.rangeClosed(first + 1, first + second.get("joints").asLong()).boxed().toList());
     }
+
+    @Test
+    void aSegmentLostBetweenRunsIsAnAlarmAtTheStationsTimeAndItsSeqsAreNotGivenAgain() throws Exception {
+        Path state = dir.resolve("state");
+        Path s1 = dir.resolve("s1.json");
+        Path r2 = dir.resolve("r2.jsonl");
+        assertThat(demo(1, 3, null, s1, state)).isZero();
+        long first = JSON.readTree(s1.toFile()).get("last_seq").get("joint").asLong();
+        try (var segments = Files.newDirectoryStream(state, "seg-*")) {
+            for (Path seg : segments) {
+                Files.delete(seg);
+            }
+        }
+        assertThat(demo(1, 4, r2, dir.resolve("s2.json"), state)).isZero();
+
+        List<JsonNode> lost = new ArrayList<>();
+        for (String line : Files.readAllLines(r2)) {
+            JsonNode m = JSON.readTree(line);
+            if (m.path("code").asText().equals("RESULTS_LOST")) {
+                lost.add(m);
+            }
+        }
+        assertThat(lost).isNotEmpty();
+        assertThat(lost.get(0).get("message").asText()).contains("joint seq 1 to " + first);
+        // stamped with the demo station's (virtual) time, as the results beside it: not 1970
+        assertThat(lost).allSatisfy(m -> assertThat(m.get("time").asText()).doesNotStartWith("1970"));
+        assertThat(jointSeqs(r2).get(0)).isEqualTo(first + 1);
+    }
 }
