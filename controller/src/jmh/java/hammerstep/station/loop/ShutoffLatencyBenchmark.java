@@ -213,7 +213,10 @@ public class ShutoffLatencyBenchmark {
         }
         quiet = new float[blockLength];
         crossing = new float[blockLength];
-        int width = Math.max(4, Math.min((int) (0.002 * rateHz), 2 * blockLength - 2)); // peak inside the block
+        // peak and fall inside the block: the conditioner's output runs delaySamples() (impulse look-ahead,
+        // 6 samples at 20 kHz) behind its input, so a crossing in a block's last samples reaches the
+        // monitor with the next block (docs/design.md, "Shut-off"); this block's crossing comes early enough
+        int width = Math.max(4, Math.min((int) (0.002 * rateHz), blockLength));
         for (int i = 0; i < blockLength && i < width; i++) {
             crossing[i] = (float) (210 * Math.sin(Math.PI * i / width));
         }
