@@ -13,7 +13,9 @@ package hammerstep.signal;
  * runs flat (the nut sliding against its running torque) until the nut sticks again, and only then
  * falls off elastically: a knee. So a blow {@linkplain Kind#TURNING turned} the nut when, walking back
  * from the floor along the final fall, the fall flattens out (the knee) before the peak and there is a
- * drop at least as steep as the final fall between the peak and the knee. An oil-pulse (hydraulic)
+ * drop at least as steep as the final fall between the peak and the knee. The knee must lie before the
+ * last {@link #FALL_SAMPLES} samples over which the final fall is read: a fall that only slows down as it
+ * reaches the floor (a stiff strike snapping back) has no knee, and is {@linkplain Kind#ELASTIC elastic}. An oil-pulse (hydraulic)
  * pulse ends in a long decaying tail, its fall far gentler at the floor than after the peak:
  * {@linkplain Kind#HYDRAULIC hydraulic}. The sliding part is what carries the running torque: the nut
  * starts and ends it at rest, so over it the mean torque equals the friction the nut turned against
@@ -190,7 +192,10 @@ public final class BlowShapes {
         for (int j = p; j < knee; j++) {
             drop = Math.max(drop, b[j] - b[j + 1]);
         }
-        if (knee - p >= 2 && drop >= fall) {
+        // the final fall's slope was read over the last FALL_SAMPLES samples: a knee inside them is no knee but
+        // a fall slowing down into the floor (no elastic unload after a slide was seen), and a "slide" from the
+        // peak down to the floor would read the lobe's mean as a running torque
+        if (knee - p >= 2 && knee <= n - 1 - FALL_SAMPLES && drop >= fall) {
             ringKnee[k] = b[knee];
             ringSlip[k] = slipMean(b, p, knee);
             return Kind.TURNING.ordinal();

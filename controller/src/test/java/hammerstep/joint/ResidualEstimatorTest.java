@@ -109,6 +109,18 @@ class ResidualEstimatorTest {
     }
 
     @Test
+    void aStrikeSnappingBackIntoTheFloorIsNoSlideAndGivesNoEstimate() {
+        // a 400 N·m strike halving every sample down to the floor, then a light elastic press: no flat run
+        // and no knee anywhere, so no value, rather than the snap-back's mean read as a running torque
+        // (before the rule it gave a value: 1.12 times a "slide" of about 240 N·m)
+        float[] x = rundown(BlowForms.snapBack(400, 8, 0.5, 0), BlowForms.elastic(60, 60, 0));
+        ResidualEstimate e = judge(program(false, null), x, 512).residual();
+        assertThat(e.present()).isFalse();
+        assertThat(e.reason()).isEqualTo(ResidualEstimate.Reason.NO_TURNING_BLOW);
+        assertThat(e.turningBlows()).isZero();
+    }
+
+    @Test
     void hydraulicPulsesGiveNoEstimateEvenAfterATurningBlow() {
         float[][] blows = append(turning(180), BlowForms.hydraulic(200, 30, 15, 0), BlowForms.hydraulic(205, 30, 15, 0),
                 BlowForms.hydraulic(210, 30, 15, 0));

@@ -11,6 +11,9 @@ package hammerstep.signal;
  *       elastic fall (a quarter-cosine) once the nut has stuck again. Over the slide the torque is the
  *       friction torque, so the slide's mean torque is that torque (the nut starts and ends it at rest:
  *       impulse and momentum);</li>
+ *   <li>{@link #snapBack}: a stiff strike that unloads geometrically from its peak, each sample a fixed
+ *       fraction of the one before (a damped spring let go at its peak): no flat run, no knee, its fall
+ *       slowing down all the way into the floor;</li>
  *   <li>{@link #hydraulic}: an oil-pulse pulse: a rise, a short flat top, and an exponential tail (the oil
  *       draining through the valve).</li>
  * </ul>
@@ -46,6 +49,23 @@ public final class BlowForms {
         }
         for (int k = 1; k <= fallSamples; k++) {
             x[i++] = (float) (frictionNm * Math.cos(0.5 * Math.PI * k / fallSamples));
+        }
+        return x;
+    }
+
+    /**
+     * A snap-back: a quarter-sine rise to {@code peakNm} over {@code riseSamples}, then {@code peakNm·ratio^k}
+     * for k = 1, 2, … down to 1 % of the peak; {@code pad} zeros either side.
+     */
+    public static float[] snapBack(double peakNm, int riseSamples, double ratio, int pad) {
+        int tail = (int) Math.ceil(Math.log(0.01) / Math.log(ratio));
+        float[] x = new float[riseSamples + tail + 2 * pad];
+        int i = pad;
+        for (int k = 1; k <= riseSamples; k++) {
+            x[i++] = (float) (peakNm * Math.sin(0.5 * Math.PI * k / riseSamples));
+        }
+        for (int k = 1; k <= tail; k++) {
+            x[i++] = (float) (peakNm * Math.pow(ratio, k));
         }
         return x;
     }

@@ -65,6 +65,24 @@ class BlowShapesTest {
     }
 
     @Test
+    void aFallThatSlowsDownIntoTheFloorHasNoKneeAndReadsNoSlide() {
+        // 400 N·m, then halving every sample: 200, 100, 50, 25 above the 20 N·m floor. The fall read over the
+        // last three samples is (200 − 25) ÷ 3 = 58 N·m per sample; the very last step (25) is less than half
+        // of that, so the walk back from the floor stops at once and the "knee" would be the floor sample
+        // itself: a slide read from high on the rise down to the floor at a mean of about 240 N·m (the
+        // lobe's upper part), ten times the 25 N·m where the nut would have stuck. (Field case: a twin-pin oil-bath tool on a soft joint, a
+        // 16-sample lobe read as a slide at 216 N·m against a breakaway audit of 66 N·m.)
+        float[] x = BlowForms.snapBack(400, 8, 0.5, 10);
+        BlowShapes s = feed(x, 512, 40, 20, 1f);
+        int slot = s.find(crossing(x, 40, 512));
+        assertThat(slot).isNotNegative();
+        assertThat(s.kind(slot)).isEqualTo(BlowShapes.Kind.ELASTIC);
+        assertThat(s.slipNm(slot)).isNaN();
+        assertThat(s.kneeNm(slot)).isNaN();
+        assertThat(s.peakNm(slot)).isCloseTo(400, within(0.5));
+    }
+
+    @Test
     void aLeftHandBlowReadsAsARightHandOne() {
         float[] x = BlowForms.negated(BlowForms.turning(240, 200, 12, 40, 15, 10));
         BlowShapes s = feed(x, 64, 40, 20, -1f);

@@ -16,7 +16,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 class ResidualHeldOutTest {
 
     /** |mean| + 2σ of the estimate's error on this subset, measured when the note was written (docs/residual-estimate.md). */
-    static final double MEASURED_BOUND = 0.274;
+    static final double MEASURED_BOUND = 0.272;
     /** Margin over the measured figure before the test fails. */
     static final double MARGIN = 0.03;
     /** Max peak's calibration-set ratio truth ÷ peak (the study's full run, docs/residual-estimate.md). */
