@@ -153,8 +153,9 @@ public final class StationAgent implements Agent, SampleBlockHandler, JointEvent
         ports.tool().set(false);
         UnfinishedPart unfinished = journal.unfinishedPart();
         if (unfinished != null) {
-            LOG.warn("part {} was in work when the station stopped ({} joints stored): supervisor key closes it"
-                    + " as INTERRUPTED", unfinished.partSerial(), unfinished.jointIds().size());
+            int stored = unfinished.jointIds().size();
+            LOG.warn("part {} was in work when the station stopped ({} {} stored): supervisor key closes it"
+                    + " as INTERRUPTED", unfinished.partSerial(), stored, stored == 1 ? "joint" : "joints");
             sequence.partInterrupted(unfinished, clock.nanoTime());
         }
     }
